@@ -1,0 +1,8 @@
+import type { DemoSeeder } from './seed';
+
+/**
+ * What each feature adds to the demo scenario, in the order their data depends on each other. A
+ * feature that owns demo data appends its seeder here; `seedDemoData` runs them once, in one
+ * transaction.
+ */
+export const DEMO_SEEDERS: readonly DemoSeeder[] = [];

@@ -1,0 +1,31 @@
+import { eq } from 'drizzle-orm';
+import type { Database } from './database';
+import { appMeta } from './schema';
+
+/** The `app_meta` key that records when the demo data went in. */
+export const DEMO_SEEDED_KEY = 'demo-seeded-at';
+
+/** What one feature adds to the demo data; runs inside the seed's transaction. */
+export type DemoSeeder = (database: Database, now: Date) => void;
+
+/**
+ * Seeds the demo scenario once: when `app_meta` already records a seed, nothing happens, so restarting
+ * the server never duplicates or overwrites what a user changed. Every seeder runs in one transaction:
+ * a failure leaves the database as it was and the next start tries again.
+ */
+export function seedDemoData(
+  database: Database,
+  now: Date,
+  seeders: readonly DemoSeeder[] = [],
+): { seeded: boolean } {
+  const already = database.orm.select().from(appMeta).where(eq(appMeta.key, DEMO_SEEDED_KEY)).get();
+  if (already) return { seeded: false };
+  database.orm.transaction(() => {
+    for (const seeder of seeders) seeder(database, now);
+    database.orm
+      .insert(appMeta)
+      .values({ key: DEMO_SEEDED_KEY, value: now.toISOString(), updatedAt: now })
+      .run();
+  });
+  return { seeded: true };
+}

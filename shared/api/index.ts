@@ -1,0 +1,7 @@
+/*
+ * The request and response schemas of the Counterpoise API, in zod: one source for the server's
+ * validation, the OpenAPI document and the client's types. Metadata sits in zod's own `.meta()`, so this
+ * folder needs nothing but zod and stays usable in the browser.
+ */
+export * from './problem';
+export * from './health';

@@ -1,0 +1,52 @@
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { type BrowserContext, chromium } from 'playwright-core';
+
+/** Where Debian's Chromium lives; `CHROME_PATH` points elsewhere. */
+export const CHROMIUM_PATH = process.env['CHROME_PATH'] ?? '/usr/bin/chromium';
+
+/**
+ * Flags for a headless Chromium on a machine without outside network: no background traffic, and
+ * every host but localhost unresolvable so that nothing waits on a look-up that cannot succeed.
+ */
+const CHROMIUM_ARGS = [
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--host-resolver-rules=MAP * ~NOTFOUND, EXCLUDE localhost, EXCLUDE 127.0.0.1',
+];
+
+/** A headless Chromium with a fresh profile; `close()` also removes the profile. */
+export interface Browser {
+  readonly context: BrowserContext;
+  close(): Promise<void>;
+}
+
+/** Starts Chromium, or fails with the one line that installs it. */
+export async function launchChromium(): Promise<Browser> {
+  if (!existsSync(CHROMIUM_PATH)) {
+    throw new Error(
+      `Chromium is not installed at ${CHROMIUM_PATH}. The browser tests drive Debian's Chromium: ` +
+        'install it with `apt-get install -y chromium` (or set CHROME_PATH to a Chromium binary).',
+    );
+  }
+  const profile = mkdtempSync(join(tmpdir(), 'counterpoise-chromium-'));
+  const context = await chromium.launchPersistentContext(profile, {
+    executablePath: CHROMIUM_PATH,
+    headless: true,
+    args: CHROMIUM_ARGS,
+    viewport: { width: 1024, height: 768 },
+  });
+  return {
+    context,
+    close: async () => {
+      await context.close();
+      rmSync(profile, { recursive: true, force: true });
+    },
+  };
+}

@@ -1,0 +1,35 @@
+import type { Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { fileURLToPath } from 'node:url';
+import { createApp } from '../../../server/src/app';
+import { DEMO_SEEDERS } from '../../../server/src/db/demo-seeders';
+import { seedDemoData } from '../../../server/src/db/seed';
+import { openTemporaryDatabase } from '../../../server/src/testing/temporary-database';
+
+/** The production build of the workbench that `npm run build` leaves. */
+export const WORKBENCH_DIR = fileURLToPath(new URL('../../../dist/workbench/browser', import.meta.url));
+
+/** A real Counterpoise server on a free loopback port, over a fresh SQLite file with the demo data. */
+export interface TestServer {
+  readonly url: string;
+  stop(): Promise<void>;
+}
+
+/** Starts the server as `npm start` does, but on a temporary database and a free port. */
+export async function startServer(): Promise<TestServer> {
+  const temporary = openTemporaryDatabase();
+  seedDemoData(temporary.database, new Date(), DEMO_SEEDERS);
+  const app = createApp({ database: temporary.database, staticDir: WORKBENCH_DIR });
+  const server = await new Promise<Server>((resolve) => {
+    const listening = app.listen(0, '127.0.0.1', () => resolve(listening));
+  });
+  const { port } = server.address() as AddressInfo;
+  return {
+    url: `http://127.0.0.1:${port}`,
+    stop: async () => {
+      server.closeAllConnections();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      temporary.dispose();
+    },
+  };
+}
