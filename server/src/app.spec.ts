@@ -16,7 +16,10 @@ const clock: Clock = { now: () => now };
 beforeEach(() => {
   temporary = openTemporaryDatabase();
   staticDir = mkdtempSync(join(tmpdir(), 'counterpoise-static-'));
-  writeFileSync(join(staticDir, 'index.html'), '<!doctype html><title>Counterpoise</title><app-root></app-root>');
+  writeFileSync(
+    join(staticDir, 'index.html'),
+    '<!doctype html><title>Counterpoise</title><app-root></app-root>',
+  );
   writeFileSync(join(staticDir, 'main-ABCDEFGH.js'), 'console.log(1)');
   now = new Date('2026-05-04T10:00:00Z');
 });

@@ -16,9 +16,7 @@ function main(): void {
   const config = loadConfig();
   const database = openDatabase(config.DATABASE_URL);
   const migrations = migrateDatabase(database);
-  const seed = config.SEED_DEMO
-    ? seedDemoData(database, systemClock.now(), DEMO_SEEDERS)
-    : { seeded: false };
+  const seed = config.SEED_DEMO ? seedDemoData(database, systemClock.now(), DEMO_SEEDERS) : { seeded: false };
 
   const app = createApp({ database, clock: systemClock, version: VERSION, staticDir: config.STATIC_DIR });
   const server = app.listen(config.PORT, config.HOST, () => {

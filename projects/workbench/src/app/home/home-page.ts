@@ -1,4 +1,3 @@
-import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
@@ -14,7 +13,6 @@ import { JOB_STEPS } from './job-steps';
   selector: 'app-home-page',
   imports: [
     CpSafetyNotice,
-    DecimalPipe,
     MatButtonModule,
     MatCardModule,
     MatIconModule,
@@ -28,4 +26,15 @@ import { JOB_STEPS } from './job-steps';
 export class HomePage {
   protected readonly steps = JOB_STEPS;
   protected readonly status = inject(ServerStatus);
+  protected readonly uptimeLabel = uptimeLabel;
+}
+
+/** How long the server has been up, in the largest unit that reads naturally. */
+export function uptimeLabel(seconds: number): string {
+  if (seconds < 60) return 'Under a minute';
+  const minutes = Math.floor(seconds / 60);
+  if (minutes < 120) return `${minutes} min`;
+  const hours = Math.floor(minutes / 60);
+  if (hours < 48) return `${hours} h ${minutes % 60} min`;
+  return `${Math.floor(hours / 24)} days`;
 }

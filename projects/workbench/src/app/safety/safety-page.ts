@@ -8,9 +8,9 @@ import { CpSafetyNotice } from '@counterpoise/ng/core';
   template: `
     <h1>Safety</h1>
     <p class="lead">
-      A rotor at operating speed stores a great deal of energy. These reminders come back on the screens
-      where each hazard arises. They do not replace the machine manufacturer's manual, the site's rules,
-      or local codes and licensed practice.
+      A rotor at operating speed stores a great deal of energy. These reminders come back on the screens where
+      each hazard arises. They do not replace the machine manufacturer's manual, the site's rules, or local
+      codes and licensed practice.
     </p>
     <div class="notices">
       <cp-safety-notice heading="Before you touch the rotor" [topics]="['lockout']" />
