@@ -1,0 +1,12 @@
+export * from './errors';
+export * from './phasor';
+export * from './conventions';
+export * from './averaging';
+export * from './single-plane';
+export * from './multi-plane';
+export * from './four-run';
+export * from './placement';
+export * from './tolerance';
+export * from './severity';
+export * from './inspection';
+export { conditionNumber, leastSquares, singularValues, complexMatrix, type ComplexMatrix } from './linalg';
