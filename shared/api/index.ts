@@ -5,3 +5,7 @@
  */
 export * from './problem';
 export * from './health';
+export * from './field-errors';
+export * from './calc';
+export * from './calc-routes';
+export * from './batch';

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-/** One field at fault in a request, as a JSON-pointer-like path (`readings.0.phaseDeg`) and a message. */
+/** One field at fault in a request, as a JSON-pointer-like path (`readings[0].phaseDeg`) and a message. */
 export const FieldErrorSchema = z
   .object({
     path: z.string().meta({ description: 'Where in the request the value at fault sits.' }),
@@ -16,6 +16,10 @@ export const ProblemSchema = z
     status: z.number().int().meta({ description: 'The HTTP status code.' }),
     detail: z.string().optional().meta({ description: 'What went wrong in this occurrence.' }),
     instance: z.string().optional().meta({ description: 'The request path.' }),
+    code: z
+      .string()
+      .optional()
+      .meta({ description: 'A stable name of the problem for programs, e.g. `ZERO_TRIAL_EFFECT`.' }),
     errors: z.array(FieldErrorSchema).optional(),
   })
   .meta({

@@ -14,8 +14,21 @@ export class HttpProblem extends Error {
     readonly detail?: string,
     readonly errors?: readonly FieldError[],
     readonly type = 'about:blank',
+    readonly code?: string,
   ) {
     super(detail ?? title);
+  }
+
+  /** The error that answers with `problem` (its `instance` is set from the request). */
+  static from(problem: Problem): HttpProblem {
+    return new HttpProblem(
+      problem.status,
+      problem.title,
+      problem.detail,
+      problem.errors,
+      problem.type,
+      problem.code,
+    );
   }
 }
 
@@ -27,6 +40,31 @@ export function sendProblem(res: Response, problem: Problem): void {
 /** A 404 problem for every API path that no route answered. */
 export const apiNotFound: RequestHandler = (req, _res, next) => {
   next(new HttpProblem(404, 'Not Found', `No route ${req.method} ${req.originalUrl.split('?')[0]}.`));
+};
+
+/** A 405 problem, with the `Allow` header, for a known path asked with a method it does not take. */
+export function methodNotAllowed(...allowed: readonly string[]): RequestHandler {
+  const allow = allowed.join(', ');
+  return (req, res, next) => {
+    res.setHeader('Allow', allow);
+    next(new HttpProblem(405, 'Method Not Allowed', `${req.method} is not allowed here; use ${allow}.`));
+  };
+}
+
+/** A 415 problem unless the request says its body is JSON. */
+export const requireJsonBody: RequestHandler = (req, _res, next) => {
+  if (req.is('application/json')) {
+    next();
+    return;
+  }
+  const sent = req.headers['content-type'] ?? 'no Content-Type';
+  next(
+    new HttpProblem(
+      415,
+      'Unsupported Media Type',
+      `The body must be JSON, sent with Content-Type: application/json (got ${sent}).`,
+    ),
+  );
 };
 
 /** The status and wording of the errors Express's own body parsers raise. */
@@ -66,6 +104,7 @@ export function problemHandler(log: (message: string, error: unknown) => void): 
         status: error.status,
         ...(error.detail === undefined ? {} : { detail: error.detail }),
         ...(error.errors === undefined ? {} : { errors: [...error.errors] }),
+        ...(error.code === undefined ? {} : { code: error.code }),
         instance,
       });
       return;

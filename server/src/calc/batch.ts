@@ -1,0 +1,62 @@
+import { performance } from 'node:perf_hooks';
+import {
+  type BatchRequestSchema,
+  calculate,
+  CALC_ROUTE_NAMES,
+  type CalcOutcome,
+  isCalcRouteName,
+  type Problem,
+} from '@counterpoise/api';
+import type { Response } from 'express';
+import type { z } from 'zod';
+import type { Clock } from '../clock';
+import type { UsageSink } from '../http/keyed-request';
+
+const CALC_ROUTE_PREFIX = 'POST /api/v1/calc/';
+
+function unknownRouteProblem(route: string): Problem {
+  const message = `"${route}" is not a calculator route; use one of ${CALC_ROUTE_NAMES.join(', ')}.`;
+  return {
+    type: 'about:blank',
+    title: 'Not Found',
+    status: 404,
+    code: 'UNKNOWN_ROUTE',
+    detail: message,
+    errors: [{ path: 'route', message }],
+  };
+}
+
+/**
+ * Answers every item of a batch on its own, in order, and logs one usage row per item. Each item's JSON is
+ * written once and its length is the row's byte count, so the log costs no second serialisation.
+ */
+export function answerBatch(res: Response, deps: { usage: UsageSink; clock: Clock }): void {
+  const { items } = res.locals.body as z.output<typeof BatchRequestSchema>;
+  const key = res.locals.apiKey;
+  const parts: string[] = [];
+  for (let index = 0; index < items.length; index++) {
+    const item = items[index]!;
+    const started = performance.now();
+    const outcome: CalcOutcome | { status: 404; problem: Problem } = isCalcRouteName(item.route)
+      ? calculate(item.route, item.body)
+      : { status: 404, problem: unknownRouteProblem(item.route) };
+    const id = item.id ?? String(index);
+    const json =
+      outcome.status === 200
+        ? JSON.stringify({ id, status: 200, result: outcome.result })
+        : JSON.stringify({ id, status: outcome.status, problem: outcome.problem });
+    parts.push(json);
+    if (key) {
+      deps.usage.record({
+        keyId: key.id,
+        route: CALC_ROUTE_PREFIX + (isCalcRouteName(item.route) ? item.route : '(unknown)'),
+        status: outcome.status,
+        durationMs: performance.now() - started,
+        bytes: Buffer.byteLength(json),
+        at: deps.clock.now(),
+      });
+    }
+  }
+  res.locals.usageRecorded = true;
+  res.type('application/json').send(`{"items":[${parts.join(',')}]}`);
+}

@@ -1,0 +1,149 @@
+import { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
+import {
+  BatchRequestSchema,
+  BatchResponseSchema,
+  CALC_ROUTE_NAMES,
+  CALC_ROUTES,
+  type CalcRouteName,
+  computeCalc,
+  ProblemSchema,
+} from '@counterpoise/api';
+import express, { Router } from 'express';
+import type { z } from 'zod';
+import type { Clock } from '../clock';
+import type { UsageSink } from '../http/keyed-request';
+import { methodNotAllowed, requireJsonBody, sendProblem } from '../http/problem';
+import { validateBody } from '../http/validate';
+import { answerBatch } from './batch';
+
+/** Where the calculator routes are mounted. */
+export const CALC_BASE_PATH = '/api/v1/calc';
+
+/** The largest body of one calculation; a batch may carry more. */
+export const CALC_BODY_LIMIT = '64kb';
+export const BATCH_BODY_LIMIT = '2mb';
+
+/** The security schemes the calculator routes accept, as registered in the OpenAPI document. */
+export const CALC_SECURITY: Record<string, string[]>[] = [{ ApiKeyHeader: [] }, { ApiKeyBearer: [] }];
+
+export const calcRegistry = new OpenAPIRegistry();
+
+const problemResponse = (description: string) => ({
+  description,
+  content: { 'application/problem+json': { schema: ProblemSchema } },
+});
+
+/** The error answers every calculator route can give. */
+const PROBLEM_RESPONSES = {
+  400: problemResponse(
+    'The body does not fit the route, or the engine cannot compute it; `errors` names the field.',
+  ),
+  401: problemResponse('No API key, or one that is not known.'),
+  403: problemResponse('The API key has been revoked.'),
+  413: problemResponse('The body is larger than the route accepts.'),
+  415: problemResponse('The body is not sent as application/json.'),
+  429: problemResponse('Over the rate limit of the key; `Retry-After` says when to try again.'),
+};
+
+for (const name of CALC_ROUTE_NAMES) {
+  const definition = CALC_ROUTES[name] as unknown as {
+    summary: string;
+    description: string;
+    request: z.ZodType;
+    response: z.ZodType;
+    example: unknown;
+  };
+  // The answer shown is computed from the example request, so the two can never disagree.
+  const outcome = computeCalc(name, definition.request.parse(definition.example) as never);
+  calcRegistry.registerPath({
+    method: 'post',
+    path: `${CALC_BASE_PATH}/${name}`,
+    operationId: `calc-${name}`,
+    tags: ['Calculations'],
+    summary: definition.summary,
+    description: definition.description,
+    security: CALC_SECURITY,
+    request: {
+      body: {
+        required: true,
+        content: { 'application/json': { schema: definition.request, example: definition.example } },
+      },
+    },
+    responses: {
+      200: {
+        description: 'The answer, with `warnings` in plain words.',
+        content: {
+          'application/json': {
+            schema: definition.response,
+            ...(outcome.status === 200 ? { example: outcome.result } : {}),
+          },
+        },
+      },
+      ...PROBLEM_RESPONSES,
+    },
+  });
+}
+
+calcRegistry.registerPath({
+  method: 'post',
+  path: `${CALC_BASE_PATH}/batch`,
+  operationId: 'calc-batch',
+  tags: ['Calculations'],
+  summary: 'Many calculations in one request',
+  description:
+    'Up to 1,000 items, each `{ id?, route, body }` with `route` one of the calculator routes. Each item is ' +
+    'validated and answered on its own, with the status that route alone would give; one bad item never ' +
+    'fails the others. Usage counts one row per item.',
+  security: CALC_SECURITY,
+  request: {
+    body: {
+      required: true,
+      content: {
+        'application/json': {
+          schema: BatchRequestSchema,
+          example: {
+            items: [
+              { id: 'drum-7', route: 'single-plane', body: CALC_ROUTES['single-plane'].example },
+              { id: 'drum-8', route: 'radius', body: CALC_ROUTES.radius.example },
+            ],
+          },
+        },
+      },
+    },
+  },
+  responses: {
+    200: {
+      description: 'One answer per item, in order.',
+      content: { 'application/json': { schema: BatchResponseSchema } },
+    },
+    ...PROBLEM_RESPONSES,
+  },
+});
+
+/**
+ * The calculator routes, `POST /<route>` and `POST /batch`. They sit behind the API-key, rate-limit and
+ * usage middleware of `/api/v1`; a batch logs its own usage rows, one per item.
+ */
+export function calcRouter(deps: { usage: UsageSink; clock: Clock }): Router {
+  const router = Router();
+  const json = express.json({ limit: CALC_BODY_LIMIT, type: () => true });
+
+  router.post(
+    '/batch',
+    requireJsonBody,
+    express.json({ limit: BATCH_BODY_LIMIT, type: () => true }),
+    validateBody(BatchRequestSchema),
+    (_req, res) => answerBatch(res, deps),
+  );
+
+  for (const name of CALC_ROUTE_NAMES) {
+    router.post(`/${name}`, requireJsonBody, json, validateBody(CALC_ROUTES[name].request), (req, res) => {
+      const outcome = computeCalc(name as CalcRouteName, res.locals.body as never);
+      if (outcome.status === 200) res.json(outcome.result);
+      else sendProblem(res, { ...outcome.problem, instance: req.baseUrl + req.path });
+    });
+  }
+
+  router.all(['/batch', ...CALC_ROUTE_NAMES.map((name) => `/${name}`)], methodNotAllowed('POST'));
+  return router;
+}

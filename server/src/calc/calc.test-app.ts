@@ -1,0 +1,27 @@
+import express, { type Express } from 'express';
+import type { Clock } from '../clock';
+import type { UsageRow, UsageSink } from '../http/keyed-request';
+import { apiNotFound, problemHandler } from '../http/problem';
+import { calcRouter } from './calc.router';
+
+/**
+ * The calculator routes alone, behind a stand-in for the key middleware that marks every request as made
+ * with key 7, and a usage sink that keeps its rows in memory: for the router's own specs. The routes behind
+ * the real key, limit and usage middleware are exercised through `createApp` in the API specs.
+ */
+export function calcTestApp(clock: Clock = { now: () => new Date('2026-06-01T08:00:00Z') }): {
+  app: Express;
+  rows: UsageRow[];
+} {
+  const rows: UsageRow[] = [];
+  const usage: UsageSink = { record: (row) => rows.push(row) };
+  const app = express();
+  app.use((_req, res, next) => {
+    res.locals.apiKey = { id: 7, name: 'spec', prefix: 'cpk_spec', limitPerMinute: 1000 };
+    next();
+  });
+  app.use('/api/v1/calc', calcRouter({ usage, clock }));
+  app.use('/api', apiNotFound);
+  app.use(problemHandler(() => undefined));
+  return { app, rows };
+}

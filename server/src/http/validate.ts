@@ -1,0 +1,45 @@
+import { invalidRequestProblem } from '@counterpoise/api';
+import type { RequestHandler } from 'express';
+import type { z } from 'zod';
+import { HttpProblem } from './problem';
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    interface Locals {
+      /** The request body as the route's schema parsed it; handlers read this, never `req.body`. */
+      body?: unknown;
+      /** The query string as the route's schema parsed it. */
+      query?: unknown;
+    }
+  }
+}
+
+/**
+ * Checks the body against the route's zod schema and keeps the parsed, typed value in `res.locals.body`,
+ * so that the handler never parses twice. A body that does not fit answers 400 with every field at fault.
+ */
+export function validateBody(schema: z.ZodType): RequestHandler {
+  return (req, res, next) => {
+    const parsed = schema.safeParse(req.body);
+    if (!parsed.success) {
+      next(HttpProblem.from(invalidRequestProblem(parsed.error)));
+      return;
+    }
+    res.locals.body = parsed.data;
+    next();
+  };
+}
+
+/** The same for the query string, kept in `res.locals.query`. */
+export function validateQuery(schema: z.ZodType): RequestHandler {
+  return (req, res, next) => {
+    const parsed = schema.safeParse(req.query);
+    if (!parsed.success) {
+      next(HttpProblem.from(invalidRequestProblem(parsed.error)));
+      return;
+    }
+    res.locals.query = parsed.data;
+    next();
+  };
+}
