@@ -44,6 +44,8 @@ export interface FourRunResult {
  * Source: the graphical construction of the three circles in R. B. McMillan, Rotating Machinery: Practical
  * Solutions to Unbalance and Misalignment (Fairmont Press, 2004), ch. 6, eq. (6.2)
  * "correction weight = trial weight x O / T"; the algebra above is the law of cosines on that construction.
+ * Published examples checked in tests/reference: D. Shreve, "Balancing Without Phase" (Reliabilityweb.com), and
+ * the three application cases of M.-H. Bui, D.-H. Dinh, P.-V. Dang (four-run reproducibility package v3.0).
  */
 export function fourRunBalance(input: FourRunInput): FourRunResult {
   const o = requireNonNegative(input?.initialAmplitude, 'initialAmplitude', 'vibration amplitude');

@@ -64,9 +64,12 @@ export interface MultiPlaneResult {
  * Step 2, correction: c minimises ||r_0 + A c|| (exact for m = n); residual r_0 + A c; to add: c - w_K.
  * The 2-norm condition number of A says how well the sensors separate the planes.
  * Sources: T. P. Goodman, "A least-squares method for computing balance corrections", J. Eng. Ind. 86 (1964)
- * 273-279 (from memory); R. B. McMillan, Rotating Machinery: Practical Solutions to Unbalance and Misalignment
- * (Fairmont Press, 2004), ch. 5, two-plane example 5-4; X. Yu, "General influence coefficient algorithm in
- * balancing of rotating machinery", Int. J. Rotating Machinery 10 (2004) 85-90 (weights left on, redundant runs).
+ * 273-279 (from memory; its numerical example, as transcribed in a public repository, is checked in
+ * tests/reference/goodman-1964.spec.ts); R. Tiwari, NPTEL course Rotor Dynamics, module 13, Example 13.5
+ * (tests/reference/tiwari-nptel.spec.ts); R. B. McMillan, Rotating Machinery: Practical Solutions to
+ * Unbalance and Misalignment (Fairmont Press, 2004), ch. 5, two-plane example 5-4; X. Yu, "General influence
+ * coefficient algorithm in balancing of rotating machinery", Int. J. Rotating Machinery 10 (2004) 85-90
+ * (weights left on, redundant runs).
  */
 export function multiPlaneBalance(input: MultiPlaneInput): MultiPlaneResult {
   const n = input?.planes;
