@@ -34,7 +34,7 @@ import {
   TrialWeightRequestSchema,
   TrialWeightResponseSchema,
 } from './calc';
-import { fieldErrorsOf } from './field-errors';
+import { fieldErrorsOf, formatPath } from './field-errors';
 import type { Problem } from './problem';
 
 /** One calculator route: its schemas, what it computes, and the example its documentation shows. */
@@ -312,21 +312,57 @@ export function engineProblem(error: EngineError): Problem {
   };
 }
 
+/** The path of the first number in `value` that is not finite, or undefined when all are. */
+export function firstNonFinitePath(value: unknown, path: readonly PropertyKey[] = []): string | undefined {
+  if (typeof value === 'number') return Number.isFinite(value) ? undefined : formatPath(path);
+  if (value === null || typeof value !== 'object') return undefined;
+  if (Array.isArray(value)) {
+    for (let index = 0; index < value.length; index++) {
+      const found = firstNonFinitePath(value[index], [...path, index]);
+      if (found !== undefined) return found;
+    }
+    return undefined;
+  }
+  for (const key in value) {
+    const found = firstNonFinitePath((value as Record<string, unknown>)[key], [...path, key]);
+    if (found !== undefined) return found;
+  }
+  return undefined;
+}
+
 /**
  * Computes a request already accepted by the route's schema; the engine's refusals become a problem.
- * Anything else the engine throws is a bug and is thrown on.
+ * An answer that overflows (a radius of 1e-300 mm, say) is refused too: a NaN or an infinity must never
+ * reach a technician as a mass. Anything else the engine throws is a bug and is thrown on.
  */
 export function computeCalc<Name extends CalcRouteName>(
   name: Name,
   body: z.output<(typeof CALC_ROUTES)[Name]['request']>,
 ): CalcOutcome<Name> {
   const definition = CALC_ROUTES[name] as unknown as CalcRoute<z.ZodType, z.ZodType>;
+  let result: unknown;
   try {
-    return { status: 200, result: definition.compute(body) as CalcResponse<Name> };
+    result = definition.compute(body);
   } catch (error) {
     if (error instanceof EngineError) return { status: 400, problem: engineProblem(error) };
     throw error;
   }
+  const overflow = firstNonFinitePath(result);
+  if (overflow !== undefined) {
+    return {
+      status: 400,
+      problem: {
+        type: 'about:blank',
+        title: 'Bad Request',
+        status: 400,
+        code: 'RESULT_OUT_OF_RANGE',
+        detail:
+          `These values give a result too large to use (${overflow}); check for a value typed ` +
+          'far too small or too large.',
+      },
+    };
+  }
+  return { status: 200, result: result as CalcResponse<Name> };
 }
 
 /** Validates and computes one request of the named route, as the API does. */

@@ -59,6 +59,21 @@ export const WeightSchema = z
   })
   .meta({ id: 'Weight', description: 'A weight and its angle from the reference mark.' });
 
+/** A reading in an answer: no bounds, since an answer may be as large as the inputs make it. */
+export const ReadingResultSchema = z
+  .object({ amplitude: z.number(), phaseDeg: z.number() })
+  .meta({ id: 'ReadingResult', description: 'An amplitude and phase computed by the engine.' });
+
+/** A weight in an answer. */
+export const WeightResultSchema = z
+  .object({ mass: z.number(), angleDeg: z.number() })
+  .meta({ id: 'WeightResult', description: 'A weight and its angle from the reference mark.' });
+
+/** A weight in a correction plane, in an answer. */
+export const PlaneWeightResultSchema = z
+  .object({ plane: z.number().int(), mass: z.number(), angleDeg: z.number() })
+  .meta({ id: 'PlaneWeightResult' });
+
 /** A weight in a numbered correction plane. */
 export const PlaneWeightSchema = z
   .strictObject({
@@ -96,7 +111,7 @@ export const OneRunRequestSchema = z
 
 export const OneRunResponseSchema = z
   .object({
-    correction: WeightSchema,
+    correction: WeightResultSchema,
     heavySpotDeg: z.number().meta({ description: 'Where the unbalance is; the weight goes opposite.' }),
     warnings: Warnings,
   })
@@ -132,12 +147,14 @@ export const SinglePlaneRequestSchema = z
 export const SinglePlaneResponseSchema = z
   .object({
     influenceCoefficient: InfluenceCoefficientSchema,
-    correction: WeightSchema.meta({
+    correction: WeightResultSchema.meta({
       description: 'The weight to add now; with the trial weight left on, what to add to it.',
     }),
-    totalCorrection: WeightSchema.meta({ description: 'The one weight that balances the bare rotor.' }),
-    trialEffect: ReadingSchema.meta({ description: 'What the trial weight changed.' }),
-    predictedResidual: ReadingSchema.meta({ description: 'The reading expected after the correction.' }),
+    totalCorrection: WeightResultSchema.meta({ description: 'The one weight that balances the bare rotor.' }),
+    trialEffect: ReadingResultSchema.meta({ description: 'What the trial weight changed.' }),
+    predictedResidual: ReadingResultSchema.meta({
+      description: 'The reading expected after the correction.',
+    }),
     warnings: Warnings,
   })
   .meta({ id: 'SinglePlaneResponse' });
@@ -182,10 +199,10 @@ export const MultiPlaneRequestSchema = z
 export const MultiPlaneResponseSchema = z
   .object({
     corrections: z
-      .array(PlaneWeightSchema)
+      .array(PlaneWeightResultSchema)
       .meta({ description: 'The total weight per plane on a rotor without trial weights.' }),
     toAdd: z
-      .array(PlaneWeightSchema)
+      .array(PlaneWeightResultSchema)
       .meta({ description: "What to add per plane with the last run's weights left on." }),
     influenceCoefficients: z.array(
       z.object({
@@ -198,7 +215,7 @@ export const MultiPlaneResponseSchema = z
     conditionNumber: z
       .number()
       .meta({ description: 'How well the sensors separate the planes: near 1 is good, large is poor.' }),
-    predictedResidual: z.array(ReadingSchema).meta({ description: 'The reading expected per sensor.' }),
+    predictedResidual: z.array(ReadingResultSchema).meta({ description: 'The reading expected per sensor.' }),
     warnings: Warnings,
   })
   .meta({ id: 'MultiPlaneResponse' });
@@ -223,7 +240,7 @@ export const FourRunRequestSchema = z
 
 export const FourRunResponseSchema = z
   .object({
-    correction: WeightSchema,
+    correction: WeightResultSchema,
     trialEffect: z
       .object({ amplitude: z.number(), angleDeg: z.number() })
       .meta({ description: 'The amplitude the trial weight alone causes, and where it adds straight on.' }),
@@ -272,7 +289,7 @@ export const SplitRequestSchema = z
 
 export const SplitResponseSchema = z
   .object({
-    weights: z.array(WeightSchema),
+    weights: z.array(WeightResultSchema),
     massRatio: z.number().meta({ description: 'Mass placed over the mass of the ideal weight.' }),
     warnings: Warnings,
   })
@@ -296,8 +313,12 @@ export const CombineRequestSchema = z
   })
   .meta({ id: 'CombineRequest' });
 
+const RadialWeightResultSchema = z
+  .object({ mass: z.number(), angleDeg: z.number(), radius: z.number().optional() })
+  .meta({ id: 'RadialWeightResult' });
+
 export const CombineResponseSchema = z
-  .object({ weight: RadialWeightSchema, warnings: Warnings })
+  .object({ weight: RadialWeightResultSchema, warnings: Warnings })
   .meta({ id: 'CombineResponse' });
 
 export const RadiusRequestSchema = z
