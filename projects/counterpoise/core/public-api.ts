@@ -7,3 +7,25 @@ export {
   type SafetyTopic,
 } from './safety-cautions';
 export { CpSafetyNotice } from './safety-notice';
+export {
+  DEFAULT_DIAL_CONVENTION,
+  angleAtPoint,
+  angleFromScreenDeg,
+  angularDistanceDeg,
+  describeAngle,
+  expandPositions,
+  isAllowedPosition,
+  nearestPosition,
+  normalizeDeg,
+  pointAtAngle,
+  pointAtScreenAngle,
+  screenAngleDeg,
+  screenAngleOfPoint,
+  screenSense,
+  snapAngle,
+  type AngleCounting,
+  type DialConvention,
+  type DialPositions,
+  type Rotation,
+  type ScreenPoint,
+} from './dial-geometry';
