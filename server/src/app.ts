@@ -6,7 +6,12 @@ import { type Clock, systemClock } from './clock';
 import type { Database } from './db/database';
 import { healthRegistry, healthRouter } from './health/health.router';
 import { apiNotFound, problemHandler } from './http/problem';
+import { calcRegistry, calcRouter } from './calc/calc.router';
+import { keyedV1Router } from './http/v1';
+import { keysRegistry } from './keys/keys.openapi';
 import { buildOpenApiDocument, openApiRouter } from './openapi/openapi';
+import { UsageLog } from './usage/usage-log';
+import { usageRegistry } from './usage/usage.router';
 import { VERSION } from './version';
 
 /** What the app is built from; tests pass a temporary database and a fixed clock. */
@@ -17,10 +22,18 @@ export interface AppDeps {
   /** The built workbench (`dist/workbench/browser`); the app is not served when absent. */
   readonly staticDir?: string;
   readonly log?: (message: string, error?: unknown) => void;
+  /**
+   * The usage log of keyed requests. main.ts builds it so that it can `close()` it at shutdown, after
+   * the server has finished its requests and before the database closes; without one, the app builds
+   * its own (tests that make keyed requests pass theirs, to `flush()` it).
+   */
+  readonly usageLog?: UsageLog;
+  /** Web origins whose pages may call `/api/v1` (CORS); none by default. */
+  readonly corsOrigins?: readonly string[];
 }
 
 /** Every feature's OpenAPI registry, in the order of the document. */
-export const OPENAPI_REGISTRIES = [healthRegistry];
+export const OPENAPI_REGISTRIES = [healthRegistry, keysRegistry, usageRegistry, calcRegistry];
 
 /**
  * Builds the Express app: the API under `/api`, its OpenAPI document and Swagger UI, and the workbench
@@ -42,6 +55,18 @@ export function createApp(deps: AppDeps): Express {
       },
     }),
   );
+
+  const usageLog = deps.usageLog ?? new UsageLog(deps.database, { log });
+  const v1 = keyedV1Router({
+    database: deps.database,
+    clock,
+    usage: usageLog,
+    corsOrigins: deps.corsOrigins ?? [],
+  });
+  v1.use('/calc', calcRouter({ usage: usageLog, clock }));
+  // Mounted ahead of `/api` so that keyed requests, the busy ones, pass through no other router;
+  // a path no keyed route answers falls through to the 404 below.
+  app.use('/api/v1', v1);
 
   const api = Router();
   api.use(healthRouter({ database: deps.database, clock, version }));

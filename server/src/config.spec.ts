@@ -22,4 +22,24 @@ describe('loadConfig', () => {
     expect(read).toThrow(/PORT/);
     expect(read).toThrow(/SEED_DEMO/);
   });
+
+  it('allows no cross-origin caller and 600 requests a minute for a new key by default', () => {
+    const config = loadConfig({});
+    expect(config.CORS_ORIGINS).toEqual([]);
+    expect(config.API_KEY_DEFAULT_LIMIT).toBe(600);
+  });
+
+  it('reads CORS_ORIGINS as a comma-separated list of origins, as browsers write them', () => {
+    const config = loadConfig({ CORS_ORIGINS: ' https://Portal.example , http://localhost:8080,' });
+    expect(config.CORS_ORIGINS).toEqual(['https://portal.example', 'http://localhost:8080']);
+    expect(loadConfig({ API_KEY_DEFAULT_LIMIT: '120' }).API_KEY_DEFAULT_LIMIT).toBe(120);
+  });
+
+  it('refuses an origin with a path or without a scheme, and a limit below 1', () => {
+    expect(() => loadConfig({ CORS_ORIGINS: 'https://portal.example/app' })).toThrow(
+      /CORS_ORIGINS: "https:\/\/portal.example\/app" is not an origin/,
+    );
+    expect(() => loadConfig({ CORS_ORIGINS: 'portal.example' })).toThrow(/CORS_ORIGINS/);
+    expect(() => loadConfig({ API_KEY_DEFAULT_LIMIT: '0' })).toThrow(/API_KEY_DEFAULT_LIMIT/);
+  });
 });

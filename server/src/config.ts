@@ -1,4 +1,35 @@
 import { z } from 'zod';
+import { MAX_LIMIT_PER_MINUTE } from '@counterpoise/api';
+
+/**
+ * A comma-separated list of web origins (`https://portal.example,http://localhost:8080`), each as a
+ * browser sends it in `Origin`: scheme, host and port, no path. Empty means no cross-origin caller.
+ */
+const origins = z
+  .string()
+  .default('')
+  .transform((text, context) => {
+    const list = text
+      .split(',')
+      .map((origin) => origin.trim())
+      .filter((origin) => origin !== '');
+    for (const origin of list) {
+      let normalised: string | undefined;
+      try {
+        normalised = new URL(origin).origin;
+      } catch {
+        normalised = undefined;
+      }
+      if (normalised !== origin.toLowerCase() || normalised === 'null') {
+        context.issues.push({
+          code: 'custom',
+          input: origin,
+          message: `"${origin}" is not an origin; write scheme, host and port only, e.g. https://portal.example`,
+        });
+      }
+    }
+    return list.map((origin) => origin.toLowerCase());
+  });
 
 const flag = z
   .enum(['true', 'false', '1', '0', 'yes', 'no'])
@@ -16,6 +47,10 @@ const ConfigSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
   SEED_DEMO: flag.default(true),
   STATIC_DIR: z.string().min(1).default('dist/workbench/browser'),
+  /** Web pages on these origins may call `/api/v1` from the browser. */
+  CORS_ORIGINS: origins,
+  /** Requests per minute of a key created without `--limit`. */
+  API_KEY_DEFAULT_LIMIT: z.coerce.number().int().min(1).max(MAX_LIMIT_PER_MINUTE).default(600),
 });
 
 export type Config = z.infer<typeof ConfigSchema>;

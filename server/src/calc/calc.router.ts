@@ -14,6 +14,7 @@ import type { Clock } from '../clock';
 import type { UsageSink } from '../http/keyed-request';
 import { methodNotAllowed, requireJsonBody, sendProblem } from '../http/problem';
 import { validateBody } from '../http/validate';
+import { API_KEY_SECURITY, KEYED_ROUTE_RESPONSES, RATE_LIMIT_HEADERS } from '../keys/keys.openapi';
 import { answerBatch } from './batch';
 
 /** Where the calculator routes are mounted. */
@@ -22,9 +23,6 @@ export const CALC_BASE_PATH = '/api/v1/calc';
 /** The largest body of one calculation; a batch may carry more. */
 export const CALC_BODY_LIMIT = '64kb';
 export const BATCH_BODY_LIMIT = '2mb';
-
-/** The security schemes the calculator routes accept, as registered in the OpenAPI document. */
-export const CALC_SECURITY: Record<string, string[]>[] = [{ ApiKeyHeader: [] }, { ApiKeyBearer: [] }];
 
 export const calcRegistry = new OpenAPIRegistry();
 
@@ -38,11 +36,9 @@ const PROBLEM_RESPONSES = {
   400: problemResponse(
     'The body does not fit the route, or the engine cannot compute it; `errors` names the field.',
   ),
-  401: problemResponse('No API key, or one that is not known.'),
-  403: problemResponse('The API key has been revoked.'),
+  ...KEYED_ROUTE_RESPONSES,
   413: problemResponse('The body is larger than the route accepts.'),
   415: problemResponse('The body is not sent as application/json.'),
-  429: problemResponse('Over the rate limit of the key; `Retry-After` says when to try again.'),
 };
 
 for (const name of CALC_ROUTE_NAMES) {
@@ -62,7 +58,7 @@ for (const name of CALC_ROUTE_NAMES) {
     tags: ['Calculations'],
     summary: definition.summary,
     description: definition.description,
-    security: CALC_SECURITY,
+    security: API_KEY_SECURITY,
     request: {
       body: {
         required: true,
@@ -72,6 +68,7 @@ for (const name of CALC_ROUTE_NAMES) {
     responses: {
       200: {
         description: 'The answer, with `warnings` in plain words.',
+        headers: RATE_LIMIT_HEADERS,
         content: {
           'application/json': {
             schema: definition.response,
@@ -94,7 +91,7 @@ calcRegistry.registerPath({
     'Up to 1,000 items, each `{ id?, route, body }` with `route` one of the calculator routes. Each item is ' +
     'validated and answered on its own, with the status that route alone would give; one bad item never ' +
     'fails the others. Usage counts one row per item.',
-  security: CALC_SECURITY,
+  security: API_KEY_SECURITY,
   request: {
     body: {
       required: true,
@@ -114,6 +111,7 @@ calcRegistry.registerPath({
   responses: {
     200: {
       description: 'One answer per item, in order.',
+      headers: RATE_LIMIT_HEADERS,
       content: { 'application/json': { schema: BatchResponseSchema } },
     },
     ...PROBLEM_RESPONSES,

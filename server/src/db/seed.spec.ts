@@ -22,16 +22,17 @@ describe('migrations', () => {
 
 describe('seedDemoData', () => {
   const now = new Date('2026-03-02T08:00:00Z');
+  const context = { dataDir: '/nowhere' };
 
   it('seeds once, runs every seeder, and records when', () => {
     temporary = openTemporaryDatabase();
-    const calls: Date[] = [];
-    const seeder: DemoSeeder = (_database, at) => calls.push(at);
+    const calls: [Date, string][] = [];
+    const seeder: DemoSeeder = (_database, at, { dataDir }) => calls.push([at, dataDir]);
 
-    expect(seedDemoData(temporary.database, now, [seeder])).toEqual({ seeded: true });
-    expect(seedDemoData(temporary.database, new Date(), [seeder])).toEqual({ seeded: false });
+    expect(seedDemoData(temporary.database, now, [seeder], context)).toEqual({ seeded: true });
+    expect(seedDemoData(temporary.database, new Date(), [seeder], context)).toEqual({ seeded: false });
 
-    expect(calls).toEqual([now]);
+    expect(calls).toEqual([[now, '/nowhere']]);
     const rows = temporary.database.orm.select().from(appMeta).all();
     expect(rows).toEqual([{ key: DEMO_SEEDED_KEY, value: now.toISOString(), updatedAt: now }]);
   });
@@ -43,8 +44,10 @@ describe('seedDemoData', () => {
       throw new Error('demo data could not be written');
     };
 
-    expect(() => seedDemoData(temporary.database, now, [failing])).toThrow('demo data could not be written');
+    expect(() => seedDemoData(temporary.database, now, [failing], context)).toThrow(
+      'demo data could not be written',
+    );
     expect(temporary.database.orm.select().from(appMeta).all()).toEqual([]);
-    expect(seedDemoData(temporary.database, now, [])).toEqual({ seeded: true });
+    expect(seedDemoData(temporary.database, now, [], context)).toEqual({ seeded: true });
   });
 });

@@ -5,8 +5,14 @@ import { appMeta } from './schema';
 /** The `app_meta` key that records when the demo data went in. */
 export const DEMO_SEEDED_KEY = 'demo-seeded-at';
 
+/** Where the demo data may leave files for a person to read, beside the SQLite file. */
+export interface DemoSeedContext {
+  /** The folder of the SQLite file (`data/` by default, which git ignores). */
+  readonly dataDir: string;
+}
+
 /** What one feature adds to the demo data; runs inside the seed's transaction. */
-export type DemoSeeder = (database: Database, now: Date) => void;
+export type DemoSeeder = (database: Database, now: Date, context: DemoSeedContext) => void;
 
 /**
  * Seeds the demo scenario once: when `app_meta` already records a seed, nothing happens, so restarting
@@ -16,12 +22,13 @@ export type DemoSeeder = (database: Database, now: Date) => void;
 export function seedDemoData(
   database: Database,
   now: Date,
-  seeders: readonly DemoSeeder[] = [],
+  seeders: readonly DemoSeeder[],
+  context: DemoSeedContext,
 ): { seeded: boolean } {
   const already = database.orm.select().from(appMeta).where(eq(appMeta.key, DEMO_SEEDED_KEY)).get();
   if (already) return { seeded: false };
   database.orm.transaction(() => {
-    for (const seeder of seeders) seeder(database, now);
+    for (const seeder of seeders) seeder(database, now, context);
     database.orm
       .insert(appMeta)
       .values({ key: DEMO_SEEDED_KEY, value: now.toISOString(), updatedAt: now })

@@ -1,10 +1,12 @@
 import type { Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
+import { dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { createApp } from '../../../server/src/app';
 import { DEMO_SEEDERS } from '../../../server/src/db/demo-seeders';
 import { seedDemoData } from '../../../server/src/db/seed';
 import { openTemporaryDatabase } from '../../../server/src/testing/temporary-database';
+import { UsageLog } from '../../../server/src/usage/usage-log';
 
 /** The production build of the workbench that `npm run build` leaves. */
 export const WORKBENCH_DIR = fileURLToPath(new URL('../../../dist/workbench/browser', import.meta.url));
@@ -18,8 +20,9 @@ export interface TestServer {
 /** Starts the server as `npm start` does, but on a temporary database and a free port. */
 export async function startServer(): Promise<TestServer> {
   const temporary = openTemporaryDatabase();
-  seedDemoData(temporary.database, new Date(), DEMO_SEEDERS);
-  const app = createApp({ database: temporary.database, staticDir: WORKBENCH_DIR });
+  seedDemoData(temporary.database, new Date(), DEMO_SEEDERS, { dataDir: dirname(temporary.path) });
+  const usageLog = new UsageLog(temporary.database);
+  const app = createApp({ database: temporary.database, staticDir: WORKBENCH_DIR, usageLog });
   const server = await new Promise<Server>((resolve) => {
     const listening = app.listen(0, '127.0.0.1', () => resolve(listening));
   });
@@ -29,6 +32,7 @@ export async function startServer(): Promise<TestServer> {
     stop: async () => {
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));
+      usageLog.close();
       temporary.dispose();
     },
   };

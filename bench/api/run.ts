@@ -1,0 +1,132 @@
+/*
+ * `npm run bench:api`: requests per second and p99 latency on loopback, in one run, of
+ *   (a) a bare node:http server answering a small JSON,
+ *   (b) a bare Express 5 app with express.json() answering the same,
+ *   (c) POST /api/v1/calc/single-plane with key check, validation and usage logging,
+ *   (d) POST /api/v1/calc/batch with 100 single-plane items,
+ * then the ratios c/b and c/a and the calculations per second of (d). Each target runs in its own
+ * process; the load comes from this one. Figures, not assertions: results go to docs/benchmarks.md.
+ *
+ * Options (environment): BENCH_SECONDS (default 10), BENCH_CONNECTIONS (default 32).
+ */
+import { type ChildProcess, spawn } from 'node:child_process';
+import { createInterface } from 'node:readline';
+import { fileURLToPath } from 'node:url';
+import autocannon from 'autocannon';
+import { CALC_ROUTES } from '@counterpoise/api';
+
+const SECONDS = Number(process.env['BENCH_SECONDS'] ?? 10);
+const CONNECTIONS = Number(process.env['BENCH_CONNECTIONS'] ?? 32);
+const WARM_UP_SECONDS = 3;
+const BATCH_ITEMS = 100;
+const root = fileURLToPath(new URL('../..', import.meta.url));
+
+interface Target {
+  process: ChildProcess;
+  port: number;
+  apiKey?: string;
+  output: string[];
+}
+
+function startTarget(name: string): Promise<Target> {
+  const child = spawn(process.execPath, ['--import', 'tsx', 'bench/api/serve-target.ts', name], {
+    cwd: root,
+    env: { ...process.env, NODE_ENV: 'production' },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
+  const output: string[] = [];
+  return new Promise((resolve, reject) => {
+    const lines = createInterface({ input: child.stdout! });
+    lines.on('line', (line) => {
+      output.push(line);
+      const match = /^LISTENING (\d+)(?: (\S+))?$/.exec(line);
+      if (match) resolve({ process: child, port: Number(match[1]), apiKey: match[2], output });
+    });
+    child.on('exit', (code) => reject(new Error(`Target ${name} exited with ${code} before listening.`)));
+  });
+}
+
+async function stopTarget(target: Target): Promise<string[]> {
+  await new Promise<void>((resolve) => {
+    target.process.once('exit', () => resolve());
+    target.process.kill('SIGTERM');
+  });
+  return target.output;
+}
+
+interface Measured {
+  requestsPerSecond: number;
+  p99Ms: number;
+  non2xx: number;
+  errors: number;
+  requests: number;
+}
+
+async function load(url: string, headers: Record<string, string>, body: string, seconds: number): Promise<Measured> {
+  const result = await autocannon({
+    url,
+    method: 'POST',
+    headers: { 'content-type': 'application/json', ...headers },
+    body,
+    connections: CONNECTIONS,
+    duration: seconds,
+  });
+  return {
+    requestsPerSecond: result.requests.average,
+    p99Ms: result.latency.p99,
+    non2xx: result.non2xx,
+    errors: result.errors + result.timeouts,
+    requests: result.requests.total,
+  };
+}
+
+async function measure(
+  name: string,
+  path: string,
+  body: string,
+  keyed: boolean,
+): Promise<Measured & { usageRows?: number }> {
+  const target = await startTarget(name);
+  const url = `http://127.0.0.1:${target.port}${path}`;
+  const headers: Record<string, string> = keyed && target.apiKey ? { 'x-api-key': target.apiKey } : {};
+  process.stdout.write(`${name} ${path}: warming up… `);
+  await load(url, headers, body, WARM_UP_SECONDS);
+  process.stdout.write('measuring… ');
+  const measured = await load(url, headers, body, SECONDS);
+  const output = await stopTarget(target);
+  const rows = output.map((line) => /^USAGE_ROWS (\d+)$/.exec(line)).find(Boolean);
+  console.log('done');
+  return { ...measured, ...(rows ? { usageRows: Number(rows[1]) } : {}) };
+}
+
+const singlePlane = JSON.stringify(CALC_ROUTES['single-plane'].example);
+const batch = JSON.stringify({
+  items: Array.from({ length: BATCH_ITEMS }, (_, i) => ({
+    id: `rotor-${i}`,
+    route: 'single-plane',
+    body: CALC_ROUTES['single-plane'].example,
+  })),
+});
+
+const a = await measure('bare-http', '/', singlePlane, false);
+const b = await measure('bare-express', '/', singlePlane, false);
+const c = await measure('counterpoise', '/api/v1/calc/single-plane', singlePlane, true);
+const d = await measure('counterpoise', '/api/v1/calc/batch', batch, true);
+
+const fmt = (n: number, digits = 0) => n.toLocaleString('en-US', { maximumFractionDigits: digits });
+const row = (label: string, m: Measured) =>
+  `| ${label} | ${fmt(m.requestsPerSecond)} | ${fmt(m.p99Ms, 1)} | ${m.non2xx} | ${m.errors} |`;
+console.log(`\nnode ${process.version}, ${CONNECTIONS} connections, ${SECONDS} s per target after ${WARM_UP_SECONDS} s warm-up\n`);
+console.log('| target | req/s | p99 ms | non-2xx | errors |');
+console.log('| --- | ---: | ---: | ---: | ---: |');
+console.log(row('(a) bare node:http', a));
+console.log(row('(b) bare Express + express.json()', b));
+console.log(row('(c) POST /api/v1/calc/single-plane', c));
+console.log(row(`(d) POST /api/v1/calc/batch, ${BATCH_ITEMS} items`, d));
+console.log(`\nc/b = ${(c.requestsPerSecond / b.requestsPerSecond).toFixed(2)} (target >= 0.8)`);
+console.log(`c/a = ${(c.requestsPerSecond / a.requestsPerSecond).toFixed(2)}`);
+console.log(`(d) calculations/s = ${fmt(d.requestsPerSecond * BATCH_ITEMS)} (target >= 100,000)`);
+console.log(
+  `usage rows written: (c) ${c.usageRows ?? '?'} for ${fmt(c.requests + 0)} measured + warm-up requests; ` +
+    `(d) ${d.usageRows ?? '?'} for ${fmt(d.requests * BATCH_ITEMS)} measured items + warm-up`,
+);

@@ -1,0 +1,64 @@
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
+import { EXIT, runApiKeyCommand } from './api-key.command';
+import { ApiKeysRepo } from './keys.repo';
+import { ApiKeyService } from './keys.service';
+
+let temporary: TemporaryDatabase;
+let keys: ApiKeyService;
+beforeEach(() => {
+  temporary = openTemporaryDatabase();
+  keys = new ApiKeyService(new ApiKeysRepo(temporary.database.orm));
+});
+afterEach(() => temporary.dispose());
+
+function run(...args: string[]) {
+  const out: string[] = [];
+  const err: string[] = [];
+  const status = runApiKeyCommand(
+    args,
+    { keys, defaultLimitPerMinute: 600, now: new Date('2026-05-04T08:00:00Z') },
+    { out: (line) => out.push(line), err: (line) => err.push(line) },
+  );
+  return { status, out: out.join('\n'), err: err.join('\n') };
+}
+
+describe('runApiKeyCommand', () => {
+  it.each([
+    [[], /Name a command/],
+    [['rotate'], /Unknown command "rotate"/],
+    [['create'], /--name: Give the key a name/],
+    [['create', '--name', '   '], /--name: Give the key a name/],
+    [['create', '--name', 'x'.repeat(101)], /--name: Keep the name of a key to 100 characters/],
+    [['create', '--name', 'x', '--limit', '0'], /--limit: The limit is at least 1/],
+    [['create', '--name', 'x', '--limit', '2.5'], /--limit: /],
+    [['create', '--name', 'x', '--limit', 'many'], /--limit: /],
+    [['create', '--name', 'x', '--limit', '1000001'], /--limit: The limit is at most 1000000/],
+    [['create', '--name', 'x', '--colour', 'red'], /Unknown option '--colour'/],
+    [['list', 'extra'], /Unexpected argument 'extra'/],
+    [['revoke'], /Name the id of one key/],
+    [['revoke', 'abc'], /Name the id of one key/],
+    [['revoke', '1', '2'], /Name the id of one key/],
+  ])('refuses %j with a reason, the usage and exit code 2, creating nothing', (args, reason) => {
+    const result = run(...args);
+    expect(result.status).toBe(EXIT.usage);
+    expect(result.err).toMatch(reason);
+    expect(result.err).toMatch(/Usage: npm run api-key/);
+    expect(result.out).toBe('');
+    expect(keys.list()).toEqual([]);
+  });
+
+  it('trims the name and prints the key alone on the last line', () => {
+    const result = run('create', '--name', '  Dealer portal  ');
+    expect(result.status).toBe(EXIT.ok);
+    const lines = result.out.split('\n');
+    expect(keys.check(lines[lines.length - 1]!)).toMatchObject({
+      name: 'Dealer portal',
+      limitPerMinute: 600,
+    });
+  });
+
+  it('prints its usage on help', () => {
+    expect(run('help')).toMatchObject({ status: EXIT.ok, out: expect.stringMatching(/create --name NAME/) });
+  });
+});

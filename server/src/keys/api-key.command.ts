@@ -1,0 +1,165 @@
+import { parseArgs } from 'node:util';
+import { CreateApiKeySchema } from '@counterpoise/api';
+import type { ApiKeyRecord } from './keys.repo';
+import type { ApiKeyService } from './keys.service';
+
+/** Where the command writes; the CLI passes the process's streams, tests collect the lines. */
+export interface CommandOutput {
+  out(line: string): void;
+  err(line: string): void;
+}
+
+/** Exit codes: done, could not be done, not understood. */
+export const EXIT = { ok: 0, failed: 1, usage: 2 } as const;
+
+/** The help the CLI prints for `help` and for anything it does not understand. */
+export const API_KEY_USAGE = [
+  'Usage: npm run api-key -- <command>',
+  '',
+  '  create --name NAME [--limit PER_MINUTE]   create a key and print it on the last line (shown only once)',
+  '  list                                     list every key, without secrets',
+  '  revoke ID                                revoke a key; requests with it are refused from then on',
+  '',
+  'The database is DATABASE_URL (default data/counterpoise.sqlite); a key created without --limit',
+  'may make API_KEY_DEFAULT_LIMIT requests a minute.',
+].join('\n');
+
+/**
+ * Runs one `api-key` command against the key service: the logic of the CLI without its process,
+ * so that it reads the same way in a test as in a terminal.
+ */
+export function runApiKeyCommand(
+  args: readonly string[],
+  context: { keys: ApiKeyService; defaultLimitPerMinute: number; now: Date },
+  output: CommandOutput,
+): number {
+  const { keys, now } = context;
+  const [command, ...rest] = args;
+  try {
+    switch (command) {
+      case 'create':
+        return create(rest, keys, now, context.defaultLimitPerMinute, output);
+      case 'list':
+        return list(rest, keys, output);
+      case 'revoke':
+        return revoke(rest, keys, now, output);
+      case 'help':
+      case '--help':
+      case '-h':
+        output.out(API_KEY_USAGE);
+        return EXIT.ok;
+      default:
+        output.err(command === undefined ? 'Name a command.' : `Unknown command "${command}".`);
+        output.err(API_KEY_USAGE);
+        return EXIT.usage;
+    }
+  } catch (error) {
+    if (error instanceof UsageError) {
+      output.err(error.message);
+      output.err(API_KEY_USAGE);
+      return EXIT.usage;
+    }
+    throw error;
+  }
+}
+
+class UsageError extends Error {}
+
+function create(
+  args: string[],
+  keys: ApiKeyService,
+  now: Date,
+  defaultLimitPerMinute: number,
+  output: CommandOutput,
+): number {
+  const { values } = parse(args, { name: { type: 'string' }, limit: { type: 'string' } }, false);
+  const limit = values['limit'];
+  const parsed = CreateApiKeySchema.safeParse({
+    name: values['name'] ?? '',
+    ...(limit === undefined ? {} : { limitPerMinute: /^\d+$/.test(limit) ? Number(limit) : Number.NaN }),
+  });
+  if (!parsed.success) {
+    const messages = parsed.error.issues.map(
+      (issue) => `--${issue.path[0] === 'limitPerMinute' ? 'limit' : 'name'}: ${issue.message}`,
+    );
+    throw new UsageError(messages.join('\n'));
+  }
+  const { key, record } = keys.create(
+    { name: parsed.data.name, limitPerMinute: parsed.data.limitPerMinute ?? defaultLimitPerMinute },
+    now,
+  );
+  output.out(
+    `Created API key ${record.id} "${record.name}" (${record.prefix}…), ` +
+      `${record.limitPerMinute} requests a minute.`,
+  );
+  output.out('Keep it now: it is shown only this once, and only its hash is stored.');
+  output.out(key);
+  return EXIT.ok;
+}
+
+function list(args: string[], keys: ApiKeyService, output: CommandOutput): number {
+  parse(args, {}, false);
+  const records = keys.list();
+  if (records.length === 0) {
+    output.out('No API keys yet. Create one with: npm run api-key -- create --name NAME');
+    return EXIT.ok;
+  }
+  const rows = [
+    ['id', 'name', 'prefix', 'limit/min', 'created', 'last used', 'state'],
+    ...records.map((record) => [
+      String(record.id),
+      record.name,
+      `${record.prefix}…`,
+      String(record.limitPerMinute),
+      record.createdAt.toISOString(),
+      record.lastUsedAt?.toISOString() ?? 'never',
+      stateOf(record),
+    ]),
+  ];
+  const widths = rows[0]!.map((_, column) => Math.max(...rows.map((row) => row[column]!.length)));
+  for (const row of rows)
+    output.out(
+      row
+        .map((cell, column) => cell.padEnd(widths[column]!))
+        .join('  ')
+        .trimEnd(),
+    );
+  return EXIT.ok;
+}
+
+function revoke(args: string[], keys: ApiKeyService, now: Date, output: CommandOutput): number {
+  const { positionals } = parse(args, {}, true);
+  const [id, extra] = positionals;
+  if (id === undefined || extra !== undefined || !/^[1-9]\d{0,15}$/.test(id)) {
+    throw new UsageError('Name the id of one key to revoke, as `list` shows it.');
+  }
+  const result = keys.revoke(Number(id), now);
+  if (result.outcome === 'not-found') {
+    output.err(`No API key has the id ${id}.`);
+    return EXIT.failed;
+  }
+  const { key } = result;
+  output.out(
+    result.outcome === 'revoked'
+      ? `Revoked API key ${key.id} "${key.name}" (${key.prefix}…); requests with it are refused from now on.`
+      : `API key ${key.id} "${key.name}" (${key.prefix}…) was already revoked on ${key.revokedAt?.toISOString()}.`,
+  );
+  return EXIT.ok;
+}
+
+function stateOf(record: ApiKeyRecord): string {
+  return record.revokedAt ? `revoked ${record.revokedAt.toISOString()}` : 'active';
+}
+
+function parse(
+  args: string[],
+  options: Record<string, { type: 'string' }>,
+  allowPositionals: boolean,
+): { values: Record<string, string | undefined>; positionals: string[] } {
+  try {
+    const { values, positionals } = parseArgs({ args, options, allowPositionals, strict: true });
+    return { values: values as Record<string, string | undefined>, positionals };
+  } catch (error) {
+    throw new UsageError(error instanceof Error ? error.message : String(error));
+  }
+}

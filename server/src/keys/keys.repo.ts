@@ -1,0 +1,96 @@
+import { and, asc, eq, isNull, sql } from 'drizzle-orm';
+import type { Orm } from '../db/database';
+import { apiKeys } from '../db/schema';
+
+/** A stored API key: everything but its hash. */
+export interface ApiKeyRecord {
+  readonly id: number;
+  readonly name: string;
+  readonly prefix: string;
+  readonly limitPerMinute: number;
+  readonly createdAt: Date;
+  readonly lastUsedAt: Date | null;
+  readonly revokedAt: Date | null;
+}
+
+/** What the request path needs of a key, read in one indexed lookup. */
+export interface ApiKeyCheckRow {
+  readonly id: number;
+  readonly name: string;
+  readonly prefix: string;
+  readonly limitPerMinute: number;
+  readonly revokedAt: Date | null;
+}
+
+/** What a new key is stored with. */
+export interface NewApiKeyRow {
+  readonly name: string;
+  readonly prefix: string;
+  readonly hash: string;
+  readonly limitPerMinute: number;
+  readonly createdAt: Date;
+}
+
+const RECORD_COLUMNS = {
+  id: apiKeys.id,
+  name: apiKeys.name,
+  prefix: apiKeys.prefix,
+  limitPerMinute: apiKeys.limitPerMinute,
+  createdAt: apiKeys.createdAt,
+  lastUsedAt: apiKeys.lastUsedAt,
+  revokedAt: apiKeys.revokedAt,
+};
+
+/** The Drizzle queries of the `api_keys` table. */
+export class ApiKeysRepo {
+  /**
+   * Prepared once: every keyed request runs it, and re-building the SQL each time would cost more than
+   * the lookup itself. It reads the row every time (no cache), so a revocation made by the CLI in
+   * another process takes effect on the next request.
+   */
+  private readonly byHash;
+
+  constructor(private readonly orm: Orm) {
+    this.byHash = orm
+      .select({
+        id: apiKeys.id,
+        name: apiKeys.name,
+        prefix: apiKeys.prefix,
+        limitPerMinute: apiKeys.limitPerMinute,
+        revokedAt: apiKeys.revokedAt,
+      })
+      .from(apiKeys)
+      .where(eq(apiKeys.hash, sql.placeholder('hash')))
+      .prepare();
+  }
+
+  /** The key with this SHA-256 hash, if any. */
+  findByHash(hash: string): ApiKeyCheckRow | undefined {
+    return this.byHash.get({ hash });
+  }
+
+  /** Stores a new key and returns it as stored. */
+  insert(row: NewApiKeyRow): ApiKeyRecord {
+    return this.orm.insert(apiKeys).values(row).returning(RECORD_COLUMNS).get();
+  }
+
+  /** The key with this id, if any. */
+  findById(id: number): ApiKeyRecord | undefined {
+    return this.orm.select(RECORD_COLUMNS).from(apiKeys).where(eq(apiKeys.id, id)).get();
+  }
+
+  /** Every key, oldest first. */
+  list(): ApiKeyRecord[] {
+    return this.orm.select(RECORD_COLUMNS).from(apiKeys).orderBy(asc(apiKeys.id)).all();
+  }
+
+  /** Marks a key revoked unless it already is; returns whether this call revoked it. */
+  revoke(id: number, at: Date): boolean {
+    const result = this.orm
+      .update(apiKeys)
+      .set({ revokedAt: at })
+      .where(and(eq(apiKeys.id, id), isNull(apiKeys.revokedAt)))
+      .run();
+    return result.changes === 1;
+  }
+}

@@ -1,0 +1,108 @@
+import { and, asc, desc, eq, gte, lt, type SQL, sql } from 'drizzle-orm';
+import type { UsageGrouping } from '@counterpoise/api';
+import type { Orm } from '../db/database';
+import { apiKeys, apiUsage } from '../db/schema';
+import type { UsageRow } from '../http/keyed-request';
+
+/** The sums of one group of usage rows, as SQLite returns them. */
+export interface UsageGroupRow {
+  readonly group: string;
+  readonly keyName: string | null;
+  readonly requests: number;
+  readonly clientErrors: number;
+  readonly serverErrors: number;
+  readonly rateLimited: number;
+  readonly bytes: number;
+  readonly totalDurationMs: number;
+  readonly maxDurationMs: number;
+}
+
+const FIGURES = {
+  requests: sql<number>`count(*)`.mapWith(Number),
+  clientErrors: sql<number>`total(${apiUsage.status} between 400 and 499)`.mapWith(Number),
+  serverErrors: sql<number>`total(${apiUsage.status} >= 500)`.mapWith(Number),
+  rateLimited: sql<number>`total(${apiUsage.status} = 429)`.mapWith(Number),
+  bytes: sql<number>`total(${apiUsage.bytes})`.mapWith(Number),
+  totalDurationMs: sql<number>`total(${apiUsage.durationMs})`.mapWith(Number),
+  maxDurationMs: sql<number>`coalesce(max(${apiUsage.durationMs}), 0)`.mapWith(Number),
+};
+
+/** The UTC day of a row, from its millisecond timestamp. */
+const DAY = sql<string>`strftime('%Y-%m-%d', ${apiUsage.at} / 1000, 'unixepoch')`;
+
+/** The Drizzle queries of the `api_usage` table. */
+export class UsageRepo {
+  private readonly insertRow;
+  private readonly touchKey;
+
+  constructor(private readonly orm: Orm) {
+    // Prepared once: a flush runs them hundreds of times in one transaction.
+    this.insertRow = orm
+      .insert(apiUsage)
+      .values({
+        keyId: sql.placeholder('keyId'),
+        route: sql.placeholder('route'),
+        status: sql.placeholder('status'),
+        durationMs: sql.placeholder('durationMs'),
+        bytes: sql.placeholder('bytes'),
+        at: sql.placeholder('at'),
+      })
+      .prepare();
+    this.touchKey = orm
+      .update(apiKeys)
+      .set({ lastUsedAt: sql`max(coalesce(${apiKeys.lastUsedAt}, 0), ${sql.placeholder('atMs')})` })
+      .where(eq(apiKeys.id, sql.placeholder('id')))
+      .prepare();
+  }
+
+  /**
+   * Writes a batch of usage rows and moves each key's `last_used_at` forward, in one transaction:
+   * either the whole batch is stored or none of it, so a failed flush can be retried without
+   * duplicating rows.
+   */
+  insertBatch(rows: readonly UsageRow[]): void {
+    const lastUsedMs = new Map<number, number>();
+    for (const row of rows) {
+      const atMs = row.at.getTime();
+      if ((lastUsedMs.get(row.keyId) ?? -1) < atMs) lastUsedMs.set(row.keyId, atMs);
+    }
+    this.orm.transaction(() => {
+      for (const row of rows) this.insertRow.run({ ...row });
+      for (const [id, atMs] of lastUsedMs) this.touchKey.run({ id, atMs });
+    });
+  }
+
+  /** Sums of one key's rows in `[from, to)`, one entry per day, route or key. */
+  groups(keyId: number, from: Date, to: Date, groupBy: UsageGrouping): UsageGroupRow[] {
+    const where = and(eq(apiUsage.keyId, keyId), gte(apiUsage.at, from), lt(apiUsage.at, to));
+    if (groupBy === 'key') {
+      return this.orm
+        .select({ group: apiKeys.prefix, keyName: apiKeys.name, ...FIGURES })
+        .from(apiUsage)
+        .innerJoin(apiKeys, eq(apiKeys.id, apiUsage.keyId))
+        .where(where)
+        .groupBy(apiUsage.keyId)
+        .orderBy(desc(sql`count(*)`), asc(apiKeys.prefix))
+        .all();
+    }
+    const group: SQL<string> = groupBy === 'day' ? DAY : sql<string>`${apiUsage.route}`;
+    const order = groupBy === 'day' ? [asc(group)] : [desc(sql`count(*)`), asc(group)];
+    return this.orm
+      .select({ group, keyName: sql<null>`null`, ...FIGURES })
+      .from(apiUsage)
+      .where(where)
+      .groupBy(group)
+      .orderBy(...order)
+      .all();
+  }
+
+  /** How many usage rows are stored in all (for tests and checks). */
+  count(): number {
+    return (
+      this.orm
+        .select({ count: sql<number>`count(*)` })
+        .from(apiUsage)
+        .get()?.count ?? 0
+    );
+  }
+}
