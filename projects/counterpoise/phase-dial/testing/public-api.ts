@@ -1,0 +1,6 @@
+/* Test harnesses of `@counterpoise/ng/phase-dial`, for our specs and for dealers' own tests. */
+export {
+  CpPhaseDialHarness,
+  type PhaseDialHarnessFilters,
+  type PhaseDialMarkerInfo,
+} from './phase-dial-harness';
