@@ -1,11 +1,33 @@
 import { fileURLToPath } from 'node:url';
+import { storybookTest } from '@storybook/addon-vitest/vitest-plugin';
+import { playwright } from '@vitest/browser-playwright';
 import { defineConfig } from 'vitest/config';
 
 const fromRoot = (path: string) => fileURLToPath(new URL(path, import.meta.url));
 
 /**
+ * Debian's Chromium (Playwright's own download never works here), kept off the network: no background
+ * traffic, and every host but localhost unresolvable. The same flags as tests/browser/support/chromium.ts.
+ */
+const chromium = {
+  executablePath: process.env['CHROME_PATH'] ?? '/usr/bin/chromium',
+  args: [
+    '--no-sandbox',
+    '--disable-gpu',
+    '--disable-quic',
+    '--no-first-run',
+    '--disable-background-networking',
+    '--disable-component-update',
+    '--disable-sync',
+    '--host-resolver-rules=MAP * ~NOTFOUND, EXCLUDE localhost, EXCLUDE 127.0.0.1',
+  ],
+};
+
+/**
  * Suites that run on Node: the engine and schemas in shared/, the server, the published reference checks
  * and the browser tests. Angular code runs under `ng test` (Angular's unit-test builder, also vitest).
+ * The `storybook` project runs every story of the widget library in Chromium: its play function and an
+ * axe check (`a11y.test: 'error'` in .storybook/preview.ts).
  */
 export default defineConfig({
   resolve: {
@@ -28,6 +50,30 @@ export default defineConfig({
           testTimeout: 60_000,
           hookTimeout: 120_000,
           fileParallelism: false,
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'packaging',
+          include: ['tests/packaging/**/*.spec.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 180_000,
+        },
+      },
+      {
+        extends: true,
+        plugins: [storybookTest({ configDir: fromRoot('./.storybook') })],
+        test: {
+          name: 'storybook',
+          browser: {
+            enabled: true,
+            headless: true,
+            provider: playwright({ launchOptions: chromium }),
+            instances: [{ browser: 'chromium', viewport: { width: 1024, height: 768 } }],
+            // A failing story leaves its screenshot here, out of the source tree.
+            screenshotDirectory: fromRoot('./test-results/story-failures'),
+          },
         },
       },
       {

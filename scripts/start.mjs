@@ -8,6 +8,18 @@ const root = fileURLToPath(new URL('..', import.meta.url));
 const ng = fileURLToPath(new URL('../node_modules/@angular/cli/bin/ng.js', import.meta.url));
 const env = { ...process.env, NG_CLI_ANALYTICS: 'false' };
 
+// The library's build imports @counterpoise/engine and @counterpoise/api as packages, built first.
+console.log('\nBuilding the shared packages…');
+const shared = spawnSync(process.execPath, [fileURLToPath(new URL('./build-shared.mjs', import.meta.url))], {
+  cwd: root,
+  env,
+  stdio: 'inherit',
+});
+if (shared.status !== 0) {
+  console.error('\nThe build of the shared packages failed; the server was not started.');
+  process.exit(shared.status ?? 1);
+}
+
 for (const project of ['counterpoise', 'workbench']) {
   console.log(`\nBuilding ${project}…`);
   const build = spawnSync(process.execPath, [ng, 'build', project], { cwd: root, env, stdio: 'inherit' });

@@ -1,5 +1,6 @@
 // `npm test`: every suite in one command (lint, types, engine, server, reference checks, widget library,
-// workbench, production build, browser tests), then a summary. Exits non-zero when anything failed.
+// workbench, widget stories, production build, packaging, browser tests), then a summary. Exits non-zero
+// when anything failed.
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
@@ -62,7 +63,25 @@ const steps = [
     report: 'workbench.json',
     commands: [ngTest('workbench', join(resultsDir, 'workbench.json'))],
   },
-  { name: 'Production build', commands: [ng('build', 'counterpoise'), ng('build', 'workbench')] },
+  {
+    name: 'Widget stories (Chromium)',
+    report: 'stories.json',
+    commands: [vitest(join(resultsDir, 'stories.json'), '--project', 'storybook')],
+  },
+  {
+    name: 'Production build',
+    commands: [
+      [process.execPath, join(root, 'scripts', 'build-shared.mjs')],
+      ng('build', 'counterpoise'),
+      ng('build', 'workbench'),
+    ],
+  },
+  {
+    name: 'Packaging (npm pack, dealer app)',
+    report: 'packaging.json',
+    needs: 'Production build',
+    commands: [vitest(join(resultsDir, 'packaging.json'), '--project', 'packaging')],
+  },
   {
     name: 'Browser (Chromium)',
     report: 'browser.json',

@@ -1,0 +1,21 @@
+import { fileURLToPath } from 'node:url';
+import type { StorybookConfig } from '@storybook/angular-vite';
+
+const fromHere = (path: string) => fileURLToPath(new URL(path, import.meta.url));
+
+/**
+ * Storybook for the widget library, on the Vite-based Angular framework: its stories also run as
+ * Chromium tests through `@storybook/addon-vitest` (the `storybook` project in vitest.config.ts).
+ */
+const config: StorybookConfig = {
+  stories: ['../projects/counterpoise/**/*.stories.ts'],
+  addons: ['@storybook/addon-docs', '@storybook/addon-a11y', '@storybook/addon-vitest'],
+  framework: {
+    name: '@storybook/angular-vite',
+    // An absolute path: the Vite plugin resolves a relative one against whichever folder it runs from.
+    options: { tsconfig: fromHere('./tsconfig.json') },
+  },
+  core: { disableTelemetry: true },
+};
+
+export default config;
