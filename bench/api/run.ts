@@ -62,7 +62,12 @@ interface Measured {
   requests: number;
 }
 
-async function load(url: string, headers: Record<string, string>, body: string, seconds: number): Promise<Measured> {
+async function load(
+  url: string,
+  headers: Record<string, string>,
+  body: string,
+  seconds: number,
+): Promise<Measured> {
   const result = await autocannon({
     url,
     method: 'POST',
@@ -116,7 +121,9 @@ const d = await measure('counterpoise', '/api/v1/calc/batch', batch, true);
 const fmt = (n: number, digits = 0) => n.toLocaleString('en-US', { maximumFractionDigits: digits });
 const row = (label: string, m: Measured) =>
   `| ${label} | ${fmt(m.requestsPerSecond)} | ${fmt(m.p99Ms, 1)} | ${m.non2xx} | ${m.errors} |`;
-console.log(`\nnode ${process.version}, ${CONNECTIONS} connections, ${SECONDS} s per target after ${WARM_UP_SECONDS} s warm-up\n`);
+console.log(
+  `\nnode ${process.version}, ${CONNECTIONS} connections, ${SECONDS} s per target after ${WARM_UP_SECONDS} s warm-up\n`,
+);
 console.log('| target | req/s | p99 ms | non-2xx | errors |');
 console.log('| --- | ---: | ---: | ---: | ---: |');
 console.log(row('(a) bare node:http', a));
