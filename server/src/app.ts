@@ -2,6 +2,11 @@ import { existsSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import express, { type Express, Router } from 'express';
 import helmet from 'helmet';
+import { randomBytes } from 'node:crypto';
+import { AccountsRepo } from './auth/accounts.repo';
+import { authRegistry } from './auth/auth.openapi';
+import { authRouter } from './auth/auth.router';
+import { AuthService } from './auth/auth.service';
 import { type Clock, systemClock } from './clock';
 import type { Database } from './db/database';
 import { healthRegistry, healthRouter } from './health/health.router';
@@ -9,6 +14,14 @@ import { apiNotFound, problemHandler } from './http/problem';
 import { calcRegistry, calcRouter } from './calc/calc.router';
 import { keyedV1Router } from './http/v1';
 import { keysRegistry } from './keys/keys.openapi';
+import { ApiKeysRepo } from './keys/keys.repo';
+import { keyRoutesRegistry, keysRouter } from './keys/keys.router';
+import { ApiKeyService } from './keys/keys.service';
+import type { Mailer } from './mail/mailer';
+import { outboxRegistry, outboxRouter } from './mail/outbox.router';
+import { peopleRegistry, peopleRouter } from './people/people.router';
+import { PeopleService } from './people/people.service';
+import { requirePermission } from './auth/require-user';
 import { buildOpenApiDocument, openApiRouter } from './openapi/openapi';
 import { UsageLog } from './usage/usage-log';
 import { usageRegistry } from './usage/usage.router';
@@ -30,10 +43,44 @@ export interface AppDeps {
   readonly usageLog?: UsageLog;
   /** Web origins whose pages may call `/api/v1` (CORS); none by default. */
   readonly corsOrigins?: readonly string[];
+  /** Sign-in, people and e-mail; tests leave out what they do not need. */
+  readonly accounts?: AccountsDeps;
 }
 
+/** What the accounts features are built from. */
+export interface AccountsDeps {
+  /** The HS256 key of access tokens; a random one per app when absent (tests). */
+  readonly signingKey?: Uint8Array;
+  /** scrypt's cost as a power of two; 15 by default, lower in tests. */
+  readonly passwordHashCost?: number;
+  /** Mark the refresh cookie `Secure`. */
+  readonly secureCookie?: boolean;
+  /** The workbench's address, for the links in e-mails. */
+  readonly publicUrl?: string;
+  /** Where invitations and reset links go; without one, sending fails with a clear error. */
+  readonly mailer?: Mailer;
+  /** Requests per minute of a key created without a limit. */
+  readonly defaultKeyLimitPerMinute?: number;
+  /** Requests per minute of a signed-in person on the calculator routes. */
+  readonly userCalcLimitPerMinute?: number;
+}
+
+/** The mailer of an app built without one: it says why nothing can be sent. */
+const NO_MAILER: Mailer = {
+  send: () => Promise.reject(new Error('No mail transport is configured for this app.')),
+};
+
 /** Every feature's OpenAPI registry, in the order of the document. */
-export const OPENAPI_REGISTRIES = [healthRegistry, keysRegistry, usageRegistry, calcRegistry];
+export const OPENAPI_REGISTRIES = [
+  healthRegistry,
+  authRegistry,
+  peopleRegistry,
+  keyRoutesRegistry,
+  outboxRegistry,
+  keysRegistry,
+  usageRegistry,
+  calcRegistry,
+];
 
 /**
  * Builds the Express app: the API under `/api`, its OpenAPI document and Swagger UI, and the workbench
@@ -56,14 +103,47 @@ export function createApp(deps: AppDeps): Express {
     }),
   );
 
+  const accounts = deps.accounts ?? {};
+  const mailer = accounts.mailer ?? NO_MAILER;
+  const accountsRepo = new AccountsRepo(deps.database.orm);
+  const auth = new AuthService(
+    accountsRepo,
+    {
+      signingKey: accounts.signingKey ?? randomBytes(48),
+      passwordCost: { log2N: accounts.passwordHashCost ?? 15 },
+      secureCookie: accounts.secureCookie ?? false,
+      publicUrl: accounts.publicUrl ?? 'http://localhost:4300',
+    },
+    clock,
+    mailer,
+    log,
+  );
+  const keys = new ApiKeyService(new ApiKeysRepo(deps.database.orm));
+
+  // The workbench's routes, for signed-in people (and the public session routes). Mounted ahead of
+  // the keyed chain; a path they do not answer falls through to it.
+  const signedIn = Router();
+  signedIn.use(authRouter(auth));
+  signedIn.use(peopleRouter({ auth, people: new PeopleService(accountsRepo, auth, clock, mailer) }));
+  signedIn.use(
+    keysRouter({ auth, keys, clock, defaultLimitPerMinute: accounts.defaultKeyLimitPerMinute ?? 600 }),
+  );
+  signedIn.use(outboxRouter({ auth, database: deps.database }));
+  app.use('/api/v1', signedIn);
+
   const usageLog = deps.usageLog ?? new UsageLog(deps.database, { log });
   const v1 = keyedV1Router({
     database: deps.database,
     clock,
     usage: usageLog,
     corsOrigins: deps.corsOrigins ?? [],
+    keys,
+    tokens: auth,
+    ...(accounts.userCalcLimitPerMinute === undefined
+      ? {}
+      : { userLimitPerMinute: accounts.userCalcLimitPerMinute }),
   });
-  v1.use('/calc', calcRouter({ usage: usageLog, clock }));
+  v1.use('/calc', requirePermission('calc:use'), calcRouter({ usage: usageLog, clock }));
   // Mounted ahead of `/api` so that keyed requests, the busy ones, pass through no other router;
   // a path no keyed route answers falls through to the 404 below.
   app.use('/api/v1', v1);

@@ -8,15 +8,20 @@ import { migrateDatabase, openDatabase } from './db/database';
 import { seedDemoData } from './db/seed';
 import { DEMO_SEEDERS } from './db/demo-seeders';
 import { DEMO_API_KEY_FILE } from './keys/keys.seed';
+import { DEMO_PASSWORD, DEMO_PEOPLE } from './auth/accounts.seed';
+import { loadSigningKey } from './auth/tokens';
+import { type Mailer, smtpMailer } from './mail/mailer';
+import { type SmtpCapture, startSmtpCapture } from './mail/smtp-capture';
 import { UsageLog } from './usage/usage-log';
 import { VERSION } from './version';
 
 /**
  * Starts the server: reads the configuration, migrates the SQLite file, seeds the demo data once,
- * listens, and on SIGINT or SIGTERM stops taking requests, lets those under way finish, writes the
- * usage rows still queued, and closes the database.
+ * starts the local mail server (unless `SMTP_URL` names a real one), listens, and on SIGINT or SIGTERM
+ * stops taking requests, lets those under way finish, writes the usage rows still queued, stops the
+ * mail server and closes the database.
  */
-function main(): void {
+async function main(): Promise<void> {
   const config = loadConfig();
   const database = openDatabase(config.DATABASE_URL);
   const migrations = migrateDatabase(database);
@@ -27,6 +32,15 @@ function main(): void {
   // Where the demo key is, never the key itself: logs travel further than the data folder.
   const demoKeyFile = join(dataDir, DEMO_API_KEY_FILE);
 
+  let capture: SmtpCapture | undefined;
+  let mailer: Mailer;
+  if (config.SMTP_URL) {
+    mailer = smtpMailer({ from: config.MAIL_FROM, url: config.SMTP_URL });
+  } else {
+    capture = await startSmtpCapture({ database, clock: systemClock, port: config.SMTP_FAKE_PORT });
+    mailer = smtpMailer({ from: config.MAIL_FROM, localPort: capture.port });
+  }
+
   const usageLog = new UsageLog(database);
   const app = createApp({
     database,
@@ -35,6 +49,15 @@ function main(): void {
     staticDir: config.STATIC_DIR,
     usageLog,
     corsOrigins: config.CORS_ORIGINS,
+    accounts: {
+      signingKey: loadSigningKey(config.AUTH_SIGNING_KEY, dataDir),
+      passwordHashCost: config.PASSWORD_HASH_COST,
+      secureCookie: config.COOKIE_SECURE,
+      publicUrl: config.PUBLIC_URL,
+      mailer,
+      defaultKeyLimitPerMinute: config.API_KEY_DEFAULT_LIMIT,
+      userCalcLimitPerMinute: config.USER_CALC_LIMIT,
+    },
   });
   const server = app.listen(config.PORT, config.HOST, () => {
     const { port } = server.address() as AddressInfo;
@@ -45,6 +68,15 @@ function main(): void {
         `  API reference: http://${host}:${port}/api/docs`,
         `  Database:      ${config.DATABASE_URL} (${migrations} migrations applied${seed.seeded ? ', demo data seeded' : ''})`,
         ...(existsSync(demoKeyFile) ? [`  Demo API key:  in ${demoKeyFile}`] : []),
+        capture
+          ? `  E-mail:        kept by the local mail server on 127.0.0.1:${capture.port}; owners read it in the workbench's Outbox`
+          : `  E-mail:        sent through SMTP_URL`,
+        ...(config.SEED_DEMO
+          ? [
+              `  Demo sign-ins (password "${DEMO_PASSWORD}"), unless changed since:`,
+              ...DEMO_PEOPLE.map((person) => `    ${person.role.padEnd(11)} ${person.email}`),
+            ]
+          : []),
       ].join('\n'),
     );
   });
@@ -63,8 +95,12 @@ function main(): void {
         console.error(`${usageLog.pending} usage rows could not be written before stopping.`, error);
         code = 1;
       }
-      database.sqlite.close();
-      process.exit(code);
+      const finish = () => {
+        database.sqlite.close();
+        process.exit(code);
+      };
+      if (capture) void capture.close().then(finish, finish);
+      else finish();
     });
     server.closeIdleConnections();
     setTimeout(() => {
@@ -76,12 +112,17 @@ function main(): void {
   process.on('SIGTERM', stop);
 }
 
-try {
-  main();
-} catch (error) {
+main().catch((error: unknown) => {
   if (error instanceof ConfigError) {
     console.error(error.message);
     process.exit(1);
   }
+  if ((error as NodeJS.ErrnoException | null)?.code === 'EADDRINUSE') {
+    console.error(
+      `${(error as Error).message}: another program uses the local mail server's port. Set SMTP_FAKE_PORT ` +
+        'to a free port (0 picks one), or SMTP_URL to send through a real server.',
+    );
+    process.exit(1);
+  }
   throw error;
-}
+});

@@ -9,3 +9,6 @@ export * from './field-errors';
 export * from './calc';
 export * from './calc-routes';
 export * from './batch';
+export * from './keys';
+export * from './usage';
+export * from './accounts';

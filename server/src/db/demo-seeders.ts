@@ -1,3 +1,4 @@
+import { seedDemoAccounts } from '../auth/accounts.seed';
 import { seedDemoApiKey } from '../keys/keys.seed';
 import type { DemoSeeder } from './seed';
 
@@ -6,4 +7,4 @@ import type { DemoSeeder } from './seed';
  * feature that owns demo data appends its seeder here; `seedDemoData` runs them once, in one
  * transaction.
  */
-export const DEMO_SEEDERS: readonly DemoSeeder[] = [seedDemoApiKey];
+export const DEMO_SEEDERS: readonly DemoSeeder[] = [seedDemoAccounts, seedDemoApiKey];

@@ -3,7 +3,7 @@ import { type RequestHandler, Router } from 'express';
 import { API_KEY_HEADER } from '@counterpoise/api';
 import type { Clock } from '../clock';
 import type { Database } from '../db/database';
-import { requireApiKey } from '../keys/api-key.middleware';
+import { type AccessTokenCheck, requireApiKey } from '../keys/api-key.middleware';
 import { apiKeyRateLimit } from '../keys/api-key.rate-limit';
 import { ApiKeysRepo } from '../keys/keys.repo';
 import { ApiKeyService } from '../keys/keys.service';
@@ -20,6 +20,12 @@ export interface KeyedV1Deps {
   readonly usage: UsageSink;
   /** Web origins whose pages may call the API; none means no cross-origin access. */
   readonly corsOrigins: readonly string[];
+  /** The key service to share with the workbench's key routes, so that a revocation there counts at once. */
+  readonly keys?: ApiKeyService;
+  /** Accepts signed-in people's access tokens beside API keys. */
+  readonly tokens?: AccessTokenCheck;
+  /** Requests per minute of a signed-in person on these routes. */
+  readonly userLimitPerMinute?: number;
 }
 
 /**
@@ -48,15 +54,23 @@ function corsFor(origins: readonly string[]): RequestHandler {
  * returned router afterwards (`v1.use('/calc', …)`) pass through the same chain and find the key on
  * `res.locals.apiKey`.
  *
+ * With `tokens`, a signed-in person's access token is accepted in place of a key; such requests are
+ * rate-limited per person and leave no usage row (usage is the keys' account).
+ *
  * The recorder sits before the rate limit so that a refused 429 is still a logged request of its key;
  * requests without a valid key have no key to log against and are not recorded.
  */
 export function keyedV1Router(deps: KeyedV1Deps): Router {
   const router = Router();
   if (deps.corsOrigins.length > 0) router.use(corsFor(deps.corsOrigins));
-  router.use(requireApiKey(new ApiKeyService(new ApiKeysRepo(deps.database.orm))));
+  const keys = deps.keys ?? new ApiKeyService(new ApiKeysRepo(deps.database.orm));
+  router.use(requireApiKey(keys, deps.tokens));
   router.use(recordUsage(deps.usage, deps.clock));
-  router.use(apiKeyRateLimit());
+  router.use(
+    apiKeyRateLimit(
+      deps.userLimitPerMinute === undefined ? {} : { userLimitPerMinute: deps.userLimitPerMinute },
+    ),
+  );
   // Mounted at its path, so that the calculator's requests skip it without entering it.
   router.use('/usage', usageRouter({ repo: new UsageRepo(deps.database.orm), clock: deps.clock }));
   return router;

@@ -6,6 +6,7 @@
 import { systemClock } from '../clock';
 import { ConfigError, loadConfig } from '../config';
 import { migrateDatabase, openDatabase } from '../db/database';
+import { AccountsRepo } from '../auth/accounts.repo';
 import { ApiKeysRepo } from './keys.repo';
 import { ApiKeyService } from './keys.service';
 import { runApiKeyCommand } from './api-key.command';
@@ -16,7 +17,16 @@ function main(): number {
   try {
     migrateDatabase(database);
     const keys = new ApiKeyService(new ApiKeysRepo(database.orm));
-    const context = { keys, defaultLimitPerMinute: config.API_KEY_DEFAULT_LIMIT, now: systemClock.now() };
+    const accounts = new AccountsRepo(database.orm);
+    const context = {
+      keys,
+      defaultLimitPerMinute: config.API_KEY_DEFAULT_LIMIT,
+      now: systemClock.now(),
+      organisations: {
+        findByName: (name: string) => accounts.findOrganisationByName(name),
+        count: () => accounts.organisationCount(),
+      },
+    };
     return runApiKeyCommand(process.argv.slice(2), context, {
       out: (line) => process.stdout.write(`${line}\n`),
       err: (line) => process.stderr.write(`${line}\n`),

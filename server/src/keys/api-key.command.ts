@@ -16,7 +16,9 @@ export const EXIT = { ok: 0, failed: 1, usage: 2 } as const;
 export const API_KEY_USAGE = [
   'Usage: npm run api-key -- <command>',
   '',
-  '  create --name NAME [--limit PER_MINUTE]   create a key and print it on the last line (shown only once)',
+  '  create --name NAME [--limit PER_MINUTE] [--org ORGANISATION]',
+  '                                           create a key and print it on the last line (shown only once);',
+  '                                           --org is required once organisations exist',
   '  list                                     list every key, without secrets',
   '  revoke ID                                revoke a key; requests with it are refused from then on',
   '',
@@ -30,7 +32,13 @@ export const API_KEY_USAGE = [
  */
 export function runApiKeyCommand(
   args: readonly string[],
-  context: { keys: ApiKeyService; defaultLimitPerMinute: number; now: Date },
+  context: {
+    keys: ApiKeyService;
+    defaultLimitPerMinute: number;
+    now: Date;
+    /** The organisations a key may belong to; without it, keys belong to none. */
+    organisations?: OrganisationLookup;
+  },
   output: CommandOutput,
 ): number {
   const { keys, now } = context;
@@ -38,7 +46,7 @@ export function runApiKeyCommand(
   try {
     switch (command) {
       case 'create':
-        return create(rest, keys, now, context.defaultLimitPerMinute, output);
+        return create(rest, keys, now, context.defaultLimitPerMinute, output, context.organisations);
       case 'list':
         return list(rest, keys, output);
       case 'revoke':
@@ -63,6 +71,12 @@ export function runApiKeyCommand(
   }
 }
 
+/** Finds organisations by name, for `--org`. */
+export interface OrganisationLookup {
+  findByName(name: string): { id: number; name: string } | undefined;
+  count(): number;
+}
+
 class UsageError extends Error {}
 
 function create(
@@ -71,8 +85,24 @@ function create(
   now: Date,
   defaultLimitPerMinute: number,
   output: CommandOutput,
+  organisations?: OrganisationLookup,
 ): number {
-  const { values } = parse(args, { name: { type: 'string' }, limit: { type: 'string' } }, false);
+  const { values } = parse(
+    args,
+    { name: { type: 'string' }, limit: { type: 'string' }, org: { type: 'string' } },
+    false,
+  );
+  const orgName = values['org']?.trim();
+  let organisation: { id: number; name: string } | undefined;
+  if (orgName !== undefined) {
+    organisation = organisations?.findByName(orgName);
+    if (!organisation) {
+      output.err(`No organisation is named "${orgName}". Create it with: npm run user -- create --org …`);
+      return EXIT.failed;
+    }
+  } else if ((organisations?.count() ?? 0) > 0) {
+    throw new UsageError('--org: Name the organisation the key belongs to.');
+  }
   const limit = values['limit'];
   const parsed = CreateApiKeySchema.safeParse({
     name: values['name'] ?? '',
@@ -87,10 +117,11 @@ function create(
   const { key, record } = keys.create(
     { name: parsed.data.name, limitPerMinute: parsed.data.limitPerMinute ?? defaultLimitPerMinute },
     now,
+    organisation?.id ?? null,
   );
   output.out(
     `Created API key ${record.id} "${record.name}" (${record.prefix}…), ` +
-      `${record.limitPerMinute} requests a minute.`,
+      `${record.limitPerMinute} requests a minute${organisation ? `, for ${organisation.name}` : ''}.`,
   );
   output.out('Keep it now: it is shown only this once, and only its hash is stored.');
   output.out(key);

@@ -2,7 +2,14 @@ import type { IncomingHttpHeaders } from 'node:http';
 import type { RequestHandler, Response } from 'express';
 import { API_KEY_HEADER, KEY_PROBLEM_CODES } from '@counterpoise/api';
 import { HttpProblem } from '../http/problem';
-import type { ApiKeyService } from './keys.service';
+import { looksLikeJwt } from '../auth/tokens';
+import type { UserRecord } from '../auth/accounts.repo';
+import { API_KEY_SCHEME_PREFIX, type ApiKeyService } from './keys.service';
+
+/** What identifies a signed-in person from their access token (the accounts' AuthService). */
+export interface AccessTokenCheck {
+  authenticate(token: string): Promise<UserRecord>;
+}
 
 const HEADER = API_KEY_HEADER.toLowerCase();
 const BEARER = /^bearer[ \t]+(\S+)[ \t]*$/i;
@@ -59,12 +66,45 @@ function challenge(res: Response, problem: HttpProblem): void {
 }
 
 /**
+ * The access token of a signed-in person, when the request carries one instead of a key: a bearer
+ * value in the form of a JWT, not a `cpk_` key, with no `X-Api-Key` beside it.
+ */
+function presentedAccessToken(headers: IncomingHttpHeaders): string | undefined {
+  const header = headers[HEADER];
+  if (header !== undefined && header !== '') return undefined;
+  const authorization = headers.authorization;
+  const bearer = authorization === undefined ? undefined : BEARER.exec(authorization)?.[1];
+  if (bearer === undefined || bearer.startsWith(API_KEY_SCHEME_PREFIX) || !looksLikeJwt(bearer)) {
+    return undefined;
+  }
+  return bearer;
+}
+
+/**
  * Lets through only requests with a valid, unrevoked API key, and leaves the key on
  * `res.locals.apiKey`. 401 for no key, a malformed or an unknown one; 403 for a revoked one. The
  * refusals are built once: a flood of bad keys allocates nothing but the answer.
+ *
+ * With `tokens`, a signed-in person's access token (`Authorization: Bearer <jwt>`) is accepted too, so
+ * that the workbench's calculator calls these routes as its user: the person is left on
+ * `res.locals.user` and `res.locals.apiKey` stays unset (no usage row is written for them).
  */
-export function requireApiKey(keys: ApiKeyService): RequestHandler {
+export function requireApiKey(keys: ApiKeyService, tokens?: AccessTokenCheck): RequestHandler {
   return (req, res, next) => {
+    const accessToken = tokens === undefined ? undefined : presentedAccessToken(req.headers);
+    if (accessToken !== undefined) {
+      tokens!.authenticate(accessToken).then(
+        (user) => {
+          res.locals.user = user;
+          next();
+        },
+        (error: unknown) => {
+          res.setHeader('WWW-Authenticate', 'Bearer realm="Counterpoise API", error="invalid_token"');
+          next(error);
+        },
+      );
+      return;
+    }
     const presented = presentedKey(req.headers);
     if (typeof presented !== 'string') {
       challenge(res, presented);

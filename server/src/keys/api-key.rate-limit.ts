@@ -12,21 +12,26 @@ const WINDOW_MS = 60_000;
  * `RateLimit-Reset` and `RateLimit-Policy` (IETF draft 6); a request over the limit gets a 429
  * problem with `Retry-After`. It runs after the key check, so it counts keys, never addresses.
  */
-export function apiKeyRateLimit(): RequestHandler {
+export function apiKeyRateLimit(options: { userLimitPerMinute?: number } = {}): RequestHandler {
+  const userLimit = options.userLimitPerMinute ?? 600;
   return rateLimit({
     windowMs: WINDOW_MS,
-    limit: (_req, res) => res.locals.apiKey?.limitPerMinute ?? 1,
-    keyGenerator: (_req, res) => String(res.locals.apiKey?.id),
+    // A signed-in person (the workbench's calculator) is counted apart from every key, at `userLimit`.
+    limit: (_req, res) => res.locals.apiKey?.limitPerMinute ?? (res.locals.user ? userLimit : 1),
+    keyGenerator: (_req, res) =>
+      res.locals.apiKey ? `key:${res.locals.apiKey.id}` : `user:${res.locals.user?.id}`,
     standardHeaders: 'draft-6',
     legacyHeaders: false,
     handler: (_req, res, next) => {
-      const limit = res.locals.apiKey?.limitPerMinute;
       const retryAfterSeconds = res.getHeader('Retry-After');
+      const who = res.locals.apiKey
+        ? `This API key may make ${res.locals.apiKey.limitPerMinute} requests a minute.`
+        : `You may make ${userLimit} requests a minute here.`;
       next(
         new HttpProblem(
           429,
           'Too Many Requests',
-          `This API key may make ${limit} requests a minute. Try again in ${retryAfterSeconds} s.`,
+          `${who} Try again in ${retryAfterSeconds} s.`,
           undefined,
           'about:blank',
           KEY_PROBLEM_CODES.rateLimited,

@@ -21,7 +21,9 @@ keysRegistry.registerComponent('securitySchemes', API_KEY_BEARER_SCHEME, {
   type: 'http',
   scheme: 'bearer',
   bearerFormat: 'cpk_…',
-  description: `The same API key, as \`Authorization: Bearer <key>\` instead of the ${API_KEY_HEADER} header.`,
+  description:
+    `The same API key, as \`Authorization: Bearer <key>\` instead of the ${API_KEY_HEADER} header. The ` +
+    'calculator routes also take the access token of a signed-in person here (see `AccessToken`).',
 });
 
 /** The `security` of every keyed route: either scheme will do. */

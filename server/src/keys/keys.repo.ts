@@ -29,6 +29,8 @@ export interface NewApiKeyRow {
   readonly hash: string;
   readonly limitPerMinute: number;
   readonly createdAt: Date;
+  /** The organisation whose key it is; null for a key made without one. */
+  readonly organisationId?: number | null;
 }
 
 const RECORD_COLUMNS = {
@@ -82,6 +84,25 @@ export class ApiKeysRepo {
   /** Every key, oldest first. */
   list(): ApiKeyRecord[] {
     return this.orm.select(RECORD_COLUMNS).from(apiKeys).orderBy(asc(apiKeys.id)).all();
+  }
+
+  /** The organisation's keys, oldest first. */
+  listForOrganisation(organisationId: number): ApiKeyRecord[] {
+    return this.orm
+      .select(RECORD_COLUMNS)
+      .from(apiKeys)
+      .where(eq(apiKeys.organisationId, organisationId))
+      .orderBy(asc(apiKeys.id))
+      .all();
+  }
+
+  /** The key with this id if it belongs to the organisation. */
+  findInOrganisation(organisationId: number, id: number): ApiKeyRecord | undefined {
+    return this.orm
+      .select(RECORD_COLUMNS)
+      .from(apiKeys)
+      .where(and(eq(apiKeys.id, id), eq(apiKeys.organisationId, organisationId)))
+      .get();
   }
 
   /** Marks a key revoked unless it already is; returns whether this call revoked it. */

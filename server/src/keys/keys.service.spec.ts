@@ -48,6 +48,7 @@ describe('ApiKeyService', () => {
       createdAt: now,
       lastUsedAt: null,
       revokedAt: null,
+      organisationId: null,
     });
     expect(JSON.stringify(stored)).not.toContain(key.slice(API_KEY_PREFIX_LENGTH));
     expect(toApiKeySummary(record)).toEqual({

@@ -73,7 +73,11 @@ export class ApiKeyService {
   ) {}
 
   /** Creates a key; the returned `key` is the only time the secret exists outside the caller's hands. */
-  create(input: Required<CreateApiKey>, now: Date): { key: string; record: ApiKeyRecord } {
+  create(
+    input: Required<CreateApiKey>,
+    now: Date,
+    organisationId: number | null = null,
+  ): { key: string; record: ApiKeyRecord } {
     const generated = generateApiKey();
     const record = this.repo.insert({
       name: input.name,
@@ -81,6 +85,7 @@ export class ApiKeyService {
       hash: generated.hash,
       limitPerMinute: input.limitPerMinute,
       createdAt: now,
+      organisationId,
     });
     return { key: generated.key, record };
   }
@@ -88,6 +93,24 @@ export class ApiKeyService {
   /** Every key, oldest first, without secrets. */
   list(): ApiKeyRecord[] {
     return this.repo.list();
+  }
+
+  /** The organisation's keys, oldest first, without secrets. */
+  listForOrganisation(organisationId: number): ApiKeyRecord[] {
+    return this.repo.listForOrganisation(organisationId);
+  }
+
+  /**
+   * Revokes one of the organisation's keys; a key of another organisation is not found. The key stops
+   * working at once in this process, and within `KEY_RECHECK_MS` in any other.
+   */
+  revokeInOrganisation(organisationId: number, id: number, now: Date): RevokeOutcome {
+    if (!this.repo.findInOrganisation(organisationId, id)) return { outcome: 'not-found' };
+    const outcome = this.revoke(id, now);
+    for (const [presented, remembered] of this.remembered) {
+      if (remembered.row.id === id) this.remembered.delete(presented);
+    }
+    return outcome;
   }
 
   /** Revokes a key; revoking twice is harmless and keeps the first date. */

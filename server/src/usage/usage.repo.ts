@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, gte, lt, type SQL, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, lt, type SQL, sql } from 'drizzle-orm';
 import type { UsageGrouping } from '@counterpoise/api';
 import type { Orm } from '../db/database';
 import { apiKeys, apiUsage } from '../db/schema';
@@ -72,9 +72,27 @@ export class UsageRepo {
     });
   }
 
-  /** Sums of one key's rows in `[from, to)`, one entry per day, route or key. */
-  groups(keyId: number, from: Date, to: Date, groupBy: UsageGrouping): UsageGroupRow[] {
-    const where = and(eq(apiUsage.keyId, keyId), gte(apiUsage.at, from), lt(apiUsage.at, to));
+  /**
+   * Sums of the rows in `[from, to)` of one key, or of every key of an organisation, one entry per day,
+   * route or key.
+   */
+  groups(
+    scope: number | { readonly organisationId: number },
+    from: Date,
+    to: Date,
+    groupBy: UsageGrouping,
+  ): UsageGroupRow[] {
+    const keys =
+      typeof scope === 'number'
+        ? eq(apiUsage.keyId, scope)
+        : inArray(
+            apiUsage.keyId,
+            this.orm
+              .select({ id: apiKeys.id })
+              .from(apiKeys)
+              .where(eq(apiKeys.organisationId, scope.organisationId)),
+          );
+    const where = and(keys, gte(apiUsage.at, from), lt(apiUsage.at, to));
     if (groupBy === 'key') {
       return this.orm
         .select({ group: apiKeys.prefix, keyName: apiKeys.name, ...FIGURES })

@@ -4,6 +4,7 @@ import { ProblemSchema, UsageReportSchema } from '@counterpoise/api';
 import { createApp, OPENAPI_REGISTRIES } from '../app';
 import type { Clock } from '../clock';
 import { createTestKey } from '../keys/testing/test-keys';
+import { ACCESS_TOKEN_SCHEME, REFRESH_COOKIE_SCHEME } from '../auth/auth.openapi';
 import { API_KEY_BEARER_SCHEME, API_KEY_HEADER_SCHEME } from '../keys/keys.openapi';
 import { buildOpenApiDocument } from '../openapi/openapi';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
@@ -193,7 +194,11 @@ describe('the OpenAPI document', () => {
 
   it('documents the usage route with the key’s security schemes and its refusals', () => {
     const operation = document.paths?.['/api/v1/usage']?.get;
-    expect(operation?.security).toEqual([{ [API_KEY_HEADER_SCHEME]: [] }, { [API_KEY_BEARER_SCHEME]: [] }]);
+    expect(operation?.security).toEqual([
+      { [API_KEY_HEADER_SCHEME]: [] },
+      { [API_KEY_BEARER_SCHEME]: [] },
+      { [ACCESS_TOKEN_SCHEME]: [] },
+    ]);
     expect(Object.keys(operation?.responses ?? {})).toEqual(['200', '400', '401', '403', '429']);
     expect(operation?.parameters?.map((parameter) => ('name' in parameter ? parameter.name : ''))).toEqual([
       'from',
@@ -203,6 +208,8 @@ describe('the OpenAPI document', () => {
     expect(document.components?.securitySchemes).toEqual({
       [API_KEY_HEADER_SCHEME]: expect.objectContaining({ type: 'apiKey', in: 'header', name: 'X-Api-Key' }),
       [API_KEY_BEARER_SCHEME]: expect.objectContaining({ type: 'http', scheme: 'bearer' }),
+      [ACCESS_TOKEN_SCHEME]: expect.objectContaining({ type: 'http', scheme: 'bearer', bearerFormat: 'JWT' }),
+      [REFRESH_COOKIE_SCHEME]: expect.objectContaining({ type: 'apiKey', in: 'cookie', name: 'cp_refresh' }),
     });
   });
 

@@ -1,5 +1,6 @@
 import { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import {
+  OrganisationUsageReportSchema,
   PROBLEM_MEDIA_TYPE,
   ProblemSchema,
   type UsageQuery,
@@ -9,9 +10,11 @@ import {
 import { Router } from 'express';
 import type { Clock } from '../clock';
 import { validateQuery } from '../http/validate';
+import { ACCESS_TOKEN_SCHEME } from '../auth/auth.openapi';
+import { requirePermission } from '../auth/require-user';
 import { API_KEY_SECURITY, KEYED_ROUTE_RESPONSES, RATE_LIMIT_HEADERS } from '../keys/keys.openapi';
 import type { UsageRepo } from './usage.repo';
-import { buildUsageReport } from './usage.service';
+import { buildOrganisationUsageReport, buildUsageReport } from './usage.service';
 
 /** The OpenAPI registry of the usage report. */
 export const usageRegistry = new OpenAPIRegistry();
@@ -20,18 +23,22 @@ usageRegistry.registerPath({
   method: 'get',
   path: '/api/v1/usage',
   tags: ['Usage'],
-  summary: 'How much the calling API key used the API',
+  summary: 'How much the calling API key, or the organisation’s keys, used the API',
   description:
     'Counts the requests made with the calling key over a span, per UTC day, per route or per key, ' +
     'with their errors, bytes and durations. Requests reach the report within about a tenth of a ' +
-    'second. The call itself counts as a request.',
-  security: API_KEY_SECURITY,
+    'second. The call itself counts as a request. Asked with the access token of a signed-in owner ' +
+    'or developer (`usage:read`), it reports every key of their organisation instead ' +
+    '(`OrganisationUsageReport`); other roles get 403.',
+  security: [...API_KEY_SECURITY, { [ACCESS_TOKEN_SCHEME]: [] }],
   request: { query: UsageQuerySchema },
   responses: {
     200: {
       description: 'The report.',
       headers: RATE_LIMIT_HEADERS,
-      content: { 'application/json': { schema: UsageReportSchema } },
+      content: {
+        'application/json': { schema: UsageReportSchema.or(OrganisationUsageReportSchema) },
+      },
     },
     400: {
       description: 'A query parameter is not valid; `errors` names each one.',
@@ -54,14 +61,22 @@ usageRegistry.registerPath({
   },
 });
 
-/** `GET /`, mounted at `/usage` on the keyed `/api/v1` chain: `res.locals.apiKey` is always set here. */
+/**
+ * `GET /`, mounted at `/usage` on the keyed `/api/v1` chain: either `res.locals.apiKey` (the key's own
+ * report) or `res.locals.user` (their organisation's) is set here.
+ */
 export function usageRouter(deps: { repo: UsageRepo; clock: Clock }): Router {
   const router = Router();
-  router.get('/', validateQuery(UsageQuerySchema), (_req, res) => {
-    const apiKey = res.locals.apiKey;
-    if (apiKey === undefined) throw new Error('The usage route is mounted without the API-key check.');
+  router.get('/', requirePermission('usage:read'), validateQuery(UsageQuerySchema), (_req, res) => {
+    const { apiKey, user } = res.locals;
     const query = res.locals.query as UsageQuery;
-    const report = buildUsageReport(deps.repo, apiKey, query, deps.clock.now());
+    const now = deps.clock.now();
+    let report;
+    if (apiKey !== undefined) report = buildUsageReport(deps.repo, apiKey, query, now);
+    else if (user !== undefined) {
+      const organisation = { id: user.organisationId, name: user.organisationName };
+      report = buildOrganisationUsageReport(deps.repo, organisation, query, now);
+    } else throw new Error('The usage route is mounted without the API-key check.');
     res.set('Cache-Control', 'no-store').json(report);
   });
   return router;

@@ -1,6 +1,7 @@
 import {
   type FieldError,
   MAX_USAGE_SPAN_DAYS,
+  type OrganisationUsageReport,
   type UsageFigures,
   type UsageQuery,
   type UsageReport,
@@ -73,8 +74,30 @@ export function buildUsageReport(
   query: UsageQuery,
   now: Date,
 ): UsageReport {
+  return {
+    key: { id: apiKey.id, name: apiKey.name, prefix: apiKey.prefix },
+    ...summarise(repo, apiKey.id, query, now),
+  };
+}
+
+/** The usage report of every key of an organisation, for its signed-in owners and developers. */
+export function buildOrganisationUsageReport(
+  repo: UsageRepo,
+  organisation: { id: number; name: string },
+  query: UsageQuery,
+  now: Date,
+): OrganisationUsageReport {
+  return { organisation, ...summarise(repo, { organisationId: organisation.id }, query, now) };
+}
+
+function summarise(
+  repo: UsageRepo,
+  scope: number | { organisationId: number },
+  query: UsageQuery,
+  now: Date,
+): Omit<UsageReport, 'key'> {
   const { from, to } = resolveSpan(query, now);
-  const rows = repo.groups(apiKey.id, from, to, query.groupBy);
+  const rows = repo.groups(scope, from, to, query.groupBy);
   const total = { requests: 0, clientErrors: 0, serverErrors: 0, rateLimited: 0, bytes: 0 };
   let totalDurationMs = 0;
   let maxDurationMs = 0;
@@ -88,7 +111,6 @@ export function buildUsageReport(
     maxDurationMs = Math.max(maxDurationMs, row.maxDurationMs);
   }
   return {
-    key: { id: apiKey.id, name: apiKey.name, prefix: apiKey.prefix },
     from: from.toISOString(),
     to: to.toISOString(),
     groupBy: query.groupBy,

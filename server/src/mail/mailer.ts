@@ -1,0 +1,56 @@
+import nodemailer from 'nodemailer';
+import { ORGANISATION_HEADER } from './smtp-capture';
+
+/** One e-mail to send on behalf of an organisation. */
+export interface OutgoingMail {
+  readonly organisationId: number;
+  readonly to: string;
+  readonly subject: string;
+  readonly text: string;
+  readonly html: string;
+}
+
+/** Sends e-mail; resolves once the SMTP server has accepted the message. */
+export interface Mailer {
+  send(mail: OutgoingMail): Promise<void>;
+}
+
+/**
+ * A mailer over nodemailer's SMTP transport: to `SMTP_URL` when set, otherwise to the local capture
+ * server on 127.0.0.1 (plain SMTP on the loopback, no TLS to negotiate).
+ */
+export function smtpMailer(options: { from: string } & ({ url: string } | { localPort: number })): Mailer {
+  const transport =
+    'url' in options
+      ? nodemailer.createTransport(options.url)
+      : nodemailer.createTransport({
+          host: '127.0.0.1',
+          port: options.localPort,
+          secure: false,
+          ignoreTLS: true,
+        });
+  return {
+    async send(mail) {
+      await transport.sendMail({
+        from: options.from,
+        to: mail.to,
+        subject: mail.subject,
+        text: mail.text,
+        html: mail.html,
+        headers: { [ORGANISATION_HEADER]: String(mail.organisationId) },
+      });
+    },
+  };
+}
+
+const escapeHtml = (text: string) => text.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+
+/** Paragraphs and one link, as plain text and as simple HTML. */
+export function composeMail(paragraphs: readonly string[], link: { label: string; url: string }) {
+  const text = [...paragraphs, `${link.label}: ${link.url}`].join('\n\n');
+  const html = [
+    ...paragraphs.map((paragraph) => `<p>${escapeHtml(paragraph)}</p>`),
+    `<p><a href="${escapeHtml(link.url)}">${escapeHtml(link.label)}</a></p>`,
+  ].join('\n');
+  return { text: `${text}\n`, html };
+}
