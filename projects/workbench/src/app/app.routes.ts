@@ -1,4 +1,6 @@
 import type { Routes } from '@angular/router';
+import { provideCounterpoise } from '@counterpoise/ng/engine';
+import { requirePermission, requireSignedOut, requireSignIn } from './auth/auth.guards';
 
 export const routes: Routes = [
   {
@@ -11,6 +13,65 @@ export const routes: Routes = [
     path: 'safety',
     title: 'Safety · Counterpoise',
     loadComponent: () => import('./safety/safety-page').then((m) => m.SafetyPage),
+  },
+  {
+    path: 'widgets',
+    title: 'Widgets · Counterpoise',
+    // The showcase computes on the device, so it works without a connection or an account.
+    providers: [provideCounterpoise({ engine: 'local' })],
+    loadComponent: () => import('./widgets/widgets-page').then((m) => m.WidgetsPage),
+  },
+  {
+    path: 'sign-in',
+    title: 'Sign in · Counterpoise',
+    canActivate: [requireSignedOut],
+    loadComponent: () => import('./auth/sign-in-page').then((m) => m.SignInPage),
+  },
+  {
+    path: 'forgot-password',
+    title: 'Forgotten password · Counterpoise',
+    loadComponent: () => import('./auth/forgot-password-page').then((m) => m.ForgotPasswordPage),
+  },
+  {
+    // The path of the link in the reset e-mail.
+    path: 'reset-password',
+    title: 'New password · Counterpoise',
+    loadComponent: () => import('./auth/reset-password-page').then((m) => m.ResetPasswordPage),
+  },
+  {
+    // The path of the link in the invitation e-mail.
+    path: 'accept-invitation',
+    title: 'Accept the invitation · Counterpoise',
+    loadComponent: () => import('./auth/accept-invitation-page').then((m) => m.AcceptInvitationPage),
+  },
+  {
+    path: 'account',
+    title: 'Your account · Counterpoise',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./auth/account-page').then((m) => m.AccountPage),
+  },
+  {
+    path: 'people',
+    title: 'People · Counterpoise',
+    canActivate: [requirePermission('people:read')],
+    loadComponent: () => import('./people/people-page').then((m) => m.PeoplePage),
+  },
+  {
+    path: 'keys',
+    title: 'API keys · Counterpoise',
+    canActivate: [requirePermission('keys:manage')],
+    loadComponent: () => import('./keys/keys-page').then((m) => m.KeysPage),
+  },
+  {
+    path: 'outbox',
+    title: 'Outbox · Counterpoise',
+    canActivate: [requirePermission('outbox:read')],
+    loadComponent: () => import('./outbox/outbox-page').then((m) => m.OutboxPage),
+  },
+  {
+    path: 'not-available',
+    title: 'Not available for your role · Counterpoise',
+    loadComponent: () => import('./auth/not-available-page').then((m) => m.NotAvailablePage),
   },
   {
     path: '**',

@@ -1,12 +1,16 @@
 import { BreakpointObserver, type BreakpointState } from '@angular/cdk/layout';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { provideHttpClient } from '@angular/common/http';
+import { provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { MatSidenavHarness } from '@angular/material/sidenav/testing';
 import { provideRouter } from '@angular/router';
 import { BehaviorSubject, map } from 'rxjs';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { AppShell } from './app-shell';
-import { NAVIGATION } from './navigation';
+import type { Role } from '@counterpoise/api';
+import { AuthSession } from '../auth/auth-session';
+import { aSession } from '../auth/testing';
 
 describe('AppShell', () => {
   const wide = new BehaviorSubject(true);
@@ -14,6 +18,8 @@ describe('AppShell', () => {
   beforeEach(() => {
     TestBed.configureTestingModule({
       providers: [
+        provideHttpClient(),
+        provideHttpClientTesting(),
         provideRouter([]),
         {
           provide: BreakpointObserver,
@@ -25,8 +31,9 @@ describe('AppShell', () => {
     });
   });
 
-  async function render(isWide: boolean) {
+  async function render(isWide: boolean, role?: Role) {
     wide.next(isWide);
+    if (role) TestBed.inject(AuthSession).start(aSession(role));
     const fixture = TestBed.createComponent(AppShell);
     await fixture.whenStable();
     const sidenav = await TestbedHarnessEnvironment.loader(fixture).getHarness(MatSidenavHarness);
@@ -38,11 +45,41 @@ describe('AppShell', () => {
     expect(await sidenav.isOpen()).toBe(true);
     expect(await sidenav.getMode()).toBe('side');
     expect(element.querySelector('[aria-label="Open the navigation"]')).toBeNull();
-    const labels = [...element.querySelectorAll('nav a [matListItemTitle]')].map((link) =>
-      link.textContent?.trim(),
-    );
-    expect(labels).toEqual(NAVIGATION.map((item) => item.label));
+    expect(navigationLabels(element)).toEqual(['Home', 'Safety', 'API reference']);
   });
+
+  it('lists the pages of the signed-in person’s role', async () => {
+    expect(navigationLabels((await render(true, 'owner')).element)).toEqual([
+      'Home',
+      'Safety',
+      'People',
+      'API keys',
+      'Outbox',
+      'API reference',
+    ]);
+  });
+
+  it('leaves out what a role does not open', async () => {
+    expect(navigationLabels((await render(true, 'technician')).element)).toEqual([
+      'Home',
+      'Safety',
+      'API reference',
+    ]);
+    TestBed.inject(AuthSession).start(aSession('developer'));
+    const { element } = await render(true);
+    expect(navigationLabels(element)).toEqual(['Home', 'Safety', 'API keys', 'API reference']);
+  });
+
+  it('shows the account menu in the toolbar once someone is signed in', async () => {
+    const { element } = await render(true, 'manager');
+    expect(element.querySelector('.toolbar app-user-menu button')?.getAttribute('aria-label')).toBe(
+      'Your account: Dario Lindqvist',
+    );
+  });
+
+  function navigationLabels(element: HTMLElement): (string | undefined)[] {
+    return [...element.querySelectorAll('nav a [matListItemTitle]')].map((link) => link.textContent?.trim());
+  }
 
   it('opens the navigation as a drawer on a phone and closes it once a page is chosen', async () => {
     const { fixture, sidenav, element } = await render(false);

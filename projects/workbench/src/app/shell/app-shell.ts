@@ -1,5 +1,5 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
-import { ChangeDetectionStrategy, Component, inject, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, viewChild } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -8,14 +8,17 @@ import { MatSidenav, MatSidenavModule } from '@angular/material/sidenav';
 import { MatToolbarModule } from '@angular/material/toolbar';
 import { RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
 import { map } from 'rxjs';
-import { NAVIGATION } from './navigation';
+import { AuthSession } from '../auth/auth-session';
+import { visibleNavigation } from './navigation';
+import { UserMenu } from './user-menu';
 
 /** Below this width the navigation slides over the page instead of sitting beside it. */
 const WIDE_LAYOUT = '(min-width: 840px)';
 
 /**
  * The frame of every page: a toolbar, the navigation (beside the page on tablets and laptops, a drawer on
- * phones) and a skip link so that keyboard users reach the page without tabbing through the menu.
+ * phones) and a skip link so that keyboard users reach the page without tabbing through the menu. The
+ * navigation lists only what the signed-in person's role opens; the toolbar ends with their account menu.
  */
 @Component({
   selector: 'app-shell',
@@ -28,13 +31,17 @@ const WIDE_LAYOUT = '(min-width: 840px)';
     RouterLink,
     RouterLinkActive,
     RouterOutlet,
+    UserMenu,
   ],
   templateUrl: './app-shell.html',
   styleUrl: './app-shell.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class AppShell {
-  protected readonly navigation = NAVIGATION;
+  private readonly session = inject(AuthSession);
+  protected readonly navigation = computed(() =>
+    visibleNavigation((permission) => this.session.can(permission)),
+  );
   protected readonly wide = toSignal(
     inject(BreakpointObserver)
       .observe(WIDE_LAYOUT)

@@ -1,3 +1,5 @@
+import type { Permission } from '@counterpoise/api';
+
 /** One entry of the main navigation. */
 export interface NavigationItem {
   /** The visible label. */
@@ -8,11 +10,25 @@ export interface NavigationItem {
   readonly link: string;
   /** True when the address is served by the server (the API reference), not by the app's router. */
   readonly external?: boolean;
+  /** Shown only to signed-in people whose role holds this permission; without it, shown to everyone. */
+  readonly permission?: Permission;
 }
 
 /** The main navigation, in the order of a technician's day. */
 export const NAVIGATION: readonly NavigationItem[] = [
   { label: 'Home', icon: 'home', link: '/' },
   { label: 'Safety', icon: 'health_and_safety', link: '/safety' },
+  { label: 'Widgets', icon: 'widgets', link: '/widgets' },
+  { label: 'People', icon: 'group', link: '/people', permission: 'people:read' },
+  { label: 'API keys', icon: 'key', link: '/keys', permission: 'keys:manage' },
+  { label: 'Outbox', icon: 'outbox', link: '/outbox', permission: 'outbox:read' },
   { label: 'API reference', icon: 'api', link: '/api/docs', external: true },
 ];
+
+/** The entries a person with these permissions sees. */
+export function visibleNavigation(
+  can: (permission: Permission) => boolean,
+  items: readonly NavigationItem[] = NAVIGATION,
+): NavigationItem[] {
+  return items.filter((item) => item.permission === undefined || can(item.permission));
+}

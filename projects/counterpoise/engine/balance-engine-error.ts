@@ -1,0 +1,54 @@
+import type { Problem } from '@counterpoise/api';
+
+/** Why an engine could not give an answer. */
+export type BalanceEngineErrorReason =
+  'invalid' | 'unauthorized' | 'revoked' | 'rate-limited' | 'unreachable' | 'server';
+
+/** What else a `BalanceEngineError` carries. */
+export interface BalanceEngineErrorDetails {
+  /** The problem the engine answered, with the fields at fault for `invalid`. */
+  readonly problem?: Problem;
+  /** For `rate-limited`: how long to wait before the next try. */
+  readonly retryAfterSeconds?: number;
+  /** The HTTP status, when the remote engine got one. */
+  readonly status?: number;
+  /** The underlying error, for the developer's console. */
+  readonly cause?: unknown;
+}
+
+/**
+ * Why a calculation gave no answer. `message` is written for the technician: what happened and what to
+ * do; `reason` is for the program, to decide what to offer next (the local engine, a new sign-in...).
+ */
+export class BalanceEngineError extends Error {
+  /** Always `BalanceEngineError`, so that the error can be told apart in logs. */
+  override readonly name = 'BalanceEngineError';
+  /** Why there is no answer. */
+  readonly reason: BalanceEngineErrorReason;
+  /** The problem the engine answered, with `errors: [{ path, message }]` for the fields at fault. */
+  readonly problem?: Problem;
+  /** For `rate-limited`: seconds to wait before the next try, when the service said. */
+  readonly retryAfterSeconds?: number;
+  /** The HTTP status, when the remote engine got one (0 when no answer came). */
+  readonly status?: number;
+
+  constructor(reason: BalanceEngineErrorReason, message: string, details: BalanceEngineErrorDetails = {}) {
+    super(message, details.cause === undefined ? undefined : { cause: details.cause });
+    this.reason = reason;
+    if (details.problem !== undefined) this.problem = details.problem;
+    if (details.retryAfterSeconds !== undefined) this.retryAfterSeconds = details.retryAfterSeconds;
+    if (details.status !== undefined) this.status = details.status;
+  }
+}
+
+/** The reasons for which computing on the device is worth offering: the values are fine, the service is not. */
+const FALLBACK_REASONS: ReadonlySet<BalanceEngineErrorReason> = new Set([
+  'unreachable',
+  'server',
+  'rate-limited',
+]);
+
+/** Whether the local engine would likely answer where this error stopped the remote one. */
+export function canFallBackToLocal(error: BalanceEngineError): boolean {
+  return FALLBACK_REASONS.has(error.reason);
+}

@@ -1,0 +1,107 @@
+import { describe, expect, it } from 'vitest';
+import { canFallBackToLocal } from './balance-engine-error';
+import { engineErrorFromProblem, engineErrorFromResponse, parseRetryAfter, problemOf } from './engine-errors';
+
+const invalidPhase = {
+  type: 'about:blank',
+  title: 'Bad Request',
+  status: 400,
+  code: 'INVALID_REQUEST',
+  detail: 'initial.phaseDeg: The phase must lie within ±3600 degrees.',
+  errors: [{ path: 'initial.phaseDeg', message: 'The phase must lie within ±3600 degrees.' }],
+};
+
+describe('parseRetryAfter', () => {
+  it('reads seconds and HTTP dates, and nothing else', () => {
+    const now = new Date('2026-11-20T10:00:00Z');
+    expect(parseRetryAfter('17', now)).toBe(17);
+    expect(parseRetryAfter('Fri, 20 Nov 2026 10:00:42 GMT', now)).toBe(42);
+    expect(parseRetryAfter('Fri, 20 Nov 2026 09:00:00 GMT', now)).toBe(0);
+    expect(parseRetryAfter('soon', now)).toBeUndefined();
+    expect(parseRetryAfter(null, now)).toBeUndefined();
+    expect(parseRetryAfter('  ', now)).toBeUndefined();
+  });
+});
+
+describe('engineErrorFromResponse', () => {
+  it.each([
+    [0, 'unreachable'],
+    [200, 'unreachable'],
+    [400, 'invalid'],
+    [401, 'unauthorized'],
+    [403, 'revoked'],
+    [404, 'server'],
+    [405, 'server'],
+    [413, 'invalid'],
+    [415, 'server'],
+    [429, 'rate-limited'],
+    [500, 'server'],
+    [503, 'unreachable'],
+  ] as const)('turns status %i into the reason %s', (status, reason) => {
+    const error = engineErrorFromResponse({ status, body: null });
+    expect(error.reason).toBe(reason);
+    expect(error.status).toBe(status);
+    expect(error.message.length).toBeGreaterThan(20);
+  });
+
+  it("keeps the service's problem and speaks the field's own message, without its path", () => {
+    const error = engineErrorFromResponse({ status: 400, body: invalidPhase });
+    expect(error.problem).toEqual(invalidPhase);
+    expect(error.message).toBe('The phase must lie within ±3600 degrees.');
+  });
+
+  it('counts the fields when several are at fault', () => {
+    const body = {
+      ...invalidPhase,
+      errors: [...invalidPhase.errors, { path: 'trialWeight.mass', message: 'Enter the mass as a number.' }],
+    };
+    expect(engineErrorFromResponse({ status: 400, body }).message).toBe(
+      '2 values cannot be used; check the marked fields.',
+    );
+  });
+
+  it('says how long to wait when over the rate limit', () => {
+    const error = engineErrorFromResponse({ status: 429, body: null, retryAfter: '20' });
+    expect(error.retryAfterSeconds).toBe(20);
+    expect(error.message).toContain('Try again in 20 seconds');
+    expect(engineErrorFromResponse({ status: 429, body: null, retryAfter: '300' }).message).toContain(
+      'Try again in 5 minutes',
+    );
+  });
+
+  it('ignores a body that is not a problem', () => {
+    expect(
+      engineErrorFromResponse({ status: 500, body: '<html>Bad gateway</html>' }).problem,
+    ).toBeUndefined();
+    expect(problemOf({ title: 'no status' })).toBeUndefined();
+  });
+
+  it('offers the device only when the values are not at fault', () => {
+    const reasons = [0, 400, 401, 403, 429, 500].map((status) => {
+      const error = engineErrorFromResponse({ status, body: null });
+      return [error.reason, canFallBackToLocal(error)];
+    });
+    expect(reasons).toEqual([
+      ['unreachable', true],
+      ['invalid', false],
+      ['unauthorized', false],
+      ['revoked', false],
+      ['rate-limited', true],
+      ['server', true],
+    ]);
+  });
+});
+
+describe('engineErrorFromProblem', () => {
+  it("is always the values' fault, with the engine's message", () => {
+    const error = engineErrorFromProblem({
+      type: 'about:blank',
+      title: 'Bad Request',
+      status: 400,
+      code: 'ZERO_TRIAL_EFFECT',
+      detail: 'The trial weight changed almost nothing; use a heavier trial weight.',
+    });
+    expect(error.reason).toBe('invalid');
+    expect(error.message).toBe('The trial weight changed almost nothing; use a heavier trial weight.');
+  });
+});

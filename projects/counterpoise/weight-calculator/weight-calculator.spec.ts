@@ -1,0 +1,489 @@
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { ChangeDetectionStrategy, Component, signal } from '@angular/core';
+import { TestBed } from '@angular/core/testing';
+import { type Observable, Subject, of, throwError } from 'rxjs';
+import { describe, expect, it } from 'vitest';
+import { type CalcRequest, type CalcRouteName, calculate } from '@counterpoise/api';
+import type { DialPositions } from '@counterpoise/ng/core';
+import type { BlockedSector } from '@counterpoise/ng/correction-overlay';
+import {
+  BALANCE_ENGINE,
+  type BalanceEngine,
+  BalanceEngineError,
+  LocalBalanceEngine,
+  engineErrorFromProblem,
+} from '@counterpoise/ng/engine';
+import { CpWeightCalculatorHarness } from '@counterpoise/ng/weight-calculator/testing';
+import { CpWeightCalculator } from './weight-calculator';
+import { createCalculatorForm, draftOf } from './weight-calculator-form';
+import type {
+  CalcMethod,
+  SensitivityPreset,
+  WeightCalculation,
+  WeightCalculatorDraft,
+} from './weight-calculator-model';
+
+/** A test double of the engine: answers through `calculate()` unless told otherwise, and records calls. */
+class FakeEngine implements BalanceEngine {
+  readonly calls: { route: CalcRouteName; request: unknown }[] = [];
+  respond: (route: CalcRouteName, request: unknown) => Observable<unknown> = (route, request) => {
+    const outcome = calculate(route, request);
+    return outcome.status === 200
+      ? of(outcome.result)
+      : throwError(() => engineErrorFromProblem(outcome.problem));
+  };
+
+  constructor(readonly kind: 'remote' | 'local' = 'remote') {}
+
+  calculate<N extends CalcRouteName>(route: N, request: CalcRequest<N>): Observable<never> {
+    this.calls.push({ route, request });
+    return this.respond(route, request) as Observable<never>;
+  }
+}
+
+@Component({
+  imports: [CpWeightCalculator],
+  template: `
+    <cp-weight-calculator
+      [methods]="methods()"
+      [allowedPositions]="positions()"
+      [blockedSectors]="blocked()"
+      [sensitivity]="sensitivity()"
+      [disabled]="disabled()"
+      [counting]="counting()"
+      [(draft)]="draft"
+      [(method)]="method"
+      (calculated)="calculations.push($event)"
+    />
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+class Host {
+  readonly methods = signal<readonly CalcMethod[]>(['one-run', 'single-plane', 'two-plane', 'four-run']);
+  readonly positions = signal<DialPositions | null>(null);
+  readonly blocked = signal<readonly BlockedSector[]>([]);
+  readonly sensitivity = signal<SensitivityPreset | null>(null);
+  readonly disabled = signal(false);
+  readonly counting = signal<'withRotation' | 'againstRotation'>('againstRotation');
+  readonly draft = signal<WeightCalculatorDraft | null>(null);
+  readonly method = signal<CalcMethod | null>('single-plane');
+  readonly calculations: WeightCalculation[] = [];
+}
+
+/** Readings of an invented mulcher drum, as the API reference's single-plane example. */
+const SINGLE_PLANE = {
+  'initial.amplitude': 0.52,
+  'initial.phaseDeg': 74,
+  'trialWeight.mass': 60,
+  'trialWeight.angleDeg': 0,
+  'withTrial.amplitude': 0.31,
+  'withTrial.phaseDeg': 141,
+};
+
+const SINGLE_PLANE_REQUEST = {
+  initial: { amplitude: 0.52, phaseDeg: 74 },
+  trialWeight: { mass: 60, angleDeg: 0 },
+  withTrial: { amplitude: 0.31, phaseDeg: 141 },
+  trialWeightRemoved: true,
+  weightAngles: 'againstRotation',
+} as const;
+
+/** Sets up a host whose calculator computes with `engine`, or with the real local engine when 'local'. */
+/** The same readings as a draft the page hands over, for tests whose point is not the typing. */
+function trialWeightJob(host: Host): void {
+  const draft = draftOf(createCalculatorForm());
+  draft.singlePlane = {
+    initial: { amplitude: 0.52, phaseDeg: 74 },
+    trialWeight: { mass: 60, angleDeg: 0 },
+    withTrial: { amplitude: 0.31, phaseDeg: 141 },
+    trialWeightRemoved: true,
+  };
+  host.draft.set(draft);
+}
+
+async function setUp(engine: BalanceEngine | 'local' = new FakeEngine(), configure?: (host: Host) => void) {
+  TestBed.configureTestingModule({
+    providers: [
+      engine === 'local'
+        ? { provide: BALANCE_ENGINE, useExisting: LocalBalanceEngine }
+        : { provide: BALANCE_ENGINE, useValue: engine },
+    ],
+  });
+  const fixture = TestBed.createComponent(Host);
+  configure?.(fixture.componentInstance);
+  const loader = TestbedHarnessEnvironment.loader(fixture);
+  const calculator = await loader.getHarness(CpWeightCalculatorHarness);
+  return { fixture, host: fixture.componentInstance, calculator, engine };
+}
+
+function expected<N extends CalcRouteName>(route: N, request: unknown) {
+  const outcome = calculate(route, request);
+  if (outcome.status !== 200) throw new Error(`The ${route} check values must compute.`);
+  return outcome.result;
+}
+
+// Each harness step renders the whole form with its dials in jsdom: a second or two per test on an idle
+// machine, many more on a busy one. The limit only stops a hung test; it measures nothing.
+const SLOW = { timeout: 60_000 };
+
+describe('CpWeightCalculator with a test engine', SLOW, () => {
+  it('computes the trial-weight method through the engine and shows the correction', async () => {
+    const { calculator, engine, host } = await setUp();
+    await calculator.fill(SINGLE_PLANE);
+    await calculator.submit();
+
+    const fake = engine as FakeEngine;
+    expect(fake.calls).toEqual([{ route: 'single-plane', request: SINGLE_PLANE_REQUEST }]);
+    const answer = expected('single-plane', SINGLE_PLANE_REQUEST);
+    const result = await calculator.getResult();
+    expect(result?.corrections).toEqual([
+      {
+        plane: 1,
+        title: 'Correction weight',
+        mass: `${answer.correction.mass.toFixed(1)} g`,
+        angle: `${Math.round(answer.correction.angleDeg) % 360}°`,
+        split: [],
+      },
+    ]);
+    expect(result?.facts['Predicted residual']).toMatch(/ in\/s at \d+°$/);
+    expect(result?.engine).toBe('remote');
+    expect(result?.stale).toBe(false);
+    expect(host.calculations).toHaveLength(1);
+    expect(host.calculations[0]).toMatchObject({ method: 'single-plane', engine: 'remote', massUnit: 'g' });
+  });
+
+  it('shows progress while the engine works, and the answer when it comes', async () => {
+    const engine = new FakeEngine();
+    const pending = new Subject<unknown>();
+    engine.respond = () => pending;
+    const { calculator } = await setUp(engine, trialWeightJob);
+    await calculator.submit();
+    expect(await calculator.isComputing()).toBe(true);
+    expect(await calculator.canSubmit()).toBe(false);
+
+    pending.next(expected('single-plane', SINGLE_PLANE_REQUEST));
+    pending.complete();
+    expect(await calculator.isComputing()).toBe(false);
+    expect((await calculator.getResult())?.corrections).toHaveLength(1);
+  });
+
+  it('marks every empty field and sends nothing', async () => {
+    const { calculator, engine } = await setUp();
+    await calculator.submit();
+    expect((engine as FakeEngine).calls).toEqual([]);
+    expect(await calculator.getErrors()).toEqual([
+      'Enter the initial amplitude.',
+      'Enter the trial mass.',
+      'Enter the trial run amplitude.',
+      'Enter the initial phase.',
+      'Enter the trial angle.',
+      'Enter the trial run phase.',
+    ]);
+    expect(await calculator.getFieldError('withTrial.phaseDeg')).toBe('Enter the trial run phase.');
+    // The first field that needs the technician takes the focus, so typing can start at once.
+    expect(document.activeElement?.getAttribute('data-field')).toBe('initial.amplitude');
+  });
+
+  it('says what is wrong with a negative amplitude, a zero trial mass and an offset out of range', async () => {
+    const { calculator } = await setUp();
+    await calculator.fill({ 'initial.amplitude': -0.2, 'trialWeight.mass': 0 });
+    expect(await calculator.getFieldError('initial.amplitude')).toMatch(
+      /initial amplitude cannot be negative/,
+    );
+    expect(await calculator.getFieldError('trialWeight.mass')).toBe(
+      'The trial mass must be greater than zero.',
+    );
+    await calculator.selectMethod('one-run');
+    await calculator.setField('sensitivity.offsetDeg', 400);
+    expect(await calculator.getFieldError('sensitivity.offsetDeg')).toBe(
+      'The phase offset must lie between -360 and 360.',
+    );
+  });
+
+  it("puts the engine's refusal on the field it names, and clears it when the field changes", async () => {
+    const engine = new FakeEngine();
+    const problem = {
+      type: 'about:blank',
+      title: 'Bad Request',
+      status: 400,
+      code: 'ZERO_TRIAL_EFFECT',
+      detail: 'The trial weight changed the reading too little; use a heavier trial weight.',
+      errors: [{ path: 'withTrial', message: 'The trial weight changed the reading too little.' }],
+    };
+    const fieldProblem = {
+      ...problem,
+      code: 'INVALID_REQUEST',
+      errors: [{ path: 'withTrial.amplitude', message: 'Read the amplitude again: it cannot be right.' }],
+    };
+    engine.respond = () =>
+      throwError(() => new BalanceEngineError('invalid', 'Read it again.', { problem: fieldProblem }));
+    const { calculator } = await setUp(engine, trialWeightJob);
+    await calculator.submit();
+    expect(await calculator.getFailure()).toEqual({ reason: 'invalid', message: 'Read it again.' });
+    expect(await calculator.getFieldError('withTrial.amplitude')).toBe(
+      'Read the amplitude again: it cannot be right.',
+    );
+    expect(await calculator.canUseLocalEngine()).toBe(false);
+
+    await calculator.setField('withTrial.amplitude', 0.33);
+    expect(await calculator.getFieldError('withTrial.amplitude')).toBeNull();
+
+    engine.respond = () => throwError(() => new BalanceEngineError('invalid', problem.detail, { problem }));
+    await calculator.submit();
+    expect(await calculator.getFailureDetails()).toEqual([
+      'The trial weight changed the reading too little.',
+    ]);
+  });
+
+  it('offers the device when the service cannot be reached, and computes the same there', async () => {
+    const engine = new FakeEngine('remote');
+    engine.respond = () =>
+      throwError(
+        () => new BalanceEngineError('unreachable', 'The calculation service could not be reached.'),
+      );
+    const { calculator } = await setUp(engine, trialWeightJob);
+    await calculator.submit();
+
+    expect(await calculator.getFailure()).toEqual({
+      reason: 'unreachable',
+      message: 'The calculation service could not be reached.',
+    });
+    expect(await calculator.getResult()).toBeNull();
+    expect(await calculator.getFieldValue('initial.amplitude')).toBe('0.52');
+
+    await calculator.useLocalEngine();
+    expect(await calculator.getFailure()).toBeNull();
+    const result = await calculator.getResult();
+    const answer = expected('single-plane', SINGLE_PLANE_REQUEST);
+    expect(result?.engine).toBe('local');
+    expect(result?.corrections[0]?.mass).toBe(`${answer.correction.mass.toFixed(1)} g`);
+  });
+
+  it.each(['unauthorized', 'revoked'] as const)(
+    'does not offer the device when the key is %s',
+    async (reason) => {
+      const engine = new FakeEngine('remote');
+      engine.respond = () =>
+        throwError(() => new BalanceEngineError(reason, 'Ask the portal administrator.'));
+      const { calculator } = await setUp(engine, trialWeightJob);
+      await calculator.submit();
+      expect((await calculator.getFailure())?.reason).toBe(reason);
+      expect(await calculator.canUseLocalEngine()).toBe(false);
+    },
+  );
+
+  it('keeps what was typed across a switch of method', async () => {
+    const { calculator, host } = await setUp();
+    await calculator.fill({ 'initial.amplitude': 0.52, 'initial.phaseDeg': 74 });
+    await calculator.selectMethod('four-run');
+    expect(await calculator.getMethod()).toBe('four-run');
+    expect(host.method()).toBe('four-run');
+    await calculator.setField('initialAmplitude', 0.45);
+    await calculator.selectMethod('single-plane');
+    expect(await calculator.getFieldValue('initial.amplitude')).toBe('0.52');
+    expect(await calculator.getFieldValue('initial.phaseDeg')).toBe('74');
+    expect(host.draft()?.fourRun.initialAmplitude).toBe(0.45);
+  });
+
+  it('follows the unit chosen in its labels, and never changes the numbers typed', async () => {
+    const { calculator, engine } = await setUp(new FakeEngine(), trialWeightJob);
+    await calculator.setMassUnit('oz');
+    await calculator.setAmplitudeUnit('mm/s');
+    expect(await calculator.getMassUnit()).toBe('oz');
+    expect(await calculator.getAmplitudeUnit()).toBe('mm/s');
+    expect(await calculator.getFieldValue('trialWeight.mass')).toBe('60');
+    await calculator.submit();
+    expect((engine as FakeEngine).calls[0]?.request).toEqual(SINGLE_PLANE_REQUEST);
+    const result = await calculator.getResult();
+    expect(result?.corrections[0]?.mass).toMatch(/^\d+\.\d{2} oz$/);
+    expect(result?.facts['Predicted residual']).toMatch(/ mm\/s at /);
+  });
+
+  it('marks a result stale when a value changes after it', async () => {
+    const { calculator } = await setUp(new FakeEngine(), trialWeightJob);
+    await calculator.submit();
+    await calculator.setField('initial.amplitude', 0.6);
+    expect((await calculator.getResult())?.stale).toBe(true);
+  });
+
+  it('splits the correction onto the allowed positions through the engine', async () => {
+    const { calculator, engine } = await setUp(new FakeEngine(), (host) => {
+      trialWeightJob(host);
+      host.positions.set({ count: 12, firstDeg: 0 });
+    });
+    await calculator.submit();
+    const fake = engine as FakeEngine;
+    expect(fake.calls.map((call) => call.route)).toEqual(['single-plane', 'split']);
+    const answer = expected('single-plane', SINGLE_PLANE_REQUEST);
+    const split = expected('split', {
+      weight: answer.correction,
+      positionsDeg: [0, 30, 60, 90, 120, 150, 180, 210, 240, 270, 300, 330],
+    });
+    const result = await calculator.getResult();
+    expect(result?.corrections[0]?.split).toEqual(
+      split.weights.map((part) => `${part.mass.toFixed(1)} g at ${Math.round(part.angleDeg) % 360}°`),
+    );
+  });
+
+  it('snaps the trial weight to the allowed positions, and refuses an angle between them', async () => {
+    const { calculator } = await setUp(new FakeEngine(), (host) => host.positions.set(4));
+    await calculator.setField('trialWeight.angleDeg', 45);
+    expect(await calculator.getFieldError('trialWeight.angleDeg')).toBe(
+      'The trial angle must be one of the allowed positions: 0°, 90°, 180°, 270°.',
+    );
+  });
+
+  it('moves the correction out of a blocked sector', async () => {
+    const { calculator } = await setUp(new FakeEngine(), (host) => {
+      trialWeightJob(host);
+      const at = expected('single-plane', SINGLE_PLANE_REQUEST).correction.angleDeg;
+      host.blocked.set([{ fromDeg: at - 10, toDeg: at + 10, label: 'holder' }]);
+    });
+    await calculator.submit();
+    const split = (await calculator.getResult())?.corrections[0]?.split ?? [];
+    expect(split).toHaveLength(2);
+  });
+
+  it('offers only the methods asked for', async () => {
+    const { calculator } = await setUp(new FakeEngine(), (host) => {
+      host.methods.set(['four-run', 'single-plane']);
+      host.method.set(null);
+    });
+    expect(await calculator.getMethodLabels()).toEqual(['Amplitude only', 'Trial weight']);
+    expect(await calculator.getMethod()).toBe('four-run');
+  });
+
+  it('fills the stored sensitivity of the machine family', async () => {
+    const { calculator, engine } = await setUp(new FakeEngine(), (host) => {
+      host.sensitivity.set({ massPerAmplitude: 180, offsetDeg: 15 });
+      host.method.set('one-run');
+    });
+    expect(await calculator.getFieldValue('sensitivity.massPerAmplitude')).toBe('180');
+    await calculator.fill({ 'reading.amplitude': 0.38, 'reading.phaseDeg': 212 });
+    await calculator.submit();
+    expect((engine as FakeEngine).calls[0]?.request).toEqual({
+      reading: { amplitude: 0.38, phaseDeg: 212 },
+      sensitivity: { massPerAmplitude: 180, offsetDeg: 15 },
+      weightAngles: 'againstRotation',
+    });
+    expect((await calculator.getResult())?.facts['Heavy spot']).toMatch(/^\d+°$/);
+  });
+
+  it('restores a draft the page kept, in the units it was typed in', async () => {
+    const { calculator, host } = await setUp(new FakeEngine(), trialWeightJob);
+    await calculator.setField('withTrial.amplitude', 0.29);
+    const kept = host.draft();
+    expect(kept?.singlePlane.withTrial).toEqual({ amplitude: 0.29, phaseDeg: 141 });
+    expect(kept?.massUnit).toBe('g');
+    await calculator.setField('withTrial.amplitude', null);
+    await calculator.setMassUnit('oz');
+    host.draft.set(kept);
+    expect(await calculator.getFieldValue('withTrial.amplitude')).toBe('0.29');
+    expect(await calculator.getMassUnit()).toBe('g');
+  });
+
+  it('neither edits nor computes while disabled', async () => {
+    const { calculator, engine, host } = await setUp(new FakeEngine(), trialWeightJob);
+    host.disabled.set(true);
+    expect(await calculator.canSubmit()).toBe(false);
+    await calculator.submit();
+    expect((engine as FakeEngine).calls).toEqual([]);
+    expect(await calculator.getFieldValue('initial.amplitude')).toBe('0.52');
+  });
+});
+
+describe('CpWeightCalculator with the local engine', SLOW, () => {
+  it('balances two planes on the device', async () => {
+    const { calculator } = await setUp('local', (host) => host.method.set('two-plane'));
+    await calculator.fill({
+      'initial.0.amplitude': 0.46,
+      'initial.0.phaseDeg': 38,
+      'initial.1.amplitude': 0.29,
+      'initial.1.phaseDeg': 301,
+      'runs.0.trialWeight.mass': 80,
+      'runs.0.trialWeight.angleDeg': 0,
+      'runs.0.readings.0.amplitude': 0.27,
+      'runs.0.readings.0.phaseDeg': 84,
+      'runs.0.readings.1.amplitude': 0.33,
+      'runs.0.readings.1.phaseDeg': 280,
+      'runs.1.trialWeight.mass': 80,
+      'runs.1.trialWeight.angleDeg': 0,
+      'runs.1.readings.0.amplitude': 0.41,
+      'runs.1.readings.0.phaseDeg': 22,
+      'runs.1.readings.1.amplitude': 0.12,
+      'runs.1.readings.1.phaseDeg': 355,
+    });
+    await calculator.submit();
+    const result = await calculator.getResult();
+    const answer = expected('multi-plane', {
+      planes: 2,
+      initial: [
+        { amplitude: 0.46, phaseDeg: 38 },
+        { amplitude: 0.29, phaseDeg: 301 },
+      ],
+      runs: [
+        {
+          weights: [{ plane: 1, mass: 80, angleDeg: 0 }],
+          readings: [
+            { amplitude: 0.27, phaseDeg: 84 },
+            { amplitude: 0.33, phaseDeg: 280 },
+          ],
+        },
+        {
+          weights: [{ plane: 2, mass: 80, angleDeg: 0 }],
+          readings: [
+            { amplitude: 0.41, phaseDeg: 22 },
+            { amplitude: 0.12, phaseDeg: 355 },
+          ],
+        },
+      ],
+    });
+    expect(result?.engine).toBe('local');
+    expect(result?.corrections.map((one) => [one.title, one.mass])).toEqual(
+      answer.corrections.map((one) => [`Plane ${one.plane} correction`, `${one.mass.toFixed(1)} g`]),
+    );
+    expect(Object.keys(result?.facts ?? {})).toEqual([
+      'Predicted residual, sensor 1',
+      'Predicted residual, sensor 2',
+      'Condition number',
+    ]);
+  });
+
+  it('balances without phase, from the amplitudes at three trial positions', async () => {
+    const { calculator } = await setUp('local', (host) => host.method.set('four-run'));
+    await calculator.fill({
+      initialAmplitude: 0.45,
+      trialMass: 50,
+      'trialRuns.0.amplitude': 0.62,
+      'trialRuns.1.amplitude': 0.21,
+      'trialRuns.2.amplitude': 0.55,
+    });
+    await calculator.submit();
+    const answer = expected('four-run', {
+      initialAmplitude: 0.45,
+      trialMass: 50,
+      trialRuns: [
+        { angleDeg: 0, amplitude: 0.62 },
+        { angleDeg: 120, amplitude: 0.21 },
+        { angleDeg: 240, amplitude: 0.55 },
+      ],
+    });
+    const result = await calculator.getResult();
+    expect(result?.corrections[0]).toMatchObject({
+      mass: `${answer.correction.mass.toFixed(1)} g`,
+      angle: `${Math.round(answer.correction.angleDeg) % 360}°`,
+    });
+    expect(result?.facts['Disagreement between runs']).toMatch(/ %$/);
+  });
+
+  it('says why when the trial weight changed nothing, and offers no second engine', async () => {
+    const { calculator } = await setUp('local', trialWeightJob);
+    await calculator.fill({ 'withTrial.amplitude': 0.52, 'withTrial.phaseDeg': 74 });
+    await calculator.submit();
+    const failure = await calculator.getFailure();
+    expect(failure?.reason).toBe('invalid');
+    expect(failure?.message).toMatch(/trial weight/i);
+    expect(await calculator.canUseLocalEngine()).toBe(false);
+    expect(await calculator.getResult()).toBeNull();
+  });
+});

@@ -1,0 +1,492 @@
+import { NgTemplateOutlet } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  ElementRef,
+  Injector,
+  afterNextRender,
+  computed,
+  effect,
+  inject,
+  input,
+  model,
+  output,
+  signal,
+  untracked,
+} from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { type AbstractControl, FormArray, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { type Observable, type Subscription, catchError, forkJoin, map, of, switchMap } from 'rxjs';
+import type { CalcRequest } from '@counterpoise/api';
+import type { AngleCounting, DialPositions, Rotation } from '@counterpoise/ng/core';
+import {
+  type BlockedSector,
+  CpCorrectionOverlay,
+  type OverlayWeight,
+} from '@counterpoise/ng/correction-overlay';
+import {
+  BALANCE_ENGINE,
+  type BalanceEngine,
+  BalanceEngineError,
+  LOCAL_BALANCE_ENGINE,
+  canFallBackToLocal,
+} from '@counterpoise/ng/engine';
+import { CpPhaseDial } from '@counterpoise/ng/phase-dial';
+import {
+  type CalculatorForm,
+  createCalculatorForm,
+  draftOf,
+  fieldErrorMessage,
+  methodGroup,
+} from './weight-calculator-form';
+import {
+  type AmplitudeUnit,
+  CALC_METHODS,
+  type CalcMethod,
+  type CorrectionPlacement,
+  type MassUnit,
+  METHOD_GROUPS,
+  METHOD_INFO,
+  METHOD_ROUTES,
+  type MethodAnswer,
+  type SensitivityPreset,
+  type WeightCalculation,
+  type WeightCalculatorDraft,
+} from './weight-calculator-model';
+import { buildRequest, controlPathFor, placementPlan } from './weight-calculator-requests';
+import { correctionsToInstall, describeResult } from './weight-calculator-result';
+import {
+  AMPLITUDE_UNITS,
+  MASS_UNITS,
+  amplitudeStep,
+  massStep,
+  sensitivityUnit,
+} from './weight-calculator-units';
+
+let nextId = 0;
+
+/** An angle as a weight is placed and as the result panel shows it, so the end view agrees with the figures. */
+function wholeDegrees(angleDeg: number): number {
+  return Math.round(angleDeg) % 360;
+}
+
+/** A calculation that gave no answer, kept so that it can be run again on the device. */
+interface Failure {
+  readonly error: BalanceEngineError;
+  readonly method: CalcMethod;
+  readonly engine: BalanceEngine['kind'];
+  /** Field messages the engine gave for values the form has no field for. */
+  readonly unplaced: readonly string[];
+}
+
+/** The last answer of a method, with what was typed when it was computed. */
+interface Answer {
+  readonly calculation: WeightCalculation;
+  readonly typed: string;
+}
+
+/**
+ * The weight calculator: a form for each balancing method a technician uses in the field (stored
+ * sensitivity, trial weight, two planes, amplitude only), with phases and angles on the phase dial, and a
+ * result panel with the correction, its split onto the places a weight can really go, the predicted
+ * residual, the engine's warnings and an end view of where the weight goes.
+ *
+ * It computes through `BALANCE_ENGINE` (see `provideCounterpoise()`); when the calculation service cannot
+ * answer it says why and offers to compute on the device. What was typed is never lost: not on an error,
+ * not on a switch of method, and `draft` lets the page keep it across visits.
+ */
+@Component({
+  selector: 'cp-weight-calculator',
+  templateUrl: './weight-calculator.html',
+  styleUrl: './weight-calculator.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [
+    ReactiveFormsModule,
+    NgTemplateOutlet,
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatProgressBarModule,
+    CpPhaseDial,
+    CpCorrectionOverlay,
+  ],
+  host: {
+    class: 'cp-weight-calculator',
+    '[class.cp-weight-calculator--computing]': '_pending()',
+    '[class.cp-weight-calculator--disabled]': 'disabled()',
+    '[attr.data-method]': '_method()',
+  },
+})
+export class CpWeightCalculator {
+  /** The methods offered, in this order; all of them when empty. */
+  readonly methods = input<readonly CalcMethod[]>(CALC_METHODS);
+  /** The method shown; the first offered when null or not offered. */
+  readonly method = model<CalcMethod | null>(null);
+  /** The unit of every mass of a calculation; the technician can switch it. */
+  readonly massUnit = model<MassUnit>('g');
+  /** The unit of every amplitude of a calculation; the technician can switch it. */
+  readonly amplitudeUnit = model<AmplitudeUnit>('in/s');
+  /** The way the rotor turns, as seen in the end views. */
+  readonly rotation = input<Rotation>('clockwise');
+  /** Which way angles are counted from the reference mark; weight angles are sent to the engine so. */
+  readonly counting = input<AngleCounting>('againstRotation');
+  /** Where the reference mark is drawn, clockwise from 12 o'clock. */
+  readonly zeroAtDeg = input(0);
+  /** Where weights can go (holes, holders): corrections are split onto them, trial weights snap to them. */
+  readonly allowedPositions = input<DialPositions | null>(null);
+  /** Stretches of the rim where no weight can go; corrections are moved out of them. */
+  readonly blockedSectors = input<readonly BlockedSector[]>([]);
+  /** The stored sensitivity of the machine family, filled into the stored-sensitivity form. */
+  readonly sensitivity = input<SensitivityPreset | null>(null);
+  /** Shows the form without letting it be changed or computed. */
+  readonly disabled = input(false);
+  /**
+   * Everything typed, for every method, with the method and units it was typed in; set it to restore a
+   * job (its method and units then win over the inputs of the same names), read it to keep one.
+   */
+  readonly draft = model<WeightCalculatorDraft | null>(null);
+
+  /** Emits each finished calculation: the method, the request, the answer and the placed corrections. */
+  readonly calculated = output<WeightCalculation>();
+
+  private readonly _engine = inject(BALANCE_ENGINE);
+  private readonly _localEngine = inject(LOCAL_BALANCE_ENGINE);
+  private readonly _host: ElementRef<HTMLElement> = inject(ElementRef);
+  private readonly _injector = inject(Injector);
+  private _running: Subscription | null = null;
+
+  protected readonly _id = `cp-weight-calculator-${nextId++}`;
+  protected readonly _form: CalculatorForm = createCalculatorForm();
+  protected readonly _info = METHOD_INFO;
+  protected readonly _massUnits = MASS_UNITS;
+  protected readonly _amplitudeUnits = AMPLITUDE_UNITS;
+
+  /** The form's value, as a signal for the computed state below. */
+  private readonly _typed = signal<WeightCalculatorDraft>(draftOf(this._form));
+  protected readonly _method = computed(() => this._typed().method);
+  protected readonly _massUnit = computed(() => this._typed().massUnit);
+  protected readonly _amplitudeUnit = computed(() => this._typed().amplitudeUnit);
+  protected readonly _massStep = computed(() => massStep(this._massUnit()));
+  protected readonly _amplitudeStep = computed(() => amplitudeStep(this._amplitudeUnit()));
+  protected readonly _sensitivityUnit = computed(() =>
+    sensitivityUnit(this._massUnit(), this._amplitudeUnit()),
+  );
+
+  protected readonly _methods = computed(() => {
+    const offered = CALC_METHODS.filter((one) => this.methods().includes(one));
+    const ordered = this.methods().filter(
+      (one, index, all) => offered.includes(one) && all.indexOf(one) === index,
+    );
+    return ordered.length > 0 ? ordered : [...CALC_METHODS];
+  });
+
+  protected readonly _pending = signal(false);
+  /** What the live region says: the answer, or why there is none. */
+  protected readonly _announcement = signal('');
+  protected readonly _submitted = signal(false);
+  protected readonly _failure = signal<Failure | null>(null);
+  private readonly _answers = signal<Partial<Record<CalcMethod, Answer>>>({});
+
+  /** The last answer of the method shown. */
+  protected readonly _answer = computed(() => this._answers()[this._method()] ?? null);
+  protected readonly _view = computed(() => {
+    const answer = this._answer();
+    return answer === null ? null : describeResult(answer.calculation);
+  });
+  /** Whether the values changed since the answer shown was computed. */
+  protected readonly _stale = computed(() => {
+    const answer = this._answer();
+    return answer !== null && answer.typed !== this._typedKey(this._method(), this._typed());
+  });
+  protected readonly _canUseLocal = computed(() => {
+    const failure = this._failure();
+    return (
+      failure !== null &&
+      failure.engine === 'remote' &&
+      this._localEngine.kind === 'local' &&
+      canFallBackToLocal(failure.error)
+    );
+  });
+  /** What the end views draw, one per plane. */
+  protected readonly _overlays = computed(() => {
+    const view = this._view();
+    const answer = this._answer();
+    if (view === null || answer === null) return [];
+    const unit = answer.calculation.massUnit;
+    return view.corrections.map((correction, index) => {
+      const parts: OverlayWeight[] =
+        correction.split.length > 0
+          ? (answer.calculation.placements.find((one) => one.plane === correction.plane)?.weights ?? []).map(
+              (part, partIndex) => ({
+                mass: part.mass,
+                angleDeg: wholeDegrees(part.angleDeg),
+                unit,
+                label: `Part ${String.fromCharCode(65 + partIndex)}`,
+              }),
+            )
+          : [
+              {
+                mass: correction.mass,
+                angleDeg: wholeDegrees(correction.angleDeg),
+                unit,
+                label: 'Correction',
+              },
+            ];
+      const existing: OverlayWeight[] = view.weightsLeftOn
+        .filter((weight) => weight.plane === correction.plane)
+        .map((weight) => ({ mass: weight.mass, angleDeg: weight.angleDeg, unit, label: 'Trial weight' }));
+      return {
+        plane: correction.plane,
+        label:
+          view.corrections.length > 1
+            ? `Plane ${correction.plane}: where the correction weight goes, end view of the rotor`
+            : 'Where the correction weight goes, end view of the rotor',
+        heavySpotDeg: view.heavySpotsDeg[index] ?? null,
+        corrections: parts,
+        existing,
+      };
+    });
+  });
+
+  constructor() {
+    const destroyRef = inject(DestroyRef);
+    destroyRef.onDestroy(() => this._running?.unsubscribe());
+
+    this._form.valueChanges.pipe(takeUntilDestroyed()).subscribe(() => {
+      const typed = draftOf(this._form);
+      this._typed.set(typed);
+      this.method.set(typed.method);
+      this.massUnit.set(typed.massUnit);
+      this.amplitudeUnit.set(typed.amplitudeUnit);
+      this.draft.set(typed);
+    });
+
+    // A restored draft brings its own method and units: readings typed in mm/s stay in mm/s. Patching
+    // it updates the method and unit models through valueChanges before the effects below read them.
+    effect(() => {
+      const draft = this.draft();
+      untracked(() => {
+        if (draft !== null && JSON.stringify(draft) !== JSON.stringify(draftOf(this._form))) {
+          this._form.patchValue(draft);
+        }
+      });
+    });
+    effect(() => {
+      const offered = this._methods();
+      const asked = this.method();
+      const method = asked !== null && offered.includes(asked) ? asked : (offered[0] ?? 'single-plane');
+      untracked(() => this._setIfChanged(this._form.controls.method, method));
+    });
+    effect(() => {
+      const unit = this.massUnit();
+      untracked(() => this._setIfChanged(this._form.controls.massUnit, unit));
+    });
+    effect(() => {
+      const unit = this.amplitudeUnit();
+      untracked(() => this._setIfChanged(this._form.controls.amplitudeUnit, unit));
+    });
+    effect(() => {
+      const preset = this.sensitivity();
+      if (preset === null) return;
+      untracked(() =>
+        this._form.controls.oneRun.controls.sensitivity.patchValue({
+          massPerAmplitude: preset.massPerAmplitude,
+          offsetDeg: preset.offsetDeg ?? null,
+        }),
+      );
+    });
+    effect(() => {
+      const disabled = this.disabled();
+      untracked(() => {
+        if (disabled) this._form.disable({ emitEvent: false });
+        else this._form.enable({ emitEvent: false });
+      });
+    });
+  }
+
+  /** Computes the method shown with the configured engine, after checking every field. */
+  protected _submit(): void {
+    this._compute(this._engine);
+  }
+
+  /** Computes the method shown on the device, after the calculation service could not answer. */
+  protected _useLocalEngine(): void {
+    this._compute(this._localEngine);
+  }
+
+  /** The message of a field's first error, or null while it has none to show. */
+  protected _errorOf(control: AbstractControl, what: string): string | null {
+    if (!control.invalid || !(control.touched || this._submitted())) return null;
+    return fieldErrorMessage(control.errors, what);
+  }
+
+  private _compute(engine: BalanceEngine): void {
+    if (this.disabled()) return;
+    const method = this._method();
+    const group = methodGroup(this._form, method);
+    this._submitted.set(true);
+    if (group.invalid) {
+      group.markAllAsTouched();
+      this._failure.set(null);
+      this._focusFirstInvalid();
+      this._announcement.set('Some values are missing or cannot be used; check the marked fields.');
+      return;
+    }
+    const typed = draftOf(this._form);
+    const key = this._typedKey(method, typed);
+    const request = buildRequest(method, typed, this.counting());
+    const units = { massUnit: typed.massUnit, amplitudeUnit: typed.amplitudeUnit };
+
+    this._running?.unsubscribe();
+    this._pending.set(true);
+    this._failure.set(null);
+    this._running = (engine.calculate(METHOD_ROUTES[method], request as never) as Observable<unknown>)
+      .pipe(
+        map((result) => ({ method, request, result }) as MethodAnswer),
+        switchMap((answer) =>
+          this._place(answer, engine).pipe(
+            map(
+              (placements) => ({ ...answer, placements, engine: engine.kind, ...units }) as WeightCalculation,
+            ),
+          ),
+        ),
+      )
+      .subscribe({
+        next: (calculation) => {
+          this._pending.set(false);
+          this._answers.update((answers) => ({ ...answers, [method]: { calculation, typed: key } }));
+          this._announce(calculation);
+          this.calculated.emit(calculation);
+        },
+        error: (error: unknown) => {
+          this._pending.set(false);
+          this._fail(method, engine, request, error);
+        },
+      });
+  }
+
+  /** Splits each correction onto the places a weight can go; a split that fails becomes a warning. */
+  private _place(answer: MethodAnswer, engine: BalanceEngine): Observable<CorrectionPlacement[]> {
+    const plan = placementPlan(this.allowedPositions(), this.blockedSectors());
+    if (plan.kind === 'anywhere') return of([]);
+    const corrections = correctionsToInstall(answer).filter((weight) => weight.mass > 0);
+    if (corrections.length === 0) return of([]);
+    return forkJoin(
+      corrections.map((weight): Observable<CorrectionPlacement> => {
+        const unsplit = (warning: string): CorrectionPlacement => ({
+          plane: weight.plane,
+          weights: [],
+          massRatio: 1,
+          warnings: [warning],
+        });
+        if (plan.kind === 'nowhere') return of(unsplit(plan.reason));
+        const request: CalcRequest<'split'> = {
+          weight: { mass: weight.mass, angleDeg: weight.angleDeg },
+          ...plan.places,
+        };
+        return engine.calculate('split', request).pipe(
+          map((split) => ({ plane: weight.plane, ...split })),
+          catchError((error: unknown) =>
+            of(
+              unsplit(
+                `The split onto the allowed places could not be computed: ${
+                  error instanceof Error ? error.message : String(error)
+                }`,
+              ),
+            ),
+          ),
+        );
+      }),
+    );
+  }
+
+  private _fail(method: CalcMethod, engine: BalanceEngine, request: unknown, error: unknown): void {
+    const failure =
+      error instanceof BalanceEngineError
+        ? error
+        : new BalanceEngineError('server', 'The calculation failed. Try again, or compute on this device.', {
+            cause: error,
+          });
+    const unplaced: string[] = [];
+    if (failure.reason === 'invalid') {
+      const group = methodGroup(this._form, method);
+      for (const fieldError of failure.problem?.errors ?? []) {
+        const path = controlPathFor(method, fieldError.path, request as CalcRequest<'multi-plane'>);
+        const control = path === null ? null : group.get(path);
+        if (control === null || control instanceof FormGroup || control instanceof FormArray) {
+          unplaced.push(fieldError.message);
+          continue;
+        }
+        control.setErrors({ ...control.errors, engine: fieldError.message });
+        control.markAsTouched();
+      }
+      this._focusFirstInvalid();
+    } else {
+      this._revealResults();
+    }
+    this._failure.set({ error: failure, method, engine: engine.kind, unplaced });
+    this._announcement.set('');
+  }
+
+  private _announce(calculation: WeightCalculation): void {
+    const view = describeResult(calculation);
+    const weights = view.corrections.map((one) => `${one.title}: ${one.spoken}`).join('. ');
+    const warnings = view.warnings.length > 0 ? ` ${view.warnings.length} warnings.` : '';
+    this._announcement.set(`${weights}.${warnings}`);
+    this._revealResults();
+  }
+
+  /**
+   * On a phone the result panel sits under the form, out of sight: bring its top into view and leave
+   * the focus where it is. Beside the form it is already in sight, and nothing moves.
+   */
+  private _revealResults(): void {
+    afterNextRender(
+      () => {
+        const results = this._host.nativeElement.querySelector('.cp-weight-calculator__results');
+        const top = results?.getBoundingClientRect().top ?? 0;
+        if (results && top > window.innerHeight * 0.8) results.scrollIntoView?.({ block: 'start' });
+      },
+      { injector: this._injector },
+    );
+  }
+
+  /** Moves focus to the first field that needs the technician, once the form shows its errors. */
+  private _focusFirstInvalid(): void {
+    afterNextRender(
+      () => {
+        const field = this._host.nativeElement.querySelector<HTMLElement>(
+          '.cp-weight-calculator__form input.ng-invalid, .cp-weight-calculator__form cp-phase-dial.ng-invalid',
+        );
+        const target = field?.matches('input')
+          ? field
+          : field?.querySelector<HTMLElement>('input, [role="slider"]');
+        target?.focus();
+      },
+      { injector: this._injector },
+    );
+  }
+
+  /** What was typed for a method, as a key to tell whether an answer still matches it. */
+  private _typedKey(method: CalcMethod, typed: WeightCalculatorDraft): string {
+    return JSON.stringify([
+      typed[METHOD_GROUPS[method]],
+      typed.massUnit,
+      typed.amplitudeUnit,
+      this.counting(),
+    ]);
+  }
+
+  private _setIfChanged<T>(control: { value: T; setValue(value: T): void }, value: T): void {
+    if (control.value !== value) control.setValue(value);
+  }
+}

@@ -1,0 +1,123 @@
+import { ChangeDetectionStrategy, Component, inject, input, type OnInit, signal } from '@angular/core';
+import { HttpClient } from '@angular/common/http';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import { RouterLink } from '@angular/router';
+import { formErrorOf } from '../shell/server-errors';
+import { errorMessage, requiredWith } from '../shell/validators';
+import { AUTH_URLS } from './auth-session';
+
+/**
+ * Asking for a link to set a new password. The answer is the same whether or not the address belongs to
+ * an account, so that the page cannot be used to find out who has one.
+ */
+@Component({
+  selector: 'app-forgot-password-page',
+  imports: [
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressSpinnerModule,
+    ReactiveFormsModule,
+    RouterLink,
+  ],
+  template: `
+    <h1>Set a new password</h1>
+    @if (sentTo(); as address) {
+      <div class="notice" role="status">
+        <mat-icon aria-hidden="true">mark_email_read</mat-icon>
+        <p>
+          If an account uses <strong>{{ address }}</strong>, an e-mail with a link to set a new password is on
+          its way. The link works once; open it on this device or any other.
+        </p>
+      </div>
+      <div class="links">
+        <a routerLink="/sign-in">Back to sign in</a>
+        <a href="" (click)="$event.preventDefault(); sentTo.set(null)">Use another address</a>
+      </div>
+    } @else {
+      <p class="lead">
+        Enter the e-mail address you sign in with. We send a link to it that lets you choose a new password.
+      </p>
+      <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
+        @if (formError(); as message) {
+          <div class="form-error" role="alert">
+            <mat-icon aria-hidden="true">error</mat-icon>
+            <p>{{ message }}</p>
+          </div>
+        }
+        <mat-form-field appearance="outline" subscriptSizing="dynamic">
+          <mat-label>E-mail address</mat-label>
+          <input
+            matInput
+            type="email"
+            formControlName="email"
+            autocomplete="username"
+            inputmode="email"
+            autocapitalize="off"
+            spellcheck="false"
+          />
+          <mat-error>{{ errorMessage(form.controls.email) }}</mat-error>
+        </mat-form-field>
+        <button matButton="filled" class="submit" type="submit" [disabled]="busy()">
+          @if (busy()) {
+            <mat-spinner diameter="20" aria-hidden="true" />
+            Sending…
+          } @else {
+            Send the link
+          }
+        </button>
+      </form>
+      <div class="links">
+        <a routerLink="/sign-in">Back to sign in</a>
+      </div>
+    }
+  `,
+  styleUrl: './auth-card.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ForgotPasswordPage implements OnInit {
+  /** The address typed on the sign-in page, if any. */
+  readonly email = input<string>();
+
+  private readonly http = inject(HttpClient);
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    // Only presence is checked here: the schemas would bring zod to the first page of the day, and the
+    // server answers a malformed address with the contract's own message, shown on the field.
+    email: ['', requiredWith('Enter your e-mail address.')],
+  });
+  protected readonly busy = signal(false);
+  protected readonly formError = signal<string | null>(null);
+  /** The address the link went to, once the server has taken the request. */
+  protected readonly sentTo = signal<string | null>(null);
+  protected readonly errorMessage = errorMessage;
+
+  ngOnInit(): void {
+    const email = this.email();
+    if (email) this.form.controls.email.setValue(email);
+  }
+
+  protected submit(): void {
+    if (this.busy()) return;
+    this.form.markAllAsTouched();
+    if (this.form.invalid) return;
+    this.busy.set(true);
+    this.formError.set(null);
+    const email = this.form.controls.email.value.trim();
+    this.http.post(AUTH_URLS.passwordReset, { email }).subscribe({
+      next: () => {
+        this.sentTo.set(email);
+        this.busy.set(false);
+      },
+      error: (error: unknown) => {
+        this.formError.set(formErrorOf(this.form, error));
+        this.busy.set(false);
+      },
+    });
+  }
+}

@@ -1,0 +1,132 @@
+import { HttpClient } from '@angular/common/http';
+import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import { RouterLink } from '@angular/router';
+import { PasswordSchema } from '@counterpoise/api';
+import { formErrorOf, problemOf } from '../shell/server-errors';
+import { errorMessage, requiredWith, schemaValidator } from '../shell/validators';
+import { AUTH_URLS } from './auth-session';
+import { PASSWORD_RULE } from './password-rule';
+import { PasswordToggle } from './password-toggle';
+
+/** Choosing a new password from the link of a reset e-mail (`/reset-password?token=…`). */
+@Component({
+  selector: 'app-reset-password-page',
+  imports: [
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressSpinnerModule,
+    PasswordToggle,
+    ReactiveFormsModule,
+    RouterLink,
+  ],
+  template: `
+    <h1>Choose a new password</h1>
+    @if (!token()) {
+      <div class="form-error" role="alert">
+        <mat-icon aria-hidden="true">link_off</mat-icon>
+        <p>This link is incomplete. Open the whole link from the e-mail, or ask for a new one.</p>
+      </div>
+      <div class="links">
+        <a routerLink="/forgot-password">Ask for a new link</a>
+        <a routerLink="/sign-in">Back to sign in</a>
+      </div>
+    } @else if (done()) {
+      <div class="notice" role="status">
+        <mat-icon aria-hidden="true">check_circle</mat-icon>
+        <p>
+          Your password is changed. Sign in with it now; other devices signed in as you have to sign in again.
+        </p>
+      </div>
+      <a matButton="filled" class="submit" routerLink="/sign-in">Sign in</a>
+    } @else {
+      <p class="lead">Your new password replaces the old one everywhere you sign in.</p>
+      <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
+        @if (formError(); as message) {
+          <div class="form-error" role="alert">
+            <mat-icon aria-hidden="true">error</mat-icon>
+            <p>
+              {{ message }}
+              @if (linkSpent()) {
+                <a routerLink="/forgot-password">Ask for a new link</a>.
+              }
+            </p>
+          </div>
+        }
+        <mat-form-field appearance="outline" subscriptSizing="dynamic">
+          <mat-label>New password</mat-label>
+          <input
+            #passwordInput
+            matInput
+            type="password"
+            formControlName="password"
+            autocomplete="new-password"
+            autocapitalize="off"
+            spellcheck="false"
+          />
+          <app-password-toggle matSuffix [input]="passwordInput" />
+          <mat-hint>{{ passwordRule }}</mat-hint>
+          <mat-error>{{ errorMessage(form.controls.password) }}</mat-error>
+        </mat-form-field>
+        <button matButton="filled" class="submit" type="submit" [disabled]="busy()">
+          @if (busy()) {
+            <mat-spinner diameter="20" aria-hidden="true" />
+            Saving…
+          } @else {
+            Save the new password
+          }
+        </button>
+      </form>
+    }
+  `,
+  styleUrl: './auth-card.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ResetPasswordPage {
+  /** The one-time token of the e-mail's link. */
+  readonly token = input<string>();
+
+  private readonly http = inject(HttpClient);
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    password: ['', [requiredWith('Enter a new password.'), schemaValidator(PasswordSchema)]],
+  });
+  protected readonly busy = signal(false);
+  protected readonly done = signal(false);
+  protected readonly formError = signal<string | null>(null);
+  /** Whether the server refused the link itself (used, expired or unknown), not the password. */
+  protected readonly linkSpent = signal(false);
+  protected readonly passwordRule = PASSWORD_RULE;
+  protected readonly errorMessage = errorMessage;
+
+  protected submit(): void {
+    const token = this.token();
+    if (this.busy() || !token) return;
+    this.form.markAllAsTouched();
+    if (this.form.invalid) return;
+    this.busy.set(true);
+    this.formError.set(null);
+    this.linkSpent.set(false);
+    const password = this.form.controls.password.value;
+    this.http.post(AUTH_URLS.passwordResetConfirm, { token, password }).subscribe({
+      next: () => {
+        this.done.set(true);
+        this.busy.set(false);
+      },
+      error: (error: unknown) => {
+        const fields = problemOf(error)?.errors ?? [];
+        const aboutPassword = fields.some((field) => field.path.replace(/^\//, '') === 'password');
+        const status = problemOf(error)?.status ?? 0;
+        this.linkSpent.set(!aboutPassword && status >= 400 && status < 500 && status !== 429);
+        this.formError.set(formErrorOf(this.form, error));
+        this.busy.set(false);
+      },
+    });
+  }
+}

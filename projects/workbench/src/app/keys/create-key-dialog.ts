@@ -1,0 +1,119 @@
+import { Clipboard } from '@angular/cdk/clipboard';
+import { HttpClient } from '@angular/common/http';
+import {
+  afterNextRender,
+  ChangeDetectionStrategy,
+  Component,
+  ElementRef,
+  Injector,
+  inject,
+  signal,
+  viewChild,
+} from '@angular/core';
+import {
+  type AbstractControl,
+  NonNullableFormBuilder,
+  ReactiveFormsModule,
+  type ValidationErrors,
+} from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import {
+  type ApiKeySummary,
+  ApiKeyNameSchema,
+  type CreateApiKey,
+  LimitPerMinuteSchema,
+  MAX_LIMIT_PER_MINUTE,
+} from '@counterpoise/api';
+import type { CreatedApiKey } from '../auth/api-types';
+import { formErrorOf } from '../shell/server-errors';
+import { errorMessage, requiredWith, schemaError, schemaValidator } from '../shell/validators';
+
+/**
+ * Creating an API key, then showing it the one time the server ever answers it, with a copy button. Once
+ * the key is on screen the dialog no longer closes on Escape or a tap beside it: only the button that says
+ * the key is kept closes it, so that a stray tap cannot lose it.
+ */
+@Component({
+  selector: 'app-create-key-dialog',
+  imports: [
+    MatButtonModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressSpinnerModule,
+    ReactiveFormsModule,
+  ],
+  templateUrl: './create-key-dialog.html',
+  styleUrl: './create-key-dialog.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class CreateKeyDialog {
+  private readonly dialogRef = inject<MatDialogRef<CreateKeyDialog, ApiKeySummary>>(MatDialogRef);
+  private readonly http = inject(HttpClient);
+  private readonly clipboard = inject(Clipboard);
+  private readonly injector = inject(Injector);
+  private readonly copyButton = viewChild('copyButton', { read: ElementRef<HTMLButtonElement> });
+
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    name: [
+      '',
+      [requiredWith('Give the key a name that says who or what uses it.'), schemaValidator(ApiKeyNameSchema)],
+    ],
+    // Empty means the server's default limit; the field holds text so that a half-typed number is kept.
+    limitPerMinute: ['', validLimit],
+  });
+  protected readonly busy = signal(false);
+  protected readonly formError = signal<string | null>(null);
+  /** The new key, present from the server's answer until the dialog closes. */
+  protected readonly created = signal<CreatedApiKey | null>(null);
+  protected readonly copied = signal<'yes' | 'failed' | null>(null);
+  protected readonly maxLimit = MAX_LIMIT_PER_MINUTE;
+  protected readonly errorMessage = errorMessage;
+
+  protected submit(): void {
+    if (this.busy()) return;
+    this.form.markAllAsTouched();
+    if (this.form.invalid) return;
+    this.busy.set(true);
+    this.formError.set(null);
+    const { name, limitPerMinute } = this.form.getRawValue();
+    const limit = limitPerMinute.trim();
+    const request: CreateApiKey = { name: name.trim(), ...(limit ? { limitPerMinute: Number(limit) } : {}) };
+    this.http.post<CreatedApiKey>('/api/v1/keys', request).subscribe({
+      next: (created) => {
+        this.dialogRef.disableClose = true;
+        this.created.set(created);
+        this.busy.set(false);
+        // The focused submit button has just gone with the form; the copy button is the next step.
+        afterNextRender(() => this.copyButton()?.nativeElement.focus(), { injector: this.injector });
+      },
+      error: (error: unknown) => {
+        this.formError.set(formErrorOf(this.form, error));
+        this.busy.set(false);
+      },
+    });
+  }
+
+  protected copy(key: string): void {
+    this.copied.set(this.clipboard.copy(key) ? 'yes' : 'failed');
+  }
+
+  protected close(): void {
+    this.dialogRef.close(this.created()?.summary);
+  }
+}
+
+/** The typed limit, checked as the number it stands for with the contract's rule; empty is allowed. */
+function validLimit(control: AbstractControl<string>): ValidationErrors | null {
+  const typed = control.value.trim();
+  if (typed === '') return null;
+  if (!/^\d+$/.test(typed))
+    return { number: 'Enter a whole number of requests per minute, or leave it empty.' };
+  return schemaError(LimitPerMinuteSchema, Number(typed));
+}

@@ -1,0 +1,268 @@
+import { BreakpointObserver, type BreakpointState } from '@angular/cdk/layout';
+import { Clipboard } from '@angular/cdk/clipboard';
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { type ComponentFixture, TestBed } from '@angular/core/testing';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import { MatDialogHarness } from '@angular/material/dialog/testing';
+import { MatFormFieldHarness } from '@angular/material/form-field/testing';
+import { MatInputHarness } from '@angular/material/input/testing';
+import { MatTableHarness } from '@angular/material/table/testing';
+import type { ApiKeySummary } from '@counterpoise/api';
+import { BehaviorSubject, map } from 'rxjs';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import type { ApiKeyList, CreatedApiKey } from '../auth/api-types';
+import { AuthSession } from '../auth/auth-session';
+import { aSession } from '../auth/testing';
+import { KeysPage } from './keys-page';
+
+const PORTAL: ApiKeySummary = {
+  id: 1,
+  name: 'Dealer portal',
+  prefix: 'cpk_Q2xvY2s5',
+  limitPerMinute: 600,
+  createdAt: '2026-05-04T08:00:00.000Z',
+  lastUsedAt: '2026-05-04T09:12:30.250Z',
+  revokedAt: null,
+};
+const LOGGER: ApiKeySummary = {
+  id: 2,
+  name: 'Test bench logger',
+  prefix: 'cpk_bG9nZ2Vy',
+  limitPerMinute: 60,
+  createdAt: '2026-05-06T10:30:00.000Z',
+  lastUsedAt: null,
+  revokedAt: null,
+};
+const OLD: ApiKeySummary = {
+  id: 3,
+  name: 'Old spreadsheet',
+  prefix: 'cpk_b2xkc2hl',
+  limitPerMinute: 60,
+  createdAt: '2026-01-10T10:30:00.000Z',
+  lastUsedAt: '2026-02-01T10:30:00.000Z',
+  revokedAt: '2026-02-02T10:30:00.000Z',
+};
+const LIST: ApiKeyList = { keys: [OLD, PORTAL, LOGGER] };
+const WHOLE_KEY = 'cpk_bmV3LWtleS1mb3ItdGhlLWZpZWxkLXRhYmxldC0wMDE';
+
+// Dialogs and their harnesses take jsdom seconds; the default of five per test is too tight.
+describe('KeysPage', { timeout: 20_000 }, () => {
+  let http: HttpTestingController;
+  const wide = new BehaviorSubject(true);
+  const copied: string[] = [];
+  let clipboardWorks = true;
+
+  beforeEach(() => {
+    wide.next(true);
+    copied.length = 0;
+    clipboardWorks = true;
+    TestBed.configureTestingModule({
+      providers: [
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+        {
+          provide: BreakpointObserver,
+          useValue: {
+            observe: () => wide.pipe(map((matches): BreakpointState => ({ matches, breakpoints: {} }))),
+          },
+        },
+        {
+          provide: Clipboard,
+          useValue: { copy: (text: string) => clipboardWorks && copied.push(text) > 0 },
+        },
+      ],
+    });
+    http = TestBed.inject(HttpTestingController);
+    TestBed.inject(AuthSession).start(aSession('developer'));
+  });
+
+  afterEach(() => http.verify());
+
+  async function render(list: ApiKeyList = LIST) {
+    const fixture = TestBed.createComponent(KeysPage);
+    fixture.detectChanges();
+    http.expectOne('/api/v1/keys').flush(list);
+    await fixture.whenStable();
+    return {
+      fixture,
+      element: fixture.nativeElement as HTMLElement,
+      loader: TestbedHarnessEnvironment.loader(fixture),
+      overlays: TestbedHarnessEnvironment.documentRootLoader(fixture),
+    };
+  }
+
+  /** Lets the page act on a closed dialog and send the request of a reloaded resource. */
+  async function settle(fixture: ComponentFixture<KeysPage>) {
+    await new Promise((resolve) => setTimeout(resolve));
+    fixture.detectChanges();
+  }
+
+  function buttonByText(text: string): HTMLButtonElement | undefined {
+    return [...document.querySelectorAll<HTMLButtonElement>('.cdk-overlay-container button')].find(
+      (button) => button.textContent?.trim() === text,
+    );
+  }
+
+  async function createKey(
+    overlays: ReturnType<typeof TestbedHarnessEnvironment.documentRootLoader>,
+    name: string,
+    limit = '',
+  ) {
+    const dialog = await overlays.getHarness(MatDialogHarness);
+    await (
+      await dialog.getHarness(MatInputHarness.with({ selector: '[formControlName=name]' }))
+    ).setValue(name);
+    await (
+      await dialog.getHarness(MatInputHarness.with({ selector: '[formControlName=limitPerMinute]' }))
+    ).setValue(limit);
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Create the key' }))).click();
+    return dialog;
+  }
+
+  it('lists the keys in use, newest first, then the revoked ones, with all their details', async () => {
+    const { loader } = await render();
+    const table = await loader.getHarness(MatTableHarness);
+    const cells = await table.getCellTextByColumnName();
+    expect(cells['name']?.text).toEqual(['Test bench logger', 'Dealer portal', 'Old spreadsheet']);
+    expect(cells['prefix']?.text).toEqual(['cpk_bG9nZ2Vy…', 'cpk_Q2xvY2s5…', 'cpk_b2xkc2hl…']);
+    expect(cells['lastUsedAt']?.text[0]).toBe('Never');
+    expect(cells['limitPerMinute']?.text).toEqual(['60/min', '600/min', '60/min']);
+    expect(cells['actions']?.text).toEqual(['Revoke', 'Revoke', 'Revoked 2 Feb 2026']);
+  });
+
+  it('stacks the details of each key on a phone', async () => {
+    wide.next(false);
+    const { loader } = await render({ keys: [PORTAL] });
+    const cells = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
+    expect(cells['summary']?.text[0]).toContain('Dealer portal');
+    expect(cells['summary']?.text[0]).toContain('600 requests a minute');
+  });
+
+  it('says when there are no keys yet', async () => {
+    const { element } = await render({ keys: [] });
+    expect(element.textContent).toContain('No keys yet.');
+  });
+
+  it('creates a key and shows it once, with a copy button, until the person says it is kept', async () => {
+    const { loader, overlays, fixture } = await render();
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Create a key/ }))).click();
+    const dialog = await createKey(overlays, 'Field tablet', '120');
+
+    const request = http.expectOne('/api/v1/keys');
+    expect(request.request.method).toBe('POST');
+    expect(request.request.body).toEqual({ name: 'Field tablet', limitPerMinute: 120 });
+    const created: CreatedApiKey = {
+      key: WHOLE_KEY,
+      summary: {
+        ...LOGGER,
+        id: 4,
+        name: 'Field tablet',
+        limitPerMinute: 120,
+        prefix: WHOLE_KEY.slice(0, 12),
+      },
+    };
+    request.flush(created, { status: 201, statusText: 'Created' });
+    await fixture.whenStable();
+
+    expect(await dialog.getTitleText()).toBe('Your new key');
+    expect(await (await dialog.getHarness(MatInputHarness)).getValue()).toBe(WHOLE_KEY);
+    await (await dialog.getHarness(MatButtonHarness.with({ text: /Copy the key/ }))).click();
+    expect(copied).toEqual([WHOLE_KEY]);
+    expect(await dialog.getText()).toContain('Copied.');
+
+    // Escape does not close it: the key would be lost.
+    await (await dialog.host()).dispatchEvent('keydown', { key: 'Escape', keyCode: 27 });
+    await settle(fixture);
+    expect(await overlays.getAllHarnesses(MatDialogHarness)).toHaveLength(1);
+
+    // Clicked without a harness: a harness would wait for the page to settle, which the reload of the list
+    // it sets off prevents until the test answers it.
+    buttonByText('I have kept the key')?.click();
+    await settle(fixture);
+    http.expectOne('/api/v1/keys').flush(LIST);
+    expect(await overlays.getAllHarnesses(MatDialogHarness)).toHaveLength(0);
+  });
+
+  it('says how to copy the key by hand when the clipboard refuses', async () => {
+    clipboardWorks = false;
+    const { loader, overlays, fixture } = await render();
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Create a key/ }))).click();
+    const dialog = await createKey(overlays, 'Field tablet');
+    const request = http.expectOne('/api/v1/keys');
+    // An empty limit leaves the server's default.
+    expect(request.request.body).toEqual({ name: 'Field tablet' });
+    request.flush({ key: WHOLE_KEY, summary: LOGGER }, { status: 201, statusText: 'Created' });
+    await fixture.whenStable();
+    await (await dialog.getHarness(MatButtonHarness.with({ text: /Copy the key/ }))).click();
+    expect(await dialog.getText()).toContain('select it above and copy it by hand');
+  });
+
+  it('checks the name and the limit before asking the server, and shows the server’s messages too', async () => {
+    const { loader, overlays, fixture } = await render();
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Create a key/ }))).click();
+    let dialog = await createKey(overlays, ' ', '0');
+    let [name, limit] = await dialog.getAllHarnesses(MatFormFieldHarness);
+    expect(await name?.getTextErrors()).toEqual(['Give the key a name that says who or what uses it.']);
+    expect(await limit?.getTextErrors()).toEqual(['The limit is at least 1 request per minute.']);
+    http.expectNone('/api/v1/keys');
+
+    dialog = await createKey(overlays, 'Dealer portal', '60');
+    http.expectOne('/api/v1/keys').flush(
+      {
+        type: 'about:blank',
+        title: 'Conflict',
+        status: 409,
+        errors: [{ path: 'name', message: 'A key in use already has this name.' }],
+      },
+      { status: 409, statusText: 'Conflict' },
+    );
+    await fixture.whenStable();
+    [name, limit] = await dialog.getAllHarnesses(MatFormFieldHarness);
+    expect(await name?.getTextErrors()).toEqual(['A key in use already has this name.']);
+    expect(await limit?.getTextErrors()).toEqual([]);
+  });
+
+  it('revokes a key only after a confirmation', async () => {
+    const { loader, overlays, fixture } = await render();
+    const revoke = await loader.getHarness(
+      MatButtonHarness.with({ selector: '[aria-label="Revoke the key Dealer portal"]' }),
+    );
+    await revoke.click();
+    let dialog = await overlays.getHarness(MatDialogHarness);
+    expect(await dialog.getTitleText()).toBe('Revoke the key “Dealer portal”?');
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Cancel' }))).click();
+    await settle(fixture);
+    http.expectNone('/api/v1/keys/1');
+
+    await revoke.click();
+    dialog = await overlays.getHarness(MatDialogHarness);
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Revoke the key' }))).click();
+    await settle(fixture);
+    const request = http.expectOne('/api/v1/keys/1');
+    expect(request.request.method).toBe('DELETE');
+    request.flush(null, { status: 204, statusText: 'No Content' });
+    await settle(fixture);
+    http.expectOne('/api/v1/keys').flush({ keys: [{ ...PORTAL, revokedAt: '2026-05-07T08:00:00.000Z' }] });
+    // The revoke button went with the key; the focus waits on the way to create another.
+    expect(document.activeElement?.textContent).toContain('Create a key');
+  });
+
+  it('says when the keys cannot be fetched', async () => {
+    const fixture = TestBed.createComponent(KeysPage);
+    fixture.detectChanges();
+    http
+      .expectOne('/api/v1/keys')
+      .flush(
+        { type: 'about:blank', title: 'Forbidden', status: 403 },
+        { status: 403, statusText: 'Forbidden' },
+      );
+    await fixture.whenStable();
+    expect((fixture.nativeElement as HTMLElement).querySelector('[role=alert]')?.textContent).toContain(
+      'Your role does not allow this.',
+    );
+  });
+});

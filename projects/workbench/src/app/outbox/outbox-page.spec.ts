@@ -1,0 +1,151 @@
+import { BreakpointObserver, type BreakpointState } from '@angular/cdk/layout';
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import { provideRouter, Router, withComponentInputBinding } from '@angular/router';
+import { RouterTestingHarness } from '@angular/router/testing';
+import { BehaviorSubject, map } from 'rxjs';
+import { RouteStandIn } from '../auth/testing';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import type { Outbox } from '../auth/api-types';
+import { OutboxPage } from './outbox-page';
+
+const ORIGIN = window.location.origin;
+const OUTBOX: Outbox = {
+  messages: [
+    {
+      id: 1,
+      from: 'Counterpoise <no-reply@example.com>',
+      to: ['kaito@example.com'],
+      subject: 'You are invited to Alder Ridge Rotor Service',
+      text: 'Marit Okafor invites you to join.\n\nAccept: https://shop.example.com/accept-invitation?token=inv-1\n',
+      html: '<p>Marit Okafor invites you to join.</p>',
+      receivedAt: '2026-05-04T08:00:00.000Z',
+    },
+    {
+      id: 2,
+      from: 'Counterpoise <no-reply@example.com>',
+      to: ['suvi@example.com', 'records@example.com'],
+      subject: 'Set a new password',
+      text: `Choose a new password here: ${ORIGIN}/reset-password?token=rst-2\nThe link works once.`,
+      html: null,
+      receivedAt: '2026-05-05T09:30:00.000Z',
+    },
+  ],
+};
+
+describe('OutboxPage', () => {
+  let http: HttpTestingController;
+  const twoPanes = new BehaviorSubject(true);
+
+  beforeEach(() => {
+    twoPanes.next(true);
+    TestBed.configureTestingModule({
+      providers: [
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        provideRouter(
+          [
+            { path: 'outbox', component: OutboxPage },
+            { path: 'reset-password', component: RouteStandIn, data: { heading: 'Reset' } },
+          ],
+          withComponentInputBinding(),
+        ),
+        {
+          provide: BreakpointObserver,
+          useValue: {
+            observe: () => twoPanes.pipe(map((matches): BreakpointState => ({ matches, breakpoints: {} }))),
+          },
+        },
+      ],
+    });
+    http = TestBed.inject(HttpTestingController);
+  });
+
+  afterEach(() => http.verify());
+
+  async function open(url = '/outbox') {
+    const harness = await RouterTestingHarness.create();
+    const navigation = harness.navigateByUrl(url);
+    await navigation;
+    http.expectOne('/api/v1/outbox').flush(OUTBOX);
+    await harness.fixture.whenStable();
+    return { harness, element: () => harness.routeNativeElement as HTMLElement };
+  }
+
+  it('lists the messages newest first, with their recipients', async () => {
+    const { element } = await open();
+    const items = [...element().querySelectorAll('.item')];
+    expect(items.map((item) => item.querySelector('.item__subject')?.textContent?.trim())).toEqual([
+      'Set a new password',
+      'You are invited to Alder Ridge Rotor Service',
+    ]);
+    expect(items[0]?.textContent).toContain('To suvi@example.com, records@example.com');
+    expect(element().querySelector('.placeholder')?.textContent).toContain('Choose a message to read it.');
+  });
+
+  it('opens a message from the list and shows its text with working links', async () => {
+    const { harness, element } = await open();
+    element().querySelectorAll<HTMLAnchorElement>('.item')[1]?.click();
+    await harness.fixture.whenStable();
+    expect(TestBed.inject(Router).url).toBe('/outbox?message=1');
+
+    const message = element().querySelector('article');
+    expect(message?.querySelector('h2')?.textContent).toBe('You are invited to Alder Ridge Rotor Service');
+    expect(message?.querySelector('.body')?.textContent).toBe(OUTBOX.messages[0]?.text);
+    const link = message?.querySelector<HTMLAnchorElement>('.body a');
+    expect(link?.getAttribute('href')).toBe('https://shop.example.com/accept-invitation?token=inv-1');
+    expect(link?.target).toBe('_blank');
+    expect(link?.rel).toBe('noopener noreferrer');
+    expect(message?.textContent).toContain('the plain text is shown');
+    expect(element().querySelector('[aria-current=true]')?.textContent).toContain('You are invited');
+  });
+
+  it('follows a link to this app inside the page', async () => {
+    const { harness, element } = await open('/outbox?message=2');
+    const link = element().querySelector<HTMLAnchorElement>('.body a');
+    expect(link?.target).toBe('');
+    link?.click();
+    await harness.fixture.whenStable();
+    expect(TestBed.inject(Router).url).toBe('/reset-password?token=rst-2');
+  });
+
+  it('shows the list or the open message on a phone, with the way back', async () => {
+    twoPanes.next(false);
+    const { element } = await open('/outbox?message=2');
+    expect(element().querySelector('nav')).toBeNull();
+    expect(element().querySelector('a.back')?.getAttribute('href')).toBe('/outbox');
+  });
+
+  it('moves the focus to the message opened on a phone, and back to its entry afterwards', async () => {
+    twoPanes.next(false);
+    const { harness, element } = await open();
+    element().querySelectorAll<HTMLAnchorElement>('.item')[1]?.click();
+    await harness.fixture.whenStable();
+    expect(document.activeElement?.id).toBe('message-subject');
+
+    element().querySelector<HTMLAnchorElement>('a.back')?.click();
+    await harness.fixture.whenStable();
+    expect(document.activeElement?.id).toBe('message-1');
+  });
+
+  it('says when nothing has been sent yet', async () => {
+    const harness = await RouterTestingHarness.create('/outbox');
+    http.expectOne('/api/v1/outbox').flush({ messages: [] });
+    await harness.fixture.whenStable();
+    expect(harness.routeNativeElement?.textContent).toContain('No e-mail has been sent yet.');
+  });
+
+  it('says when the outbox cannot be fetched, and tries again on request', async () => {
+    const harness = await RouterTestingHarness.create('/outbox');
+    http.expectOne('/api/v1/outbox').error(new ProgressEvent('error'));
+    await harness.fixture.whenStable();
+    const element = harness.routeNativeElement as HTMLElement;
+    expect(element.querySelector('[role=alert]')?.textContent).toContain('The server cannot be reached');
+    [...element.querySelectorAll('button')]
+      .find((button) => button.textContent?.includes('Try again'))
+      ?.click();
+    harness.fixture.detectChanges();
+    http.expectOne('/api/v1/outbox').flush(OUTBOX);
+  });
+});

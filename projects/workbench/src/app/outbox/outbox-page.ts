@@ -1,0 +1,100 @@
+import { BreakpointObserver } from '@angular/cdk/layout';
+import { DatePipe, DOCUMENT } from '@angular/common';
+import { httpResource } from '@angular/common/http';
+import {
+  afterNextRender,
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  Injector,
+  inject,
+  input,
+  untracked,
+} from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import { Router, RouterLink } from '@angular/router';
+import { map } from 'rxjs';
+import type { Outbox } from '../auth/api-types';
+import { httpErrorMessage } from '../shell/server-errors';
+import { linkify, pathInApp } from './message-text';
+
+/** From this width the list and the open message sit side by side. */
+const TWO_PANES = '(min-width: 960px)';
+
+/**
+ * The e-mail the server has sent (invitations, password links), as its local mail catcher kept it, so
+ * that an owner can follow a link without a real mailbox. The open message is in the address
+ * (`/outbox?message=12`), so that the browser's Back returns to the list on a phone.
+ */
+@Component({
+  selector: 'app-outbox-page',
+  imports: [DatePipe, MatButtonModule, MatIconModule, MatProgressSpinnerModule, RouterLink],
+  templateUrl: './outbox-page.html',
+  styleUrl: './outbox-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class OutboxPage {
+  /** The id of the open message, from the address. */
+  readonly message = input<string>();
+
+  private readonly router = inject(Router);
+  private readonly document = inject(DOCUMENT);
+  private readonly origin = this.document.location.origin;
+  private readonly injector = inject(Injector);
+  private lastOpen: number | null = null;
+
+  protected readonly outbox = httpResource<Outbox>(() => '/api/v1/outbox');
+  /** Newest first: the message just sent is the one being looked for. */
+  protected readonly messages = computed(() =>
+    // value() throws while the resource is in error, hence hasValue() first.
+    [...(this.outbox.hasValue() ? this.outbox.value().messages : [])].sort(
+      (a, b) => Date.parse(b.receivedAt) - Date.parse(a.receivedAt),
+    ),
+  );
+  protected readonly open = computed(() => {
+    const id = Number(this.message());
+    return this.messages().find((message) => message.id === id) ?? null;
+  });
+  protected readonly openParts = computed(() => linkify(this.open()?.text ?? ''));
+  protected readonly twoPanes = toSignal(
+    inject(BreakpointObserver)
+      .observe(TWO_PANES)
+      .pipe(map((state) => state.matches)),
+    { initialValue: true },
+  );
+  protected readonly httpErrorMessage = httpErrorMessage;
+
+  constructor() {
+    // On a phone the list and the message replace each other, and the focused link goes with the list:
+    // focus moves to the message opened, and back to its entry in the list afterwards.
+    effect(() => {
+      const opened = this.open()?.id ?? null;
+      const left = this.lastOpen;
+      this.lastOpen = opened;
+      if (untracked(this.twoPanes) || opened === left) return;
+      afterNextRender(
+        () => {
+          const target = opened !== null ? 'message-subject' : `message-${left}`;
+          this.document.getElementById(target)?.focus();
+        },
+        { injector: this.injector },
+      );
+    });
+  }
+
+  /** Links to this app stay in the page; others open beside it. */
+  protected follow(event: MouseEvent, href: string): void {
+    const path = pathInApp(href, this.origin);
+    if (path === null || event.ctrlKey || event.metaKey || event.shiftKey || event.button !== 0) return;
+    event.preventDefault();
+    void this.router.navigateByUrl(path);
+  }
+
+  protected isInApp(href: string): boolean {
+    return pathInApp(href, this.origin) !== null;
+  }
+}

@@ -1,0 +1,67 @@
+import { existsSync, mkdirSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { type Browser, launchChromium } from './support/chromium';
+import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
+
+/* The Widgets page: the four widgets of @counterpoise/ng as the production build serves them. */
+
+const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
+
+let server: TestServer;
+let browser: Browser;
+let page: Page;
+
+beforeAll(async () => {
+  if (!existsSync(join(WORKBENCH_DIR, 'index.html'))) {
+    throw new Error(`The workbench is not built in ${WORKBENCH_DIR}: run \`npm run build\` first.`);
+  }
+  mkdirSync(SCREENS_DIR, { recursive: true });
+  server = await startServer();
+  browser = await launchChromium();
+  page = browser.context.pages()[0] ?? (await browser.context.newPage());
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+describe('the Widgets page', () => {
+  it('shows the four widgets, each with its accessible name', async () => {
+    await page.setViewportSize({ width: 1024, height: 768 });
+    await page.goto(`${server.url}/widgets`);
+    for (const title of ['Phase dial', 'Correction overlay', 'Polar plot', 'Weight calculator']) {
+      await page.getByRole('heading', { level: 2, name: title }).first().waitFor();
+    }
+    await page.getByRole('slider', { name: 'Phase of the drive-end reading' }).waitFor();
+    expect(await page.locator('cp-correction-overlay svg').count()).toBeGreaterThan(0);
+    expect(await page.locator('cp-polar-plot table').count()).toBe(1);
+    await page.screenshot({ path: join(SCREENS_DIR, 'widgets-tablet.png') });
+  });
+
+  it('sets the phase from the keyboard alone', async () => {
+    const dial = page.getByRole('slider', { name: 'Phase of the drive-end reading' });
+    await dial.focus();
+    const before = await dial.getAttribute('aria-valuenow');
+    await page.keyboard.press('ArrowRight');
+    await page.keyboard.press('PageUp');
+    const expected = String((Number(before) + 11) % 360);
+    await expect.poll(() => dial.getAttribute('aria-valuenow')).toBe(expected);
+    const after = expected;
+    expect(await dial.getAttribute('aria-valuetext')).toMatch(/degrees, counted against rotation/);
+    await page.getByText(`Phase: ${after}°`).waitFor();
+  });
+
+  it('fits a phone without sideways scrolling', async () => {
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.goto(`${server.url}/widgets`);
+    await page.getByRole('heading', { level: 2, name: 'Weight calculator' }).first().waitFor();
+    const overflow = await page.evaluate(
+      () => document.documentElement.scrollWidth - document.documentElement.clientWidth,
+    );
+    expect(overflow).toBeLessThanOrEqual(0);
+    await page.screenshot({ path: join(SCREENS_DIR, 'widgets-phone.png') });
+  });
+});
