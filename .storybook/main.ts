@@ -16,6 +16,19 @@ const config: StorybookConfig = {
     options: { tsconfig: fromHere('./tsconfig.json') },
   },
   core: { disableTelemetry: true },
+  // The library's own build reads the shared packages from dist/ (ng-packagr cannot compile sources
+  // outside its root); Storybook, like the workbench, compiles them from their sources.
+  viteFinal: (viteConfig) => {
+    const shared = [
+      { find: '@counterpoise/engine', replacement: fromHere('../shared/engine/index.ts') },
+      { find: '@counterpoise/api', replacement: fromHere('../shared/api/index.ts') },
+    ];
+    const existing = viteConfig.resolve?.alias ?? [];
+    const aliases = Array.isArray(existing)
+      ? existing
+      : Object.entries(existing).map(([find, replacement]) => ({ find, replacement: String(replacement) }));
+    return { ...viteConfig, resolve: { ...viteConfig.resolve, alias: [...shared, ...aliases] } };
+  },
 };
 
 export default config;
