@@ -20,6 +20,7 @@ import { UsageLog } from './usage-log';
 
 const ROOT = fileURLToPath(new URL('../../..', import.meta.url));
 const BURST = 20_000;
+const CONNECTIONS = 20;
 // A keyed route that reads little: the usage of an empty span.
 const ROUTE = '/api/v1/usage?from=2000-01-01&to=2000-01-02';
 
@@ -37,7 +38,7 @@ function burst(url: string, key: string, amount: number, onResponse?: (received:
     {
       url,
       amount,
-      connections: 20,
+      connections: CONNECTIONS,
       headers: { 'x-api-key': key },
       // After the server has gone, stop at the first refused connection instead of retrying.
       bailout: 1,
@@ -137,7 +138,7 @@ describe('the usage log under load', { timeout: 300_000 }, () => {
     });
     const code = await exited;
     // Answers the server wrote just before it exited may still sit in the client's socket buffers:
-    // let the client read them before it stops, or it would count fewer answers than were sent.
+    // let the client read them before it stops.
     await new Promise((resolve) => setTimeout(resolve, 500));
     run.instance.stop();
     await run.done;
@@ -146,6 +147,13 @@ describe('the usage log under load', { timeout: 300_000 }, () => {
     expect(output).toContain('SIGTERM received');
     expect(run.total()).toBeGreaterThanOrEqual(BURST / 5);
     expect(run.total()).toBeLessThan(BURST);
-    expect(rowCounts(databasePath)).toEqual(run.received);
+    // No answer the client received is missing from the log. The log may hold a few more: an answer
+    // written just as the process exits can be thrown away by the client's TCP stack when the closing
+    // socket is reset, and with one request in flight per connection that is at most one per connection.
+    const rows = rowCounts(databasePath);
+    for (const [status, count] of run.received) expect(rows.get(status) ?? 0).toBeGreaterThanOrEqual(count);
+    const extra = [...rows.values()].reduce((a, b) => a + b, 0) - run.total();
+    expect(extra).toBeGreaterThanOrEqual(0);
+    expect(extra).toBeLessThanOrEqual(CONNECTIONS);
   });
 });
