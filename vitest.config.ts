@@ -2,26 +2,12 @@ import { fileURLToPath } from 'node:url';
 import { storybookTest } from '@storybook/addon-vitest/vitest-plugin';
 import { playwright } from '@vitest/browser-playwright';
 import { defineConfig } from 'vitest/config';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from './tests/browser/support/chromium-flags';
 
 const fromRoot = (path: string) => fileURLToPath(new URL(path, import.meta.url));
 
-/**
- * Debian's Chromium (Playwright's own download never works here), kept off the network: no background
- * traffic, and every host but localhost unresolvable. The same flags as tests/browser/support/chromium.ts.
- */
-const chromium = {
-  executablePath: process.env['CHROME_PATH'] ?? '/usr/bin/chromium',
-  args: [
-    '--no-sandbox',
-    '--disable-gpu',
-    '--disable-quic',
-    '--no-first-run',
-    '--disable-background-networking',
-    '--disable-component-update',
-    '--disable-sync',
-    '--host-resolver-rules=MAP * ~NOTFOUND, EXCLUDE localhost, EXCLUDE 127.0.0.1',
-  ],
-};
+/** Debian's Chromium (Playwright's own download never works here), kept off the network. */
+const chromium = { executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS };
 
 /**
  * Suites that run on Node: the engine and schemas in shared/, the server, the published reference checks

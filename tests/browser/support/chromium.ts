@@ -2,24 +2,9 @@ import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { type BrowserContext, chromium } from 'playwright-core';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from './chromium-flags';
 
-/** Where Debian's Chromium lives; `CHROME_PATH` points elsewhere. */
-export const CHROMIUM_PATH = process.env['CHROME_PATH'] ?? '/usr/bin/chromium';
-
-/**
- * Flags for a headless Chromium on a machine without outside network: no background traffic, and
- * every host but localhost unresolvable so that nothing waits on a look-up that cannot succeed.
- */
-const CHROMIUM_ARGS = [
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  '--host-resolver-rules=MAP * ~NOTFOUND, EXCLUDE localhost, EXCLUDE 127.0.0.1',
-];
+export { CHROMIUM_PATH } from './chromium-flags';
 
 /** A headless Chromium with a fresh profile; `close()` also removes the profile. */
 export interface Browser {
