@@ -7,7 +7,8 @@
  * then the ratios c/b and c/a and the calculations per second of (d). Each target runs in its own
  * process; the load comes from this one. Figures, not assertions: results go to docs/benchmarks.md.
  *
- * Options (environment): BENCH_SECONDS (default 10), BENCH_CONNECTIONS (default 32).
+ * Options (environment): BENCH_SECONDS (default 10), BENCH_CONNECTIONS (default 32), BENCH_TARGETS (the
+ * letters to run, default abcd; ratios need their targets in the same run).
  */
 import { type ChildProcess, spawn } from 'node:child_process';
 import { createInterface } from 'node:readline';
@@ -113,10 +114,22 @@ const batch = JSON.stringify({
   })),
 });
 
-const a = await measure('bare-http', '/', singlePlane, false);
-const b = await measure('bare-express', '/', singlePlane, false);
-const c = await measure('counterpoise', '/api/v1/calc/single-plane', singlePlane, true);
-const d = await measure('counterpoise', '/api/v1/calc/batch', batch, true);
+const TARGETS = process.env['BENCH_TARGETS'] ?? 'abcd';
+const skipped: Measured & { usageRows?: number } = {
+  requestsPerSecond: Number.NaN,
+  p99Ms: Number.NaN,
+  non2xx: 0,
+  errors: 0,
+  requests: 0,
+};
+const a = TARGETS.includes('a') ? await measure('bare-http', '/', singlePlane, false) : skipped;
+const b = TARGETS.includes('b') ? await measure('bare-express', '/', singlePlane, false) : skipped;
+const c = TARGETS.includes('c')
+  ? await measure('counterpoise', '/api/v1/calc/single-plane', singlePlane, true)
+  : skipped;
+const d = TARGETS.includes('d')
+  ? await measure('counterpoise', '/api/v1/calc/batch', batch, true)
+  : skipped;
 
 const fmt = (n: number, digits = 0) => n.toLocaleString('en-US', { maximumFractionDigits: digits });
 const row = (label: string, m: Measured) =>

@@ -73,12 +73,26 @@ describe('errors', () => {
     });
   });
 
-  it('sends security headers with every answer', async () => {
+  it('sends the API set of security headers with every JSON answer', async () => {
     const response = await request(app()).get('/api/health');
     expect(response.headers['x-content-type-options']).toBe('nosniff');
-    expect(response.headers['content-security-policy']).toContain("default-src 'self'");
-    expect(response.headers['content-security-policy']).not.toContain('upgrade-insecure-requests');
+    expect(response.headers['content-security-policy']).toBe("default-src 'none';frame-ancestors 'none'");
+    expect(response.headers['x-frame-options']).toBe('DENY');
+    expect(response.headers['cache-control']).toBe('no-store');
+    expect(response.headers['strict-transport-security']).toMatch(/^max-age=/);
+    expect(response.headers['x-dns-prefetch-control']).toBeUndefined();
     expect(response.headers['x-powered-by']).toBeUndefined();
+    expect(response.headers['etag']).toBeUndefined();
+  });
+
+  it('sends the pages their own security headers, without upgrading to HTTPS', async () => {
+    for (const path of ['/', '/api/docs/']) {
+      const response = await request(app()).get(path).set('Accept', 'text/html');
+      expect(response.headers['x-content-type-options']).toBe('nosniff');
+      expect(response.headers['content-security-policy']).toContain("default-src 'self'");
+      expect(response.headers['content-security-policy']).not.toContain('upgrade-insecure-requests');
+      expect(response.headers['x-powered-by']).toBeUndefined();
+    }
   });
 });
 

@@ -1,7 +1,6 @@
 import { existsSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import express, { type Express, Router } from 'express';
-import helmet from 'helmet';
 import { randomBytes } from 'node:crypto';
 import { AccountsRepo } from './auth/accounts.repo';
 import { authRegistry } from './auth/auth.openapi';
@@ -11,8 +10,9 @@ import { type Clock, systemClock } from './clock';
 import type { Database } from './db/database';
 import { healthRegistry, healthRouter } from './health/health.router';
 import { apiNotFound, problemHandler } from './http/problem';
-import { calcRegistry, calcRouter } from './calc/calc.router';
-import { keyedV1Router } from './http/v1';
+import { CALC_BASE_PATH, calcRegistry, calcRouter } from './calc/calc.router';
+import { securityHeaders } from './http/security-headers';
+import { keyedMiddleware, keyedV1Router } from './http/v1';
 import { keysRegistry } from './keys/keys.openapi';
 import { ApiKeysRepo } from './keys/keys.repo';
 import { keyRoutesRegistry, keysRouter } from './keys/keys.router';
@@ -93,15 +93,11 @@ export function createApp(deps: AppDeps): Express {
 
   const app = express();
   app.disable('x-powered-by');
+  // No ETag on dynamic answers: almost all are POSTs or `no-store`, where it would only cost a hash of
+  // every body. The workbench's files keep theirs (express.static sets its own).
+  app.set('etag', false);
   app.set('query parser', 'simple');
-  app.use(
-    helmet({
-      contentSecurityPolicy: {
-        // Served over plain HTTP on a shop's network; upgrading would break every asset there.
-        directives: { upgradeInsecureRequests: null },
-      },
-    }),
-  );
+  app.use(securityHeaders());
 
   const accounts = deps.accounts ?? {};
   const mailer = accounts.mailer ?? NO_MAILER;
@@ -120,19 +116,8 @@ export function createApp(deps: AppDeps): Express {
   );
   const keys = new ApiKeyService(new ApiKeysRepo(deps.database.orm));
 
-  // The workbench's routes, for signed-in people (and the public session routes). Mounted ahead of
-  // the keyed chain; a path they do not answer falls through to it.
-  const signedIn = Router();
-  signedIn.use(authRouter(auth));
-  signedIn.use(peopleRouter({ auth, people: new PeopleService(accountsRepo, auth, clock, mailer) }));
-  signedIn.use(
-    keysRouter({ auth, keys, clock, defaultLimitPerMinute: accounts.defaultKeyLimitPerMinute ?? 600 }),
-  );
-  signedIn.use(outboxRouter({ auth, database: deps.database }));
-  app.use('/api/v1', signedIn);
-
   const usageLog = deps.usageLog ?? new UsageLog(deps.database, { log });
-  const v1 = keyedV1Router({
+  const keyedDeps = {
     database: deps.database,
     clock,
     usage: usageLog,
@@ -142,11 +127,29 @@ export function createApp(deps: AppDeps): Express {
     ...(accounts.userCalcLimitPerMinute === undefined
       ? {}
       : { userLimitPerMinute: accounts.userCalcLimitPerMinute }),
-  });
-  v1.use('/calc', requirePermission('calc:use'), calcRouter({ usage: usageLog, clock }));
-  // Mounted ahead of `/api` so that keyed requests, the busy ones, pass through no other router;
-  // a path no keyed route answers falls through to the 404 below.
-  app.use('/api/v1', v1);
+  };
+  // One keyed chain (key check, usage recorder, rate limit) for every keyed mount, so that a key's
+  // requests are counted against one limit wherever they go.
+  const keyed = keyedMiddleware(keyedDeps);
+
+  // The calculator first: its requests are the busy ones, and pass through no other router. It answers
+  // every path under it (404 for a route it does not have), so nothing falls through to be logged twice.
+  app.use(CALC_BASE_PATH, keyed, requirePermission('calc:use'), calcRouter({ usage: usageLog, clock }));
+
+  // The workbench's routes, for signed-in people (and the public session routes). Mounted ahead of
+  // the other keyed routes; a path they do not answer falls through to them.
+  const signedIn = Router();
+  signedIn.use(authRouter(auth));
+  signedIn.use(peopleRouter({ auth, people: new PeopleService(accountsRepo, auth, clock, mailer) }));
+  signedIn.use(
+    keysRouter({ auth, keys, clock, defaultLimitPerMinute: accounts.defaultKeyLimitPerMinute ?? 600 }),
+  );
+  signedIn.use(outboxRouter({ auth, database: deps.database }));
+  app.use('/api/v1', signedIn);
+
+  // The usage report, and the key check of every other `/api/v1` path: a keyed request that no route
+  // answers is still a logged request of its key, and then a 404 below.
+  app.use('/api/v1', keyedV1Router({ ...keyedDeps, chain: keyed }));
 
   const api = Router();
   api.use(healthRouter({ database: deps.database, clock, version }));

@@ -1,4 +1,5 @@
 import { existsSync } from 'node:fs';
+import type { IncomingMessage, ServerResponse } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { dirname, join } from 'node:path';
 import { createApp } from './app';
@@ -86,6 +87,11 @@ async function main(): Promise<void> {
     if (stopping) return;
     stopping = true;
     console.log(`${signal} received: finishing the requests under way, then stopping.`);
+    // A client that keeps its connection busy would otherwise be served on it for as long as it sends:
+    // every answer from now on closes its connection, so that the server can finish.
+    server.prependListener('request', (_req: IncomingMessage, res: ServerResponse) => {
+      res.setHeader('Connection', 'close');
+    });
     server.close(() => {
       // Every response has been sent, so every usage row is queued: write them before closing.
       let code = 0;

@@ -312,19 +312,27 @@ export function engineProblem(error: EngineError): Problem {
   };
 }
 
-/** The path of the first number in `value` that is not finite, or undefined when all are. */
-export function firstNonFinitePath(value: unknown, path: readonly PropertyKey[] = []): string | undefined {
+/**
+ * The path of the first number in `value` that is not finite, or undefined when all are. It walks the
+ * answer of every calculation, so it allocates nothing until it finds one: `path` is one stack of keys,
+ * pushed and popped on the way.
+ */
+export function firstNonFinitePath(value: unknown, path: PropertyKey[] = []): string | undefined {
   if (typeof value === 'number') return Number.isFinite(value) ? undefined : formatPath(path);
   if (value === null || typeof value !== 'object') return undefined;
   if (Array.isArray(value)) {
     for (let index = 0; index < value.length; index++) {
-      const found = firstNonFinitePath(value[index], [...path, index]);
+      path.push(index);
+      const found = firstNonFinitePath(value[index], path);
+      path.pop();
       if (found !== undefined) return found;
     }
     return undefined;
   }
   for (const key in value) {
-    const found = firstNonFinitePath((value as Record<string, unknown>)[key], [...path, key]);
+    path.push(key);
+    const found = firstNonFinitePath((value as Record<string, unknown>)[key], path);
+    path.pop();
     if (found !== undefined) return found;
   }
   return undefined;

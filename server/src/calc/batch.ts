@@ -10,6 +10,7 @@ import {
 import type { Response } from 'express';
 import type { z } from 'zod';
 import type { Clock } from '../clock';
+import { sendJsonText } from '../http/json';
 import type { UsageSink } from '../http/keyed-request';
 
 const CALC_ROUTE_PREFIX = 'POST /api/v1/calc/';
@@ -28,11 +29,16 @@ function unknownRouteProblem(route: string): Problem {
 
 /**
  * Answers every item of a batch on its own, in order, and logs one usage row per item. Each item's JSON is
- * written once and its length is the row's byte count, so the log costs no second serialisation.
+ * written once and its length is the row's byte count, so the log costs no second serialisation. The rows
+ * share the time of the request: its items are answered together.
  */
-export function answerBatch(res: Response, deps: { usage: UsageSink; clock: Clock }): void {
-  const { items } = res.locals.body as z.output<typeof BatchRequestSchema>;
+export function answerBatch(
+  res: Response,
+  deps: { usage: UsageSink; clock: Clock },
+  items: z.output<typeof BatchRequestSchema>['items'],
+): void {
   const key = res.locals.apiKey;
+  const at = deps.clock.now();
   const parts: string[] = [];
   for (let index = 0; index < items.length; index++) {
     const item = items[index]!;
@@ -53,10 +59,10 @@ export function answerBatch(res: Response, deps: { usage: UsageSink; clock: Cloc
         status: outcome.status,
         durationMs: performance.now() - started,
         bytes: Buffer.byteLength(json),
-        at: deps.clock.now(),
+        at,
       });
     }
   }
   res.locals.usageRecorded = true;
-  res.type('application/json').send(`{"items":[${parts.join(',')}]}`);
+  sendJsonText(res, `{"items":[${parts.join(',')}]}`);
 }

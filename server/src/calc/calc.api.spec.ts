@@ -49,6 +49,19 @@ describe('the calculator behind API keys', () => {
     ]);
   });
 
+  it('logs exactly one row for a path under the calculator that names no route, or the wrong method', async () => {
+    const { key, record } = createTestKey(temporary.database);
+    const server = app();
+    await request(server).post('/api/v1/calc/three-plane').set('X-Api-Key', key).send({}).expect(404);
+    await request(server).get('/api/v1/calc/radius').set('X-Api-Key', key).expect(405);
+    await request(server).post('/api/v1/calc').set('X-Api-Key', key).send({}).expect(404);
+    expect(usageRows()).toEqual([
+      { keyId: record.id, route: 'POST /api/v1/calc/three-plane', status: 404 },
+      { keyId: record.id, route: 'GET /api/v1/calc/radius', status: 405 },
+      { keyId: record.id, route: 'POST /api/v1/calc', status: 404 },
+    ]);
+  });
+
   it('refuses a request without a key (401) or with a revoked one (403), as problems', async () => {
     const { key, record } = createTestKey(temporary.database);
     const missing = await request(app()).post('/api/v1/calc/radius').send(CALC_ROUTES.radius.example);

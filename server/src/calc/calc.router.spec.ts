@@ -105,7 +105,23 @@ describe('bodies the routes do not take', () => {
   });
 
   it('answers 404 for a route that does not exist', async () => {
-    expectProblem(await post('three-plane', {}), 404);
+    const problem = expectProblem(await post('three-plane', {}), 404);
+    expect(problem.detail).toBe('No route POST /api/v1/calc/three-plane.');
+  });
+
+  it('finds a route whatever the case of its path, and with a trailing slash, as Express routes do', async () => {
+    const example = CALC_ROUTES.radius.example;
+    for (const path of ['radius/', 'Radius', 'RADIUS/']) {
+      expect((await post(path, example).expect(200)).body).toEqual({ mass: 90, warnings: [] });
+    }
+  });
+
+  it('answers 415 to a body not sent as JSON', async () => {
+    const response = await request(calcTestApp().app)
+      .post('/api/v1/calc/radius')
+      .set('Content-Type', 'text/plain')
+      .send('mass=1');
+    expectProblem(response, 415);
   });
 });
 

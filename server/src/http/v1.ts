@@ -49,10 +49,9 @@ function corsFor(origins: readonly string[]): RequestHandler {
 }
 
 /**
- * The `/api/v1` router every keyed route hangs from: CORS (when origins are configured), the API-key
- * check, the usage recorder, the per-key rate limit, then the usage report. Routes mounted on the
- * returned router afterwards (`v1.use('/calc', …)`) pass through the same chain and find the key on
- * `res.locals.apiKey`.
+ * The middleware every keyed route sits behind, in order: CORS (when origins are configured), the API-key
+ * check, the usage recorder, the per-key rate limit. Build it once and mount it wherever keyed routes are
+ * (`app.use(path, chain, routes)`): its rate-limit counters and key cache are then shared by every mount.
  *
  * With `tokens`, a signed-in person's access token is accepted in place of a key; such requests are
  * rate-limited per person and leave no usage row (usage is the keys' account).
@@ -60,18 +59,28 @@ function corsFor(origins: readonly string[]): RequestHandler {
  * The recorder sits before the rate limit so that a refused 429 is still a logged request of its key;
  * requests without a valid key have no key to log against and are not recorded.
  */
-export function keyedV1Router(deps: KeyedV1Deps): Router {
-  const router = Router();
-  if (deps.corsOrigins.length > 0) router.use(corsFor(deps.corsOrigins));
+export function keyedMiddleware(deps: KeyedV1Deps): RequestHandler[] {
   const keys = deps.keys ?? new ApiKeyService(new ApiKeysRepo(deps.database.orm));
-  router.use(requireApiKey(keys, deps.tokens));
-  router.use(recordUsage(deps.usage, deps.clock));
-  router.use(
+  return [
+    ...(deps.corsOrigins.length > 0 ? [corsFor(deps.corsOrigins)] : []),
+    requireApiKey(keys, deps.tokens),
+    recordUsage(deps.usage, deps.clock),
     apiKeyRateLimit(
       deps.userLimitPerMinute === undefined ? {} : { userLimitPerMinute: deps.userLimitPerMinute },
     ),
-  );
-  // Mounted at its path, so that the calculator's requests skip it without entering it.
+  ];
+}
+
+/**
+ * The `/api/v1` router of the keyed routes that are not the calculator: the keyed middleware (`chain`,
+ * or a new one), then the usage report. Routes mounted on the returned router afterwards pass through the
+ * same chain and find the key on `res.locals.apiKey`; a path none answers is still a logged request of
+ * its key, and falls through to the 404.
+ */
+export function keyedV1Router(deps: KeyedV1Deps & { readonly chain?: RequestHandler[] }): Router {
+  const router = Router();
+  router.use(deps.chain ?? keyedMiddleware(deps));
+  // Mounted at its path, so that other requests skip it without entering it.
   router.use('/usage', usageRouter({ repo: new UsageRepo(deps.database.orm), clock: deps.clock }));
   return router;
 }

@@ -79,6 +79,29 @@ describe('UsageLog', () => {
     expect(lastUsedAt()).toEqual(new Date(Date.UTC(2026, 4, 4, 10)));
   });
 
+  it('stores routes and figures exactly as recorded, whatever characters a junk path holds', () => {
+    const log = new UsageLog(temporary.database);
+    const routes = [
+      'GET /api/v1/"quoted"\\back\\slash',
+      'GET /api/v1/ünïcødé/✓/\u2028',
+      'POST /api/v1/calc/x',
+    ];
+    routes.forEach((route, index) =>
+      log.record({ ...row(1000 + index), route, durationMs: index === 2 ? 2 : 0.1 + index, bytes: 2 ** 40 }),
+    );
+    expect(log.flush()).toBe(3);
+    const rows = temporary.database.sqlite
+      .prepare(
+        'SELECT route, typeof(duration_ms) AS durationType, duration_ms, bytes, at FROM api_usage ORDER BY id',
+      )
+      .all();
+    expect(rows).toEqual([
+      { route: routes[0], durationType: 'real', duration_ms: 0.1, bytes: 2 ** 40, at: 1000 },
+      { route: routes[1], durationType: 'real', duration_ms: 1.1, bytes: 2 ** 40, at: 1001 },
+      { route: routes[2], durationType: 'real', duration_ms: 2, bytes: 2 ** 40, at: 1002 },
+    ]);
+  });
+
   it('keeps the rows of a failed write and writes them, once each, when the database works again', () => {
     const messages: string[] = [];
     const log = new UsageLog(temporary.database, {

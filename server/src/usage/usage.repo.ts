@@ -32,21 +32,20 @@ const DAY = sql<string>`strftime('%Y-%m-%d', ${apiUsage.at} / 1000, 'unixepoch')
 
 /** The Drizzle queries of the `api_usage` table. */
 export class UsageRepo {
-  private readonly insertRow;
+  private readonly insertRows;
   private readonly touchKey;
 
   constructor(private readonly orm: Orm) {
-    // Prepared once: a flush runs them hundreds of times in one transaction.
-    this.insertRow = orm
+    // Prepared once. A flush writes all its rows with one statement: they travel as one JSON array of
+    // [keyId, route, status, durationMs, bytes, atMs] and SQLite's json_each unpacks them, which costs
+    // far less per row than running an INSERT for each (the usage log writes one row per batch item).
+    // The id column is left for SQLite to assign.
+    this.insertRows = orm
       .insert(apiUsage)
-      .values({
-        keyId: sql.placeholder('keyId'),
-        route: sql.placeholder('route'),
-        status: sql.placeholder('status'),
-        durationMs: sql.placeholder('durationMs'),
-        bytes: sql.placeholder('bytes'),
-        at: sql.placeholder('at'),
-      })
+      .select(
+        sql`select null, value ->> 0, value ->> 1, value ->> 2, value ->> 3, value ->> 4, value ->> 5
+            from json_each(${sql.placeholder('rows')})`,
+      )
       .prepare();
     this.touchKey = orm
       .update(apiKeys)
@@ -61,13 +60,18 @@ export class UsageRepo {
    * duplicating rows.
    */
   insertBatch(rows: readonly UsageRow[]): void {
+    if (rows.length === 0) return;
     const lastUsedMs = new Map<number, number>();
-    for (const row of rows) {
+    const packed: (number | string)[][] = new Array(rows.length);
+    for (let index = 0; index < rows.length; index++) {
+      const row = rows[index]!;
       const atMs = row.at.getTime();
       if ((lastUsedMs.get(row.keyId) ?? -1) < atMs) lastUsedMs.set(row.keyId, atMs);
+      packed[index] = [row.keyId, row.route, row.status, row.durationMs, row.bytes, atMs];
     }
+    const json = JSON.stringify(packed);
     this.orm.transaction(() => {
-      for (const row of rows) this.insertRow.run({ ...row });
+      this.insertRows.run({ rows: json });
       for (const [id, atMs] of lastUsedMs) this.touchKey.run({ id, atMs });
     });
   }
