@@ -127,9 +127,7 @@ const b = TARGETS.includes('b') ? await measure('bare-express', '/', singlePlane
 const c = TARGETS.includes('c')
   ? await measure('counterpoise', '/api/v1/calc/single-plane', singlePlane, true)
   : skipped;
-const d = TARGETS.includes('d')
-  ? await measure('counterpoise', '/api/v1/calc/batch', batch, true)
-  : skipped;
+const d = TARGETS.includes('d') ? await measure('counterpoise', '/api/v1/calc/batch', batch, true) : skipped;
 
 const fmt = (n: number, digits = 0) => n.toLocaleString('en-US', { maximumFractionDigits: digits });
 const row = (label: string, m: Measured) =>
