@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { ProblemSchema } from './problem';
 
 /** The most items one batch may carry. */

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { BALANCE_GRADES, VIBRATION_UNITS } from '@counterpoise/engine';
 
 /*

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** The state of the SQLite database behind the server. */
 export const DatabaseHealthSchema = z

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** The header an API key travels in; `Authorization: Bearer <key>` is accepted as well. */
 export const API_KEY_HEADER = 'X-Api-Key';

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** One field at fault in a request, as a JSON-pointer-like path (`readings[0].phaseDeg`) and a message. */
 export const FieldErrorSchema = z

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** The ways the usage report can be broken down. */
 export const USAGE_GROUPINGS = ['day', 'route', 'key'] as const;

@@ -1,6 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { canFallBackToLocal } from './balance-engine-error';
-import { engineErrorFromProblem, engineErrorFromResponse, parseRetryAfter, problemOf } from './engine-errors';
+import {
+  engineErrorFromProblem,
+  engineErrorFromResponse,
+  parseProblem,
+  parseRetryAfter,
+} from './engine-errors';
 
 const invalidPhase = {
   type: 'about:blank',
@@ -38,47 +43,48 @@ describe('engineErrorFromResponse', () => {
     [500, 'server'],
     [503, 'unreachable'],
   ] as const)('turns status %i into the reason %s', (status, reason) => {
-    const error = engineErrorFromResponse({ status, body: null });
+    const error = engineErrorFromResponse({ status });
     expect(error.reason).toBe(reason);
     expect(error.status).toBe(status);
     expect(error.message.length).toBeGreaterThan(20);
   });
 
   it("keeps the service's problem and speaks the field's own message, without its path", () => {
-    const error = engineErrorFromResponse({ status: 400, body: invalidPhase });
+    const error = engineErrorFromResponse({ status: 400, problem: invalidPhase });
     expect(error.problem).toEqual(invalidPhase);
     expect(error.message).toBe('The phase must lie within ±3600 degrees.');
   });
 
   it('counts the fields when several are at fault', () => {
-    const body = {
+    const problem = {
       ...invalidPhase,
       errors: [...invalidPhase.errors, { path: 'trialWeight.mass', message: 'Enter the mass as a number.' }],
     };
-    expect(engineErrorFromResponse({ status: 400, body }).message).toBe(
+    expect(engineErrorFromResponse({ status: 400, problem }).message).toBe(
       '2 values cannot be used; check the marked fields.',
     );
   });
 
   it('says how long to wait when over the rate limit', () => {
-    const error = engineErrorFromResponse({ status: 429, body: null, retryAfter: '20' });
+    const error = engineErrorFromResponse({ status: 429, retryAfter: '20' });
     expect(error.retryAfterSeconds).toBe(20);
     expect(error.message).toContain('Try again in 20 seconds');
-    expect(engineErrorFromResponse({ status: 429, body: null, retryAfter: '300' }).message).toContain(
+    expect(engineErrorFromResponse({ status: 429, retryAfter: '300' }).message).toContain(
       'Try again in 5 minutes',
     );
   });
 
-  it('ignores a body that is not a problem', () => {
-    expect(
-      engineErrorFromResponse({ status: 500, body: '<html>Bad gateway</html>' }).problem,
-    ).toBeUndefined();
-    expect(problemOf({ title: 'no status' })).toBeUndefined();
+  it('reads a problem with the API schema, and nothing that is not one', async () => {
+    expect(await parseProblem(invalidPhase)).toEqual(invalidPhase);
+    expect(await parseProblem('<html>Bad gateway</html>')).toBeUndefined();
+    expect(await parseProblem({ title: 'no status' })).toBeUndefined();
+    expect(await parseProblem(null)).toBeUndefined();
+    expect(engineErrorFromResponse({ status: 500 }).problem).toBeUndefined();
   });
 
   it('offers the device only when the values are not at fault', () => {
     const reasons = [0, 400, 401, 403, 429, 500].map((status) => {
-      const error = engineErrorFromResponse({ status, body: null });
+      const error = engineErrorFromResponse({ status });
       return [error.reason, canFallBackToLocal(error)];
     });
     expect(reasons).toEqual([

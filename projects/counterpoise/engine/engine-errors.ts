@@ -1,12 +1,13 @@
-import { ProblemSchema, type Problem } from '@counterpoise/api';
+import type { Problem } from '@counterpoise/api';
+import { type ApiRuntime, loadApiRuntime } from './api-runtime';
 import { BalanceEngineError } from './balance-engine-error';
 
 /** What the remote engine knows of a failed request, without Angular's types. */
 export interface FailedResponse {
   /** The HTTP status; 0 when no answer came (offline, refused, blocked by CORS). */
   readonly status: number;
-  /** The answer's body, parsed when it was JSON. */
-  readonly body: unknown;
+  /** The problem the service answered with, when its body was one (see `parseProblem`). */
+  readonly problem?: Problem;
   /** The `Retry-After` header, when there was one. */
   readonly retryAfter?: string | null;
 }
@@ -27,10 +28,22 @@ export function parseRetryAfter(
   return Math.max(0, Math.ceil((at - now.getTime()) / 1000));
 }
 
-/** The body as a problem, when it is one. */
-export function problemOf(body: unknown): Problem | undefined {
-  const parsed = ProblemSchema.safeParse(body);
-  return parsed.success ? parsed.data : undefined;
+/**
+ * The body as a problem, when it is one, checked against the API's own `ProblemSchema`. The schema loads
+ * with the API runtime (see `loadApiRuntime`); when it cannot load, no problem is read and the status
+ * alone speaks.
+ */
+export async function parseProblem(
+  body: unknown,
+  load: () => Promise<ApiRuntime> = loadApiRuntime,
+): Promise<Problem | undefined> {
+  if (body === null || typeof body !== 'object') return undefined;
+  try {
+    const parsed = (await load()).ProblemSchema.safeParse(body);
+    return parsed.success ? parsed.data : undefined;
+  } catch {
+    return undefined;
+  }
 }
 
 function waitText(seconds: number | undefined): string {
@@ -48,8 +61,7 @@ export function engineErrorFromResponse(
   response: FailedResponse,
   now: Date = new Date(),
 ): BalanceEngineError {
-  const { status } = response;
-  const problem = problemOf(response.body);
+  const { status, problem } = response;
   const details = { status, ...(problem === undefined ? {} : { problem }) };
 
   if (status === 0) {

@@ -1,12 +1,13 @@
+import { TestBed } from '@angular/core/testing';
 import { firstValueFrom } from 'rxjs';
 import { describe, expect, it } from 'vitest';
 import { CALC_ROUTE_NAMES, CALC_ROUTES, calculate, type CalcRouteName } from '@counterpoise/api';
 import { BalanceEngineError } from './balance-engine-error';
 import { LocalBalanceEngine } from './local-balance-engine';
 
-const engine = new LocalBalanceEngine();
-
 describe('LocalBalanceEngine', () => {
+  const engine = TestBed.inject(LocalBalanceEngine);
+
   it.each(CALC_ROUTE_NAMES)(
     'answers the %s example exactly as calculate() does',
     async (route: CalcRouteName) => {

@@ -1,38 +1,51 @@
-import { Injectable } from '@angular/core';
-import { defer, of, throwError, type Observable } from 'rxjs';
-import { calculate, type CalcRequest, type CalcResponse, type CalcRouteName } from '@counterpoise/api';
+import { Injectable, inject } from '@angular/core';
+import { catchError, defer, from, of, switchMap, throwError, type Observable } from 'rxjs';
+import type { CalcRequest, CalcResponse, CalcRouteName } from '@counterpoise/api';
+import { API_RUNTIME_LOADER, preloadApiRuntime, RUNTIME_LOAD_MESSAGE } from './api-runtime';
 import type { BalanceEngine } from './balance-engine';
 import { BalanceEngineError } from './balance-engine-error';
 import { engineErrorFromProblem } from './engine-errors';
 
 /**
  * Computes on the device, through the same route table and schemas as the calculator API, so that an
- * answer is the same with and without a connection.
+ * answer is the same with and without a connection. The table, the schemas and the engine load in the
+ * background once the page is idle (see `loadApiRuntime`), not with the widgets.
  */
 @Injectable({ providedIn: 'root' })
 export class LocalBalanceEngine implements BalanceEngine {
   /** Always `local`. */
   readonly kind = 'local' as const;
 
+  private readonly _load = inject(API_RUNTIME_LOADER);
+
+  constructor() {
+    preloadApiRuntime();
+  }
+
   /** Validates and computes one route on the device, when subscribed. */
   calculate<N extends CalcRouteName>(route: N, request: CalcRequest<N>): Observable<CalcResponse<N>> {
-    return defer(() => {
-      let outcome: ReturnType<typeof calculate<N>>;
-      try {
-        outcome = calculate(route, request);
-      } catch (cause) {
-        return throwError(
-          () =>
-            new BalanceEngineError(
-              'server',
-              'The calculation failed on this device. Note the values and report it to the portal administrator.',
-              { cause },
-            ),
-        );
-      }
-      return outcome.status === 200
-        ? of(outcome.result)
-        : throwError(() => engineErrorFromProblem(outcome.problem));
-    });
+    return defer(() => from(this._load())).pipe(
+      catchError((cause: unknown) =>
+        throwError(() => new BalanceEngineError('unreachable', RUNTIME_LOAD_MESSAGE, { cause })),
+      ),
+      switchMap((api) => {
+        let outcome: ReturnType<typeof api.calculate<N>>;
+        try {
+          outcome = api.calculate(route, request);
+        } catch (cause) {
+          return throwError(
+            () =>
+              new BalanceEngineError(
+                'server',
+                'The calculation failed on this device. Note the values and report it to the portal administrator.',
+                { cause },
+              ),
+          );
+        }
+        return outcome.status === 200
+          ? of(outcome.result)
+          : throwError(() => engineErrorFromProblem(outcome.problem));
+      }),
+    );
   }
 }

@@ -21,10 +21,11 @@ export {
 export {
   engineErrorFromProblem,
   engineErrorFromResponse,
+  parseProblem,
   parseRetryAfter,
-  problemOf,
   type FailedResponse,
 } from './engine-errors';
+export { API_RUNTIME_LOADER, loadApiRuntime, type ApiRuntime } from './api-runtime';
 export { LocalBalanceEngine } from './local-balance-engine';
 export { RemoteBalanceEngine } from './remote-balance-engine';
 export { provideCounterpoise } from './provide-counterpoise';

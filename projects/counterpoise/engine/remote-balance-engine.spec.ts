@@ -3,12 +3,12 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { firstValueFrom, type Observable } from 'rxjs';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { CALC_ROUTES, calculate } from '@counterpoise/api';
+import { API_KEY_HEADER, CALC_ROUTES, calculate } from '@counterpoise/api';
 import { BALANCE_ENGINE } from './balance-engine';
 import { BalanceEngineError } from './balance-engine-error';
 import type { CounterpoiseConfig } from './counterpoise-config';
 import { provideCounterpoise } from './provide-counterpoise';
-import { RemoteBalanceEngine } from './remote-balance-engine';
+import { API_KEY_HEADER_NAME, RemoteBalanceEngine } from './remote-balance-engine';
 
 const KEY = 'cpk_AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA';
 const URL = 'https://calc.example.net/api/v1/calc/single-plane';
@@ -37,6 +37,12 @@ function setUp(config: Partial<CounterpoiseConfig> = {}) {
 function settle<T>(observable: Observable<T>): Promise<T | BalanceEngineError> {
   return firstValueFrom(observable).catch((error: BalanceEngineError) => error);
 }
+
+describe('API_KEY_HEADER_NAME', () => {
+  it("names the key's header as the API does", () => {
+    expect(API_KEY_HEADER_NAME).toBe(API_KEY_HEADER);
+  });
+});
 
 describe('RemoteBalanceEngine', () => {
   afterEach(() => {

@@ -1,13 +1,18 @@
 import { HttpClient, HttpErrorResponse, HttpHeaders } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { catchError, defer, map, throwError, timeout, TimeoutError, type Observable } from 'rxjs';
 import {
-  API_KEY_HEADER,
-  CALC_ROUTES,
-  type CalcRequest,
-  type CalcResponse,
-  type CalcRouteName,
-} from '@counterpoise/api';
+  catchError,
+  defer,
+  from,
+  map,
+  switchMap,
+  throwError,
+  timeout,
+  TimeoutError,
+  type Observable,
+} from 'rxjs';
+import type { CalcRequest, CalcResponse, CalcRouteName } from '@counterpoise/api';
+import { API_RUNTIME_LOADER, type ApiRuntime, preloadApiRuntime, RUNTIME_LOAD_MESSAGE } from './api-runtime';
 import type { BalanceEngine } from './balance-engine';
 import { BalanceEngineError } from './balance-engine-error';
 import {
@@ -17,7 +22,13 @@ import {
   checkCounterpoiseConfig,
   type CounterpoiseConfig,
 } from './counterpoise-config';
-import { engineErrorFromResponse } from './engine-errors';
+import { engineErrorFromResponse, parseProblem } from './engine-errors';
+
+/**
+ * The header of the API key. The same name as `API_KEY_HEADER` of `@counterpoise/api` (a spec checks
+ * it), written here so that sending a request needs nothing of the API runtime.
+ */
+export const API_KEY_HEADER_NAME = 'X-Api-Key';
 
 /**
  * Computes through the calculator API (`POST <apiBaseUrl>/api/v1/calc/<route>`) with the portal's key
@@ -31,26 +42,45 @@ export class RemoteBalanceEngine implements BalanceEngine {
   readonly kind = 'remote' as const;
 
   private readonly _http = inject(HttpClient);
+  private readonly _load = inject(API_RUNTIME_LOADER);
   private readonly _config: CounterpoiseConfig = checkCounterpoiseConfig(
     inject(COUNTERPOISE_CONFIG, { optional: true }) ?? { engine: 'remote' },
   );
 
-  /** Sends one route's request and checks that the answer has the route's shape. */
+  constructor() {
+    preloadApiRuntime();
+  }
+
+  /**
+   * Sends one route's request and checks that the answer has the route's shape (with the route's schema,
+   * from the API runtime: loaded in the background, and awaited here if it has not come yet).
+   */
   calculate<N extends CalcRouteName>(route: N, request: CalcRequest<N>): Observable<CalcResponse<N>> {
     return defer(() => {
       const headers = this._headers();
       const url = calcRouteUrl(this._config.apiBaseUrl ?? '', route);
       return this._http.post<unknown>(url, request, { headers }).pipe(
         timeout({ first: this._config.timeoutMs ?? DEFAULT_TIMEOUT_MS }),
-        map((body) => this._checked(route, body)),
-        catchError((error: unknown) => throwError(() => this._engineError(error))),
+        switchMap((body) => from(this._runtime()).pipe(map((api) => this._checked(api, route, body)))),
+        catchError((error: unknown) =>
+          from(this._engineError(error)).pipe(switchMap((failure) => throwError(() => failure))),
+        ),
       );
     });
   }
 
+  /** The API runtime; a device that cannot load it is told so. */
+  private async _runtime(): Promise<ApiRuntime> {
+    try {
+      return await this._load();
+    } catch (cause) {
+      throw new BalanceEngineError('unreachable', RUNTIME_LOAD_MESSAGE, { cause });
+    }
+  }
+
   private _headers(): HttpHeaders {
     const headers = new HttpHeaders({ Accept: 'application/json, application/problem+json' });
-    if (this._config.apiKey !== undefined) return headers.set(API_KEY_HEADER, this._config.apiKey);
+    if (this._config.apiKey !== undefined) return headers.set(API_KEY_HEADER_NAME, this._config.apiKey);
     const token = this._config.accessToken?.() ?? null;
     if (token === null || token === '') {
       throw new BalanceEngineError(
@@ -61,8 +91,8 @@ export class RemoteBalanceEngine implements BalanceEngine {
     return headers.set('Authorization', `Bearer ${token}`);
   }
 
-  private _checked<N extends CalcRouteName>(route: N, body: unknown): CalcResponse<N> {
-    const parsed = CALC_ROUTES[route].response.safeParse(body);
+  private _checked<N extends CalcRouteName>(api: ApiRuntime, route: N, body: unknown): CalcResponse<N> {
+    const parsed = api.CALC_ROUTES[route].response.safeParse(body);
     if (parsed.success) return parsed.data as CalcResponse<N>;
     throw new BalanceEngineError(
       'server',
@@ -72,7 +102,7 @@ export class RemoteBalanceEngine implements BalanceEngine {
     );
   }
 
-  private _engineError(error: unknown): BalanceEngineError {
+  private async _engineError(error: unknown): Promise<BalanceEngineError> {
     if (error instanceof BalanceEngineError) return error;
     if (error instanceof TimeoutError) {
       return new BalanceEngineError(
@@ -83,9 +113,10 @@ export class RemoteBalanceEngine implements BalanceEngine {
     }
     if (error instanceof HttpErrorResponse) {
       const parsingFailed = error.status >= 200 && error.status < 300;
+      const problem = parsingFailed ? undefined : await parseProblem(error.error, this._load);
       return engineErrorFromResponse({
         status: error.status,
-        body: parsingFailed ? undefined : error.error,
+        ...(problem === undefined ? {} : { problem }),
         retryAfter: error.headers?.get('Retry-After') ?? null,
       });
     }

@@ -1,3 +1,4 @@
+import { manualChangeDetection } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ChangeDetectionStrategy, Component, signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
@@ -156,10 +157,15 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
     const engine = new FakeEngine();
     const pending = new Subject<unknown>();
     engine.respond = () => pending;
-    const { calculator } = await setUp(engine, trialWeightJob);
-    await calculator.submit();
-    expect(await calculator.isComputing()).toBe(true);
-    expect(await calculator.canSubmit()).toBe(false);
+    const { calculator, fixture } = await setUp(engine, trialWeightJob);
+    // The calculation is a pending task, so a harness waits for its answer; look while it is on its way.
+    await manualChangeDetection(async () => {
+      await calculator.submit();
+      fixture.detectChanges();
+      expect(await calculator.isComputing()).toBe(true);
+      expect(await calculator.canSubmit()).toBe(false);
+      expect(fixture.isStable()).toBe(false);
+    });
 
     pending.next(expected('single-plane', SINGLE_PLANE_REQUEST));
     pending.complete();

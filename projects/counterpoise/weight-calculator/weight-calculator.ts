@@ -12,6 +12,7 @@ import {
   input,
   model,
   output,
+  PendingTasks,
   signal,
   untracked,
 } from '@angular/core';
@@ -23,7 +24,7 @@ import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { type Observable, type Subscription, catchError, forkJoin, map, of, switchMap } from 'rxjs';
+import { type Observable, type Subscription, catchError, finalize, forkJoin, map, of, switchMap } from 'rxjs';
 import type { CalcRequest } from '@counterpoise/api';
 import type { AngleCounting, DialPositions, Rotation } from '@counterpoise/ng/core';
 import {
@@ -190,6 +191,7 @@ export class CpWeightCalculator {
   });
 
   protected readonly _pending = signal(false);
+  private readonly _tasks = inject(PendingTasks);
   /** What the live region says: the answer, or why there is none. */
   protected readonly _announcement = signal('');
   protected readonly _submitted = signal(false);
@@ -260,6 +262,7 @@ export class CpWeightCalculator {
   constructor() {
     const destroyRef = inject(DestroyRef);
     destroyRef.onDestroy(() => this._running?.unsubscribe());
+    this._prefetchOverlay();
 
     this._form.valueChanges.pipe(takeUntilDestroyed()).subscribe(() => {
       const typed = draftOf(this._form);
@@ -349,6 +352,9 @@ export class CpWeightCalculator {
     this._running?.unsubscribe();
     this._pending.set(true);
     this._failure.set(null);
+    // A pending task keeps the application unstable while the answer is on its way (over the network,
+    // or while the on-device engine loads), so that tests, harnesses and server rendering wait for it.
+    const settled = this._tasks.add();
     this._running = (engine.calculate(METHOD_ROUTES[method], request as never) as Observable<unknown>)
       .pipe(
         map((result) => ({ method, request, result }) as MethodAnswer),
@@ -359,6 +365,7 @@ export class CpWeightCalculator {
             ),
           ),
         ),
+        finalize(settled),
       )
       .subscribe({
         next: (calculation) => {
@@ -455,6 +462,23 @@ export class CpWeightCalculator {
         const results = this._host.nativeElement.querySelector('.cp-weight-calculator__results');
         const top = results?.getBoundingClientRect().top ?? 0;
         if (results && top > window.innerHeight * 0.8) results.scrollIntoView?.({ block: 'start' });
+      },
+      { injector: this._injector },
+    );
+  }
+
+  /**
+   * The overlay of the result panel is a deferred view (`@defer`), so that the form renders without it.
+   * Its code is fetched here once the browser is idle after the first render, well before an answer
+   * needs it, and while the device still has its connection: the deferred view then finds it in the
+   * browser's module cache, also for work offline later.
+   */
+  private _prefetchOverlay(): void {
+    afterNextRender(
+      () => {
+        const fetchOverlay = () => void import('@counterpoise/ng/correction-overlay').catch(() => undefined);
+        if (typeof requestIdleCallback === 'function') requestIdleCallback(fetchOverlay, { timeout: 3000 });
+        else setTimeout(fetchOverlay, 0);
       },
       { injector: this._injector },
     );

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { z } from 'zod';
+import type * as z from 'zod';
 import {
   AcceptInvitationSchema,
   ApiKeyListSchema,

@@ -1,6 +1,6 @@
 import { OpenAPIRegistry, type ResponseConfig } from '@asteasolutions/zod-to-openapi';
 import { PROBLEM_MEDIA_TYPE, ProblemSchema, REFRESH_COOKIE } from '@counterpoise/api';
-import type { z } from 'zod';
+import type * as z from 'zod';
 
 /** The OpenAPI registry of sign-in and the signed-in person: its security schemes. */
 export const authRegistry = new OpenAPIRegistry();

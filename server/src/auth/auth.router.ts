@@ -7,7 +7,7 @@ import {
   SessionSchema,
   SignInRequestSchema,
 } from '@counterpoise/api';
-import type { z } from 'zod';
+import type * as z from 'zod';
 import { HttpProblem, requireJsonBody } from '../http/problem';
 import { validateBody } from '../http/validate';
 import {

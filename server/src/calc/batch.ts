@@ -8,7 +8,7 @@ import {
   type Problem,
 } from '@counterpoise/api';
 import type { Response } from 'express';
-import type { z } from 'zod';
+import type * as z from 'zod';
 import type { Clock } from '../clock';
 import { sendJsonText } from '../http/json';
 import type { UsageSink } from '../http/keyed-request';

@@ -10,7 +10,7 @@ import {
   ProblemSchema,
 } from '@counterpoise/api';
 import express, { type NextFunction, type Request, type RequestHandler, type Response } from 'express';
-import type { z } from 'zod';
+import type * as z from 'zod';
 import type { Clock } from '../clock';
 import type { UsageSink } from '../http/keyed-request';
 import { sendJsonText } from '../http/json';

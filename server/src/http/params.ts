@@ -1,5 +1,5 @@
 import type { RequestHandler } from 'express';
-import { z } from 'zod';
+import * as z from 'zod';
 import { HttpProblem } from './problem';
 
 /** A path parameter that names a stored row: a positive whole number. */

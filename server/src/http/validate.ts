@@ -1,6 +1,6 @@
 import { invalidRequestProblem } from '@counterpoise/api';
 import type { RequestHandler } from 'express';
-import type { z } from 'zod';
+import type * as z from 'zod';
 import { HttpProblem } from './problem';
 
 declare global {

@@ -6,7 +6,7 @@ import {
   CreatedApiKeySchema,
 } from '@counterpoise/api';
 import { Router } from 'express';
-import type { z } from 'zod';
+import type * as z from 'zod';
 import {
   ACCESS_TOKEN_SECURITY,
   INVALID_BODY_RESPONSE,

@@ -10,7 +10,7 @@ import {
   UserSchema,
 } from '@counterpoise/api';
 import { Router } from 'express';
-import type { z } from 'zod';
+import type * as z from 'zod';
 import {
   ACCESS_TOKEN_SECURITY,
   INVALID_BODY_RESPONSE,

@@ -1,5 +1,5 @@
 import { parseArgs } from 'node:util';
-import { z } from 'zod';
+import * as z from 'zod';
 import { EmailSchema, PasswordSchema, PersonNameSchema, RoleSchema } from '@counterpoise/api';
 import type { AccountsRepo } from '../auth/accounts.repo';
 import { hashPasswordSync, passwordWeakness, type ScryptCost } from '../auth/passwords';

@@ -10,7 +10,7 @@ import type {
   PeopleSchema,
   UpdatePersonSchema,
 } from '@counterpoise/api';
-import type { z } from 'zod';
+import type * as z from 'zod';
 
 /*
  * The shapes of the accounts routes, derived from the shared schemas by type alone: importing a type

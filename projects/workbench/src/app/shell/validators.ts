@@ -1,5 +1,5 @@
 import type { AbstractControl, ValidationErrors, ValidatorFn } from '@angular/forms';
-import type { z } from 'zod';
+import type * as z from 'zod';
 
 /*
  * Validators that carry their message in the error itself, so that a template shows the first error of a

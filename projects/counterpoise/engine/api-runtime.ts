@@ -1,0 +1,48 @@
+import { isPlatformBrowser } from '@angular/common';
+import { InjectionToken, PLATFORM_ID, inject } from '@angular/core';
+import type * as CounterpoiseApi from '@counterpoise/api';
+
+/** The shared API package at run time: its zod schemas, the route table and the balancing engine. */
+export type ApiRuntime = typeof CounterpoiseApi;
+
+let loading: Promise<ApiRuntime> | undefined;
+
+/**
+ * Loads `@counterpoise/api` on first use. It is imported dynamically, so that a dealer's bundler puts it
+ * in a chunk of its own: the widgets render without it, and it arrives while the page is idle (see
+ * `preloadApiRuntime`). A load that fails (a device that went offline before the chunk ever came) is
+ * forgotten, so that the next calculation tries again.
+ */
+export function loadApiRuntime(): Promise<ApiRuntime> {
+  loading ??= import('@counterpoise/api').catch((error: unknown) => {
+    loading = undefined;
+    throw error;
+  });
+  return loading;
+}
+
+/**
+ * How the engines get the API runtime: `loadApiRuntime` unless a test (or a portal with its own loading
+ * strategy) provides another.
+ */
+export const API_RUNTIME_LOADER = new InjectionToken<() => Promise<ApiRuntime>>('API_RUNTIME_LOADER', {
+  providedIn: 'root',
+  factory: () => loadApiRuntime,
+});
+
+/**
+ * Starts loading the API runtime once the browser is idle, so that it is there before the first
+ * calculation, and there for work without a connection later. Call it in an injection context; it does
+ * nothing on a server, and nothing after the first call.
+ */
+export function preloadApiRuntime(): void {
+  const loader = inject(API_RUNTIME_LOADER);
+  if ((loader === loadApiRuntime && loading !== undefined) || !isPlatformBrowser(inject(PLATFORM_ID))) return;
+  const load = () => void loader().catch(() => undefined);
+  if (typeof requestIdleCallback === 'function') requestIdleCallback(load, { timeout: 2000 });
+  else setTimeout(load, 0);
+}
+
+/** The error of a calculation whose code could not be loaded onto the device. */
+export const RUNTIME_LOAD_MESSAGE =
+  'The calculator could not be loaded onto this device. Connect once so that it can load, then try again.';
