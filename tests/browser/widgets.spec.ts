@@ -54,6 +54,43 @@ describe('the Widgets page', () => {
     await page.getByText(`Phase: ${after}°`).waitFor();
   });
 
+  it('computes offline once loaded: the engine and the drawing arrive in the background', async () => {
+    await page.setViewportSize({ width: 1024, height: 768 });
+    await page.goto(`${server.url}/widgets`);
+    const calculator = page.locator('cp-weight-calculator');
+    await calculator.getByRole('heading', { name: 'Correction weight calculator' }).waitFor();
+    // The on-device engine and the overlay of the result are fetched while the page is idle.
+    await page.waitForLoadState('networkidle');
+    await browser.context.setOffline(true);
+    try {
+      await calculator.locator('[data-method="single-plane"]').click();
+      const fill = async (field: string, value: string) => {
+        const target = calculator.locator(
+          `input[data-field="${field}"], cp-phase-dial[data-field="${field}"] input`,
+        );
+        await target.fill(value);
+        await target.press('Tab');
+      };
+      await fill('initial.amplitude', '0.52');
+      await fill('initial.phaseDeg', '74');
+      await fill('trialWeight.mass', '60');
+      await fill('trialWeight.angleDeg', '5');
+      await fill('withTrial.amplitude', '0.31');
+      await fill('withTrial.phaseDeg', '141');
+      await calculator.getByRole('button', { name: 'Compute the correction' }).click();
+      await calculator.getByText('Computed on this device.').waitFor();
+      await calculator.locator('.cp-weight-calculator__results cp-correction-overlay svg').first().waitFor();
+      expect(await calculator.locator('.cp-weight-calculator__overlay-missing').count()).toBe(0);
+      expect(await calculator.locator('.cp-weight-calculator__mass').first().textContent()).toMatch(/\d g/);
+      await page.setViewportSize({ width: 1024, height: 1600 });
+      await calculator
+        .locator('.cp-weight-calculator__results')
+        .screenshot({ path: join(SCREENS_DIR, 'widgets-calculator-offline.png') });
+    } finally {
+      await browser.context.setOffline(false);
+    }
+  });
+
   it('fits a phone without sideways scrolling', async () => {
     await page.setViewportSize({ width: 390, height: 844 });
     await page.goto(`${server.url}/widgets`);
