@@ -42,7 +42,8 @@ async function main(): Promise<void> {
     mailer = smtpMailer({ from: config.MAIL_FROM, localPort: capture.port });
   }
 
-  const usageLog = new UsageLog(database);
+  // The rows are written in a thread of their own, so that a burst of requests never waits on SQLite.
+  const usageLog = new UsageLog(database, { inWorker: true });
   const app = createApp({
     database,
     clock: systemClock,

@@ -1,6 +1,7 @@
 import type { Database } from '../db/database';
 import type { UsageRow, UsageSink } from '../http/keyed-request';
-import { UsageRepo } from './usage.repo';
+import { inThreadWriter, type UsageBatchWriter, WorkerUsageWriter } from './usage-writer';
+import { packUsageRows, UsageRepo } from './usage.repo';
 
 /** How the usage log batches its writes. */
 export interface UsageLogOptions {
@@ -10,14 +11,20 @@ export interface UsageLogOptions {
   readonly batchSize?: number;
   /** Where a failed write is reported; the rows stay queued and the write is tried again. */
   readonly log?: (message: string, error?: unknown) => void;
+  /**
+   * Write the batches in a thread of their own (`WorkerUsageWriter`), off the event loop: what the
+   * server does. Off by default, so that a test sees a batch stored as soon as its timer fires; an
+   * in-memory database is always written on the calling thread.
+   */
+  readonly inWorker?: boolean;
 }
 
 /**
  * The usage log: `record()` only queues the row in memory, so that a response never waits on the
  * disk; batches are written in one Drizzle transaction each, every `flushIntervalMs` or as soon as
- * `batchSize` rows wait. A write that fails keeps its rows queued for the next attempt, so a busy or
- * briefly locked database loses nothing. At shutdown, after the server has let the requests under
- * way finish, `close()` writes what is left.
+ * `batchSize` rows wait, on this thread or (`inWorker`) in a thread of their own. A write that fails
+ * keeps its rows queued for the next attempt, so a busy or briefly locked database loses nothing. At
+ * shutdown, after the server has let the requests under way finish, `close()` writes what is left.
  */
 export class UsageLog implements UsageSink {
   private queue: UsageRow[] = [];
@@ -25,21 +32,26 @@ export class UsageLog implements UsageSink {
   private immediate: NodeJS.Immediate | undefined;
   private closed = false;
   private failing = false;
-  private readonly repo: UsageRepo;
+  private failures = 0;
+  private lastFailure: unknown;
+  private readonly writer: UsageBatchWriter;
   private readonly flushIntervalMs: number;
   private readonly batchSize: number;
   private readonly log: (message: string, error?: unknown) => void;
 
   constructor(database: Database, options: UsageLogOptions = {}) {
-    this.repo = new UsageRepo(database.orm);
     this.flushIntervalMs = options.flushIntervalMs ?? 100;
     this.batchSize = options.batchSize ?? 500;
     this.log = options.log ?? ((message, error) => console.error(message, error));
+    this.writer =
+      options.inWorker === true && !database.sqlite.memory
+        ? new WorkerUsageWriter(database, this.log)
+        : inThreadWriter(new UsageRepo(database.orm));
   }
 
   /** Rows recorded but not yet written. */
   get pending(): number {
-    return this.queue.length;
+    return this.queue.length + this.writer.inFlightRows;
   }
 
   /** Queues one row; after `close()`, writes it at once, since no flush would follow. */
@@ -55,41 +67,58 @@ export class UsageLog implements UsageSink {
   }
 
   /**
-   * Writes every queued row now, in one transaction, and returns how many. Throws when the write
-   * fails; the rows are then still queued.
+   * Writes every queued row now, in one transaction, waits for the batches already on their way, and
+   * returns how many rows it wrote. Throws when a write fails; its rows are then queued again.
    */
   flush(): number {
     this.cancelScheduled();
-    const rows = this.queue;
-    if (rows.length === 0) return 0;
-    this.queue = [];
-    try {
-      this.repo.insertBatch(rows);
-    } catch (error) {
-      this.queue = rows.concat(this.queue);
-      throw error;
-    }
-    return rows.length;
+    const failuresBefore = this.failures;
+    const count = this.queue.length;
+    this.writeQueued(false);
+    this.writer.drain();
+    if (this.failures > failuresBefore) throw this.lastFailure;
+    return count;
   }
 
   /** Writes what is left and stops the timers; throws, with the rows still queued, if that fails. */
   close(): number {
     this.closed = true;
-    return this.flush();
+    try {
+      return this.flush();
+    } finally {
+      this.writer.close();
+    }
   }
 
-  private readonly flushInBackground = (): void => {
-    try {
-      this.flush();
-      if (this.failing) this.log('The usage log is written again; no rows were lost.');
-      this.failing = false;
-    } catch (error) {
+  /**
+   * Hands the queue to the writer; rows of a batch that fails come back to the queue. A failed
+   * background write is logged (once, until one succeeds); `flush()` throws its failure instead.
+   */
+  private writeQueued(background: boolean): void {
+    const rows = this.queue;
+    if (rows.length === 0) return;
+    this.queue = [];
+    this.writer.write(packUsageRows(rows), (error) => {
+      if (error === undefined) {
+        if (this.failing) this.log('The usage log is written again; no rows were lost.');
+        this.failing = false;
+        return;
+      }
+      this.queue = rows.concat(this.queue);
+      this.failures++;
+      this.lastFailure = error;
+      if (!background) return;
       // Said once, not every 100 ms; the rows wait for the next attempt.
       if (!this.failing)
         this.log(`The usage log could not be written; ${this.queue.length} rows wait.`, error);
       this.failing = true;
       if (!this.closed) this.timer ??= setTimeout(this.flushInBackground, this.flushIntervalMs).unref();
-    }
+    });
+  }
+
+  private readonly flushInBackground = (): void => {
+    this.cancelScheduled();
+    this.writeQueued(true);
   };
 
   private cancelScheduled(): void {

@@ -76,10 +76,13 @@ afterEach(() => {
 });
 
 describe('the usage log under load', { timeout: 300_000 }, () => {
-  it(`writes exactly one row for each of ${BURST} keyed answers of a burst`, async () => {
+  it.each([
+    ['on the main thread', false],
+    ['in the writer thread, as the server does', true],
+  ])(`writes exactly one row for each of ${BURST} keyed answers of a burst, %s`, async (_where, inWorker) => {
     temporary = openTemporaryDatabase();
     const { key } = createTestKey(temporary.database);
-    const usageLog = new UsageLog(temporary.database, { log: () => undefined });
+    const usageLog = new UsageLog(temporary.database, { log: () => undefined, inWorker });
     const app = createApp({ database: temporary.database, usageLog, log: () => undefined });
     const server = await new Promise<Server>((resolve) => {
       const listening = app.listen(0, '127.0.0.1', () => resolve(listening));

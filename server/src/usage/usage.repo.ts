@@ -27,6 +27,29 @@ const FIGURES = {
   maxDurationMs: sql<number>`coalesce(max(${apiUsage.durationMs}), 0)`.mapWith(Number),
 };
 
+/**
+ * A batch of usage rows in the form the insert takes: one JSON array of [keyId, route, status, durationMs,
+ * bytes, atMs], and each key's latest use. Plain data, so that it can travel to the writer's thread.
+ */
+export interface PackedUsageRows {
+  readonly count: number;
+  readonly json: string;
+  readonly lastUsedMs: readonly (readonly [keyId: number, atMs: number])[];
+}
+
+/** Packs rows for `insertPacked`. */
+export function packUsageRows(rows: readonly UsageRow[]): PackedUsageRows {
+  const lastUsedMs = new Map<number, number>();
+  const packed: (number | string)[][] = new Array(rows.length);
+  for (let index = 0; index < rows.length; index++) {
+    const row = rows[index]!;
+    const atMs = row.at.getTime();
+    if ((lastUsedMs.get(row.keyId) ?? -1) < atMs) lastUsedMs.set(row.keyId, atMs);
+    packed[index] = [row.keyId, row.route, row.status, row.durationMs, row.bytes, atMs];
+  }
+  return { count: rows.length, json: JSON.stringify(packed), lastUsedMs: [...lastUsedMs] };
+}
+
 /** The UTC day of a row, from its millisecond timestamp. */
 const DAY = sql<string>`strftime('%Y-%m-%d', ${apiUsage.at} / 1000, 'unixepoch')`;
 
@@ -60,19 +83,15 @@ export class UsageRepo {
    * duplicating rows.
    */
   insertBatch(rows: readonly UsageRow[]): void {
-    if (rows.length === 0) return;
-    const lastUsedMs = new Map<number, number>();
-    const packed: (number | string)[][] = new Array(rows.length);
-    for (let index = 0; index < rows.length; index++) {
-      const row = rows[index]!;
-      const atMs = row.at.getTime();
-      if ((lastUsedMs.get(row.keyId) ?? -1) < atMs) lastUsedMs.set(row.keyId, atMs);
-      packed[index] = [row.keyId, row.route, row.status, row.durationMs, row.bytes, atMs];
-    }
-    const json = JSON.stringify(packed);
+    this.insertPacked(packUsageRows(rows));
+  }
+
+  /** Writes a batch packed by `packUsageRows` (by another thread, say), in one transaction. */
+  insertPacked(batch: PackedUsageRows): void {
+    if (batch.count === 0) return;
     this.orm.transaction(() => {
-      this.insertRows.run({ rows: json });
-      for (const [id, atMs] of lastUsedMs) this.touchKey.run({ id, atMs });
+      this.insertRows.run({ rows: batch.json });
+      for (const [id, atMs] of batch.lastUsedMs) this.touchKey.run({ id, atMs });
     });
   }
 
