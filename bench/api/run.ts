@@ -8,7 +8,8 @@
  * process; the load comes from this one. Figures, not assertions: results go to docs/benchmarks.md.
  *
  * Options (environment): BENCH_SECONDS (default 10), BENCH_CONNECTIONS (default 32), BENCH_TARGETS (the
- * letters to run, default abcd; ratios need their targets in the same run).
+ * letters to run, default abcd; ratios need their targets in the same run), BENCH_ROUNDS (default 1:
+ * with more, the targets run in interleaved rounds and the median round of each is reported).
  */
 import { type ChildProcess, spawn } from 'node:child_process';
 import { createInterface } from 'node:readline';
@@ -115,33 +116,55 @@ const batch = JSON.stringify({
 });
 
 const TARGETS = process.env['BENCH_TARGETS'] ?? 'abcd';
-const skipped: Measured & { usageRows?: number } = {
+const ROUNDS = Math.max(1, Number(process.env['BENCH_ROUNDS'] ?? 1));
+
+type Result = Measured & { usageRows?: number };
+const skipped: Result = {
   requestsPerSecond: Number.NaN,
   p99Ms: Number.NaN,
   non2xx: 0,
   errors: 0,
   requests: 0,
 };
-const a = TARGETS.includes('a') ? await measure('bare-http', '/', singlePlane, false) : skipped;
-const b = TARGETS.includes('b') ? await measure('bare-express', '/', singlePlane, false) : skipped;
-const c = TARGETS.includes('c')
-  ? await measure('counterpoise', '/api/v1/calc/single-plane', singlePlane, true)
-  : skipped;
-const d = TARGETS.includes('d') ? await measure('counterpoise', '/api/v1/calc/batch', batch, true) : skipped;
+const runs: Record<'a' | 'b' | 'c' | 'd', Result[]> = { a: [], b: [], c: [], d: [] };
+// Rounds interleave the targets, so that a slow spell of the machine weighs on all of them alike.
+for (let round = 1; round <= ROUNDS; round++) {
+  if (ROUNDS > 1) console.log(`round ${round} of ${ROUNDS}`);
+  if (TARGETS.includes('a')) runs.a.push(await measure('bare-http', '/', singlePlane, false));
+  if (TARGETS.includes('b')) runs.b.push(await measure('bare-express', '/', singlePlane, false));
+  if (TARGETS.includes('c')) {
+    runs.c.push(await measure('counterpoise', '/api/v1/calc/single-plane', singlePlane, true));
+  }
+  if (TARGETS.includes('d')) runs.d.push(await measure('counterpoise', '/api/v1/calc/batch', batch, true));
+}
+
+/** The round with the median requests per second (the lower middle one of an even count). */
+function median(results: Result[]): Result {
+  if (results.length === 0) return skipped;
+  const sorted = [...results].sort((x, y) => x.requestsPerSecond - y.requestsPerSecond);
+  return sorted[Math.floor((sorted.length - 1) / 2)]!;
+}
+const [a, b, c, d] = [median(runs.a), median(runs.b), median(runs.c), median(runs.d)];
 
 const fmt = (n: number, digits = 0) => n.toLocaleString('en-US', { maximumFractionDigits: digits });
-const row = (label: string, m: Measured) =>
-  `| ${label} | ${fmt(m.requestsPerSecond)} | ${fmt(m.p99Ms, 1)} | ${m.non2xx} | ${m.errors} |`;
+const row = (label: string, m: Measured, all: Result[]) =>
+  `| ${label} | ${fmt(m.requestsPerSecond)} | ${fmt(m.p99Ms, 1)} | ${m.non2xx} | ${m.errors} |` +
+  (ROUNDS > 1 ? ` ${all.map((one) => fmt(one.requestsPerSecond)).join(' / ')} |` : '');
 console.log(
-  `\nnode ${process.version}, ${CONNECTIONS} connections, ${SECONDS} s per target after ${WARM_UP_SECONDS} s warm-up\n`,
+  `\nnode ${process.version}, ${CONNECTIONS} connections, ${SECONDS} s per target after ${WARM_UP_SECONDS} s ` +
+    `warm-up${ROUNDS > 1 ? `, median of ${ROUNDS} interleaved rounds` : ''}\n`,
 );
-console.log('| target | req/s | p99 ms | non-2xx | errors |');
-console.log('| --- | ---: | ---: | ---: | ---: |');
-console.log(row('(a) bare node:http', a));
-console.log(row('(b) bare Express + express.json()', b));
-console.log(row('(c) POST /api/v1/calc/single-plane', c));
-console.log(row(`(d) POST /api/v1/calc/batch, ${BATCH_ITEMS} items`, d));
+console.log(`| target | req/s | p99 ms | non-2xx | errors |${ROUNDS > 1 ? ' req/s of each round |' : ''}`);
+console.log(`| --- | ---: | ---: | ---: | ---: |${ROUNDS > 1 ? ' ---: |' : ''}`);
+console.log(row('(a) bare node:http', a, runs.a));
+console.log(row('(b) bare Express + express.json()', b, runs.b));
+console.log(row('(c) POST /api/v1/calc/single-plane', c, runs.c));
+console.log(row(`(d) POST /api/v1/calc/batch, ${BATCH_ITEMS} items`, d, runs.d));
 console.log(`\nc/b = ${(c.requestsPerSecond / b.requestsPerSecond).toFixed(2)} (target >= 0.8)`);
+if (ROUNDS > 1 && runs.b.length === runs.c.length) {
+  const ratios = runs.c.map((one, index) => one.requestsPerSecond / runs.b[index]!.requestsPerSecond);
+  console.log(`c/b of each round: ${ratios.map((ratio) => ratio.toFixed(2)).join(' / ')}`);
+}
 console.log(`c/a = ${(c.requestsPerSecond / a.requestsPerSecond).toFixed(2)}`);
 console.log(`(d) calculations/s = ${fmt(d.requestsPerSecond * BATCH_ITEMS)} (target >= 100,000)`);
 console.log(
