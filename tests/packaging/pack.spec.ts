@@ -180,10 +180,20 @@ describe('a dealer app built against the tarballs', () => {
     expect(build.status, build.output).toBe(0);
   });
 
-  it('bundles the widgets and the themed styles', () => {
+  it('bundles the widgets into the first load, the API runtime into a chunk loaded later, and the themed styles', () => {
     const browser = join(app, 'dist', 'browser');
-    const script = readFileSync(join(browser, 'main.js'), 'utf8');
-    expect(script).toContain('Lock out and tag out');
+    const html = readFileSync(join(browser, 'index.html'), 'utf8');
+    // What the page loads at once: its scripts and the chunks it preloads.
+    const initial = [...html.matchAll(/(?:src|href)="([^"]+\.js)"/g)].map((match) => match[1]!);
+    expect(initial).toContain('main.js');
+    const scripts = readdirSync(browser).filter((file) => file.endsWith('.js'));
+    const text = (files: string[]) =>
+      files.map((file) => readFileSync(join(browser, file), 'utf8')).join('\n');
+    expect(text(initial)).toContain('Lock out and tag out');
+    // zod's own message, with the schemas and the engine: in a chunk of its own, fetched when idle.
+    const later = scripts.filter((file) => !initial.includes(file));
+    expect(text(initial)).not.toContain('Invalid input');
+    expect(text(later)).toContain('Invalid input');
     const styles = readFileSync(join(browser, 'styles.css'), 'utf8');
     expect(styles).toMatch(/--cp-safety-notice-accent-color:\s*#7a3e00/);
   });
