@@ -7,6 +7,29 @@ import type { Preview } from '@storybook/angular-vite';
 
 /** Settings shared by every story of the widget library. */
 const preview: Preview = {
+  // The portal's colour scheme: the widgets take every colour from the theme's system tokens, so a dark
+  // portal gets dark widgets. A story can set it with `globals: { scheme: 'dark' }`.
+  globalTypes: {
+    scheme: {
+      description: 'Colour scheme of the portal',
+      toolbar: {
+        title: 'Scheme',
+        icon: 'contrast',
+        items: [
+          { value: 'light', title: 'Light' },
+          { value: 'dark', title: 'Dark' },
+        ],
+        dynamicTitle: true,
+      },
+    },
+  },
+  initialGlobals: { scheme: 'light' },
+  decorators: [
+    (story, context) => {
+      document.documentElement.dataset['scheme'] = context.globals['scheme'] === 'dark' ? 'dark' : 'light';
+      return story();
+    },
+  ],
   parameters: {
     layout: 'padded',
     controls: { expanded: true },

@@ -99,3 +99,6 @@ export const DealerBrand: Story = {
     await expect(style.borderRadius).toBe('0px');
   },
 };
+
+/** The cautions in a portal of the dark colour scheme. */
+export const DarkScheme: Story = { ...Default, globals: { scheme: 'dark' } };

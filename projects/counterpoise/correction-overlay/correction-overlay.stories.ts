@@ -400,3 +400,6 @@ export const DealerBrand: Story = {
     await expect(getComputedStyle(disk).fill).toBe('rgb(255, 244, 224)');
   },
 };
+
+/** The split in a portal of the dark colour scheme: every colour comes from the theme's tokens. */
+export const DarkScheme: Story = { ...SplitAroundHolders, globals: { scheme: 'dark' } };

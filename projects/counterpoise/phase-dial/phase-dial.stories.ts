@@ -308,3 +308,6 @@ export const DealerBrand: Story = {
     await expect(dial.getBoundingClientRect().width).toBe(280);
   },
 };
+
+/** The markers in a portal of the dark colour scheme: every colour comes from the theme's tokens. */
+export const DarkScheme: Story = { ...Markers, globals: { scheme: 'dark' } };

@@ -242,3 +242,6 @@ export const DealerBrand: Story = {
     await expect(getComputedStyle(detail).backgroundColor).toBe('rgb(255, 244, 224)');
   },
 };
+
+/** The job in a portal of the dark colour scheme: every colour comes from the theme's tokens. */
+export const DarkScheme: Story = { ...Job, globals: { scheme: 'dark' } };

@@ -335,3 +335,6 @@ export const DealerBrand: Story = {
     await expect(getComputedStyle(panel).backgroundColor).toBe('rgb(255, 244, 224)');
   },
 };
+
+/** The computed result in a portal of the dark colour scheme, with its drawing. */
+export const DarkScheme: Story = { ...TrialWeightComputed, globals: { scheme: 'dark' } };
