@@ -6,15 +6,16 @@ import {
   CALC_ROUTES,
   calculate,
   computeCalc,
-  invalidRequestProblem,
   ProblemSchema,
 } from '@counterpoise/api';
-import express, { type NextFunction, type Request, type RequestHandler, type Response } from 'express';
+import express, { type RequestHandler } from 'express';
 import type * as z from 'zod';
 import type { Clock } from '../clock';
 import type { UsageSink } from '../http/keyed-request';
+import { inSequence } from '../http/in-sequence';
 import { sendJsonText } from '../http/json';
 import { apiNotFound, HttpProblem, methodNotAllowed, requireJsonBody } from '../http/problem';
+import { validateBody } from '../http/validate';
 import { API_KEY_SECURITY, KEYED_ROUTE_RESPONSES, RATE_LIMIT_HEADERS } from '../keys/keys.openapi';
 import { answerBatch } from './batch';
 
@@ -119,9 +120,6 @@ calcRegistry.registerPath({
   },
 });
 
-/** A calculator route's answer to a POST, once the path is known. */
-type Answer = (req: Request, res: Response, next: NextFunction) => void;
-
 /**
  * The calculator routes, `POST /<route>` and `POST /batch`, as one handler mounted at `CALC_BASE_PATH`
  * behind the API-key, rate-limit and usage middleware. One lookup in a table finds the route, where a
@@ -131,27 +129,21 @@ type Answer = (req: Request, res: Response, next: NextFunction) => void;
  */
 export function calcRouter(deps: { usage: UsageSink; clock: Clock }): RequestHandler {
   const parseCalc = express.json({ limit: CALC_BODY_LIMIT, type: () => true });
-  const parseBatch = express.json({ limit: BATCH_BODY_LIMIT, type: () => true });
-
-  const answers = new Map<string, Answer>();
-  answers.set('/batch', (req, res, next) =>
-    parseBatch(req, res, (error?: unknown) => {
-      if (error) {
-        next(error);
-        return;
-      }
-      const parsed = BatchRequestSchema.safeParse(req.body);
-      if (parsed.success) answerBatch(res, deps, parsed.data.items);
-      else next(HttpProblem.from(invalidRequestProblem(parsed.error)));
-    }),
+  const answers = new Map<string, RequestHandler>();
+  answers.set(
+    '/batch',
+    inSequence(
+      requireJsonBody,
+      express.json({ limit: BATCH_BODY_LIMIT, type: () => true }),
+      validateBody(BatchRequestSchema),
+      (_req, res) => answerBatch(res, deps, (res.locals.body as z.output<typeof BatchRequestSchema>).items),
+    ),
   );
   for (const name of CALC_ROUTE_NAMES) {
-    answers.set(`/${name}`, (req, res, next) =>
-      parseCalc(req, res, (error?: unknown) => {
-        if (error) {
-          next(error);
-          return;
-        }
+    answers.set(
+      `/${name}`,
+      inSequence(requireJsonBody, parseCalc, (req, res, next) => {
+        // calculate() validates with the route's schema and computes, as the batch does for each item.
         const outcome = calculate(name, req.body);
         if (outcome.status === 200) sendJsonText(res, JSON.stringify(outcome.result));
         else next(HttpProblem.from(outcome.problem));
@@ -167,6 +159,6 @@ export function calcRouter(deps: { usage: UsageSink; clock: Clock }): RequestHan
     const answer = answers.get(path);
     if (answer === undefined) apiNotFound(req, res, next);
     else if (req.method !== 'POST') onlyPost(req, res, next);
-    else requireJsonBody(req, res, (error?: unknown) => (error ? next(error) : answer(req, res, next)));
+    else answer(req, res, next);
   };
 }

@@ -78,15 +78,10 @@ export class UsageRepo {
   }
 
   /**
-   * Writes a batch of usage rows and moves each key's `last_used_at` forward, in one transaction:
-   * either the whole batch is stored or none of it, so a failed flush can be retried without
-   * duplicating rows.
+   * Writes a batch packed by `packUsageRows` and moves each key's `last_used_at` forward, in one
+   * transaction: either the whole batch is stored or none of it, so a failed write can be retried
+   * without duplicating rows.
    */
-  insertBatch(rows: readonly UsageRow[]): void {
-    this.insertPacked(packUsageRows(rows));
-  }
-
-  /** Writes a batch packed by `packUsageRows` (by another thread, say), in one transaction. */
   insertPacked(batch: PackedUsageRows): void {
     if (batch.count === 0) return;
     this.orm.transaction(() => {
