@@ -1,6 +1,7 @@
 import { isPlatformBrowser } from '@angular/common';
 import { InjectionToken, PLATFORM_ID, inject } from '@angular/core';
 import type * as CounterpoiseApi from '@counterpoise/api';
+import { BalanceEngineError } from './balance-engine-error';
 
 /** The shared API package at run time: its zod schemas, the route table and the balancing engine. */
 export type ApiRuntime = typeof CounterpoiseApi;
@@ -46,3 +47,12 @@ export function preloadApiRuntime(): void {
 /** The error of a calculation whose code could not be loaded onto the device. */
 export const RUNTIME_LOAD_MESSAGE =
   'The calculator could not be loaded onto this device. Connect once so that it can load, then try again.';
+
+/** The runtime from `load`; when it cannot load, an `unreachable` error the technician can act on. */
+export async function requireApiRuntime(load: () => Promise<ApiRuntime>): Promise<ApiRuntime> {
+  try {
+    return await load();
+  } catch (cause) {
+    throw new BalanceEngineError('unreachable', RUNTIME_LOAD_MESSAGE, { cause });
+  }
+}

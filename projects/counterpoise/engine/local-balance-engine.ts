@@ -1,7 +1,7 @@
 import { Injectable, inject } from '@angular/core';
-import { catchError, defer, from, of, switchMap, throwError, type Observable } from 'rxjs';
+import { defer, from, of, switchMap, throwError, type Observable } from 'rxjs';
 import type { CalcRequest, CalcResponse, CalcRouteName } from '@counterpoise/api';
-import { API_RUNTIME_LOADER, preloadApiRuntime, RUNTIME_LOAD_MESSAGE } from './api-runtime';
+import { API_RUNTIME_LOADER, preloadApiRuntime, requireApiRuntime } from './api-runtime';
 import type { BalanceEngine } from './balance-engine';
 import { BalanceEngineError } from './balance-engine-error';
 import { engineErrorFromProblem } from './engine-errors';
@@ -24,10 +24,7 @@ export class LocalBalanceEngine implements BalanceEngine {
 
   /** Validates and computes one route on the device, when subscribed. */
   calculate<N extends CalcRouteName>(route: N, request: CalcRequest<N>): Observable<CalcResponse<N>> {
-    return defer(() => from(this._load())).pipe(
-      catchError((cause: unknown) =>
-        throwError(() => new BalanceEngineError('unreachable', RUNTIME_LOAD_MESSAGE, { cause })),
-      ),
+    return defer(() => from(requireApiRuntime(this._load))).pipe(
       switchMap((api) => {
         let outcome: ReturnType<typeof api.calculate<N>>;
         try {

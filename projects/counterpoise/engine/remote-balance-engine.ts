@@ -12,7 +12,7 @@ import {
   type Observable,
 } from 'rxjs';
 import type { CalcRequest, CalcResponse, CalcRouteName } from '@counterpoise/api';
-import { API_RUNTIME_LOADER, type ApiRuntime, preloadApiRuntime, RUNTIME_LOAD_MESSAGE } from './api-runtime';
+import { API_RUNTIME_LOADER, type ApiRuntime, preloadApiRuntime, requireApiRuntime } from './api-runtime';
 import type { BalanceEngine } from './balance-engine';
 import { BalanceEngineError } from './balance-engine-error';
 import {
@@ -61,21 +61,14 @@ export class RemoteBalanceEngine implements BalanceEngine {
       const url = calcRouteUrl(this._config.apiBaseUrl ?? '', route);
       return this._http.post<unknown>(url, request, { headers }).pipe(
         timeout({ first: this._config.timeoutMs ?? DEFAULT_TIMEOUT_MS }),
-        switchMap((body) => from(this._runtime()).pipe(map((api) => this._checked(api, route, body)))),
+        switchMap((body) =>
+          from(requireApiRuntime(this._load)).pipe(map((api) => this._checked(api, route, body))),
+        ),
         catchError((error: unknown) =>
           from(this._engineError(error)).pipe(switchMap((failure) => throwError(() => failure))),
         ),
       );
     });
-  }
-
-  /** The API runtime; a device that cannot load it is told so. */
-  private async _runtime(): Promise<ApiRuntime> {
-    try {
-      return await this._load();
-    } catch (cause) {
-      throw new BalanceEngineError('unreachable', RUNTIME_LOAD_MESSAGE, { cause });
-    }
   }
 
   private _headers(): HttpHeaders {
