@@ -1,0 +1,144 @@
+import { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
+import express, { type RequestHandler } from 'express';
+import request from 'supertest';
+import { describe, expect, it } from 'vitest';
+import * as z from 'zod';
+import { buildOpenApiDocument } from '../openapi/openapi';
+import { servedRoutes } from '../openapi/served-routes';
+import { IdParamSchema } from './params';
+import { HttpProblem, problemHandler } from './problem';
+import { problemResponse, RouteTable, toExpressPath } from './route';
+
+const Body = z.object({ name: z.string().min(1, { error: 'Enter a name.' }) });
+const Answer = z.object({ id: z.number(), name: z.string() });
+
+/** A guard that lets a request through when it carries `X-Let-In: yes`. */
+const letIn: RequestHandler = (req, _res, next) => {
+  if (req.headers['x-let-in'] === 'yes') next();
+  else next(new HttpProblem(403, 'Forbidden', 'Not you.'));
+};
+
+function build() {
+  const registry = new OpenAPIRegistry();
+  const table = new RouteTable({
+    basePath: '/api/v1',
+    registry,
+    tag: 'Things',
+    access: {
+      open: { guard: [], describe: 'Anyone.' },
+      member: {
+        guard: [letIn],
+        security: [{ Member: [] }],
+        responses: { 403: problemResponse('Not a member.') },
+        describe: 'Members only.',
+      },
+    },
+  });
+  const seen: unknown[] = [];
+  table
+    .add({
+      method: 'post',
+      path: '/things/{id}',
+      summary: 'Rename a thing',
+      access: 'member',
+      params: IdParamSchema,
+      body: Body,
+      bodyExample: { name: 'Drum' },
+      answer: { status: 201, description: 'Renamed.', schema: Answer, example: { id: 3, name: 'Drum' } },
+      problems: { 404: 'No such thing.' },
+      handle: ({ params, body }) => {
+        seen.push({ params, body });
+        if (params.id === 404) throw new HttpProblem(404, 'Not Found', 'No thing 404.');
+        return { id: params.id, name: body.name };
+      },
+    })
+    .add({
+      method: 'delete',
+      path: '/things/{id}',
+      summary: 'Forget a thing',
+      access: 'open',
+      params: IdParamSchema,
+      answer: { status: 204, description: 'Forgotten.' },
+      handle: () => undefined,
+    });
+  const app = express();
+  app.use('/api/v1', table.router);
+  app.use(problemHandler(() => undefined));
+  return { app, registry, seen };
+}
+
+describe('RouteTable', () => {
+  it('mounts a route with its guard, parsed parameters and body, and the answer’s status', async () => {
+    const { app, seen } = build();
+    const response = await request(app)
+      .post('/api/v1/things/3')
+      .set('X-Let-In', 'yes')
+      .send({ name: 'Drum' })
+      .expect(201);
+    expect(response.body).toEqual({ id: 3, name: 'Drum' });
+    expect(seen).toEqual([{ params: { id: 3 }, body: { name: 'Drum' } }]);
+  });
+
+  it('runs the guard before anything else reads the request', async () => {
+    const { app, seen } = build();
+    await request(app).post('/api/v1/things/x').send('not json').expect(403);
+    expect(seen).toEqual([]);
+  });
+
+  it('answers problems naming the parameter or field at fault, and 415 for a body that is not JSON', async () => {
+    const { app } = build();
+    const badId = await request(app).post('/api/v1/things/0').set('X-Let-In', 'yes').send({ name: 'A' });
+    expect(badId.status).toBe(400);
+    expect(badId.body.errors[0].path).toBe('id');
+    const badBody = await request(app).post('/api/v1/things/3').set('X-Let-In', 'yes').send({ name: '' });
+    expect(badBody.status).toBe(400);
+    expect(badBody.headers['content-type']).toContain('application/problem+json');
+    expect(badBody.body.errors).toEqual([{ path: 'name', message: 'Enter a name.' }]);
+    const notJson = await request(app)
+      .post('/api/v1/things/3')
+      .set('X-Let-In', 'yes')
+      .type('text/plain')
+      .send('name=A');
+    expect(notJson.status).toBe(415);
+    await request(app).post('/api/v1/things/404').set('X-Let-In', 'yes').send({ name: 'A' }).expect(404);
+  });
+
+  it('answers 204 with no body', async () => {
+    const { app } = build();
+    const response = await request(app).delete('/api/v1/things/3').expect(204);
+    expect(response.text).toBe('');
+  });
+
+  it('documents each route from the same declaration', () => {
+    const { registry } = build();
+    const document = buildOpenApiDocument([registry], '0.0.0');
+    const post = (document.paths?.['/api/v1/things/{id}'] as Record<string, Record<string, unknown>>)[
+      'post'
+    ]!;
+    expect(post['summary']).toBe('Rename a thing');
+    expect(post['description']).toBe('Members only.');
+    expect(post['tags']).toEqual(['Things']);
+    expect(post['security']).toEqual([{ Member: [] }]);
+    expect(Object.keys(post['responses'] as object).sort()).toEqual(['201', '400', '403', '404']);
+    const example = (post['requestBody'] as { content: Record<string, { example: unknown }> }).content[
+      'application/json'
+    ]!.example;
+    expect(Body.parse(example)).toEqual({ name: 'Drum' });
+    const remove = (document.paths?.['/api/v1/things/{id}'] as Record<string, Record<string, unknown>>)[
+      'delete'
+    ]!;
+    expect(Object.keys(remove['responses'] as object).sort()).toEqual(['204', '400']);
+  });
+
+  it('serves exactly what it documents', () => {
+    const { app } = build();
+    expect(servedRoutes(app).map((route) => `${route.method} ${route.path}`)).toEqual([
+      'post /api/v1/things/{id}',
+      'delete /api/v1/things/{id}',
+    ]);
+  });
+
+  it('writes OpenAPI path parameters the way Express reads them', () => {
+    expect(toExpressPath('/customers/{id}/contacts/{contactId}')).toBe('/customers/:id/contacts/:contactId');
+  });
+});

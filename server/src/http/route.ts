@@ -1,0 +1,230 @@
+import type { OpenAPIRegistry, ResponseConfig, RouteConfig } from '@asteasolutions/zod-to-openapi';
+import express, { type Request, type RequestHandler, type Response, Router } from 'express';
+import type * as z from 'zod';
+import { PROBLEM_MEDIA_TYPE, ProblemSchema } from '@counterpoise/api';
+import { validateParams } from './params';
+import { requireJsonBody } from './problem';
+import { validateBody, validateQuery } from './validate';
+
+/** The HTTP methods a route may take. */
+export type RouteMethod = 'get' | 'post' | 'put' | 'patch' | 'delete';
+
+/**
+ * Who may call a route, as the app wires it: a name the route table maps to its guard (the middleware
+ * that lets the request through or refuses it) and to what the OpenAPI document says of it.
+ */
+export interface AccessRule {
+  /** The middleware that runs before anything else of the route: authentication, role checks. */
+  readonly guard: readonly RequestHandler[];
+  /** The OpenAPI `security` of the route; absent for a public route. */
+  readonly security?: RouteConfig['security'];
+  /** The refusals the guard may answer (401, 403, 429…), merged into the route's responses. */
+  readonly responses?: Readonly<Record<number, ResponseConfig>>;
+  /** A sentence for the route's description: who may call it. */
+  readonly describe?: string;
+}
+
+/** The answer of a route that succeeds. */
+export interface RouteAnswer<S extends z.ZodType | undefined> {
+  /** The status of the answer: 200, 201, 202 or 204. */
+  readonly status: 200 | 201 | 202 | 204;
+  readonly description: string;
+  /** The schema of the body (none for 202 and 204). */
+  readonly schema?: S;
+  /** An example the schema accepts (the documentation test parses it). */
+  readonly example?: S extends z.ZodType ? z.input<S> : never;
+  readonly headers?: ResponseConfig['headers'];
+}
+
+/** What a handler receives: the parsed, typed parts of the request and the signed-in person, if any. */
+export interface RouteInput<P, Q, B> {
+  readonly params: P;
+  readonly query: Q;
+  readonly body: B;
+  readonly req: Request;
+  readonly res: Response;
+}
+
+type Out<S> = S extends z.ZodType ? z.output<S> : undefined;
+type AnswerOf<S> = S extends z.ZodType ? z.input<S> : void;
+
+/**
+ * One route, declared once: method, path, the zod schemas of its parameters, query, body and answer,
+ * who may call it, its documentation and its handler. `RouteTable.add` mounts it on Express and
+ * registers it in the OpenAPI document from this one declaration, so the two cannot drift.
+ */
+export interface RouteDeclaration<
+  A extends string,
+  P extends z.ZodType | undefined,
+  Q extends z.ZodType | undefined,
+  B extends z.ZodType | undefined,
+  R extends z.ZodType | undefined,
+> {
+  readonly method: RouteMethod;
+  /** The path below the table's base, OpenAPI style: `/customers/{id}`. */
+  readonly path: string;
+  readonly summary: string;
+  readonly description?: string;
+  /** Who may call it: a name of the table's access rules. */
+  readonly access: A;
+  readonly params?: P;
+  readonly query?: Q;
+  readonly body?: B;
+  /** An example of the body that the body schema accepts. */
+  readonly bodyExample?: B extends z.ZodType ? z.input<B> : never;
+  /** Largest body accepted; 16 kB unless said. */
+  readonly bodyLimit?: string;
+  readonly answer: RouteAnswer<R>;
+  /** The route's own problem answers, by status: a description each (400 is added for any input). */
+  readonly problems?: Readonly<Record<number, string | ResponseConfig>>;
+  /** Middleware between the guard and the body parser: per-client limits, conditional checks. */
+  readonly before?: readonly RequestHandler[];
+  /**
+   * Answers the request. What it returns is sent with the answer's status as JSON (or an empty body
+   * for 202 and 204); a handler that wrote the answer itself (a cookie, a stream) returns nothing and
+   * leaves `res.headersSent` true.
+   */
+  readonly handle: (input: RouteInput<Out<P>, Out<Q>, Out<B>>) => AnswerOf<R> | Promise<AnswerOf<R>>;
+}
+
+/** A problem answer for a route's `responses`. */
+export function problemResponse(description: string, headers?: ResponseConfig['headers']): ResponseConfig {
+  return {
+    description,
+    ...(headers ? { headers } : {}),
+    content: { [PROBLEM_MEDIA_TYPE]: { schema: ProblemSchema } },
+  };
+}
+
+/** The 400 of every route that takes input. */
+const INVALID_INPUT = problemResponse(
+  'The request does not fit the route; `errors` names each parameter or field at fault.',
+);
+
+/** `/customers/{id}/contacts/{contactId}` as Express writes it: `/customers/:id/contacts/:contactId`. */
+export function toExpressPath(openApiPath: string): string {
+  return openApiPath.replace(/\{([A-Za-z_][A-Za-z0-9_]*)\}/g, ':$1');
+}
+
+/**
+ * The routes of one feature: each is declared once with `add`, which mounts it on `router` and
+ * registers it in `registry` under `basePath`. The access rules are given by the app, so that a
+ * feature names who may call a route without constructing any other feature's objects.
+ */
+export class RouteTable<A extends string> {
+  /** The Express router to mount at `basePath`. */
+  readonly router = Router();
+
+  constructor(
+    private readonly options: {
+      /** Where the router is mounted, as the OpenAPI document writes it (`/api/v1`). */
+      readonly basePath: string;
+      readonly registry: OpenAPIRegistry;
+      /** The OpenAPI tag of every route of the table. */
+      readonly tag: string;
+      readonly access: Readonly<Record<A, AccessRule>>;
+    },
+  ) {}
+
+  /** Declares one route: mounts it and documents it. */
+  add<
+    P extends z.ZodType | undefined = undefined,
+    Q extends z.ZodType | undefined = undefined,
+    B extends z.ZodType | undefined = undefined,
+    R extends z.ZodType | undefined = undefined,
+  >(route: RouteDeclaration<A, P, Q, B, R>): this {
+    const access = this.options.access[route.access];
+    this.register(route, access);
+    const handlers: RequestHandler[] = [
+      ...access.guard,
+      ...(route.params ? [validateParams(route.params)] : []),
+      ...(route.query ? [validateQuery(route.query)] : []),
+      ...(route.before ?? []),
+      ...(route.body
+        ? [
+            requireJsonBody,
+            express.json({ limit: route.bodyLimit ?? '16kb', type: () => true }),
+            validateBody(route.body),
+          ]
+        : []),
+      async (req, res) => {
+        const answer = await route.handle({
+          params: res.locals.params as Out<P>,
+          query: res.locals.query as Out<Q>,
+          body: res.locals.body as Out<B>,
+          req,
+          res,
+        });
+        if (res.headersSent) return;
+        res.status(route.answer.status);
+        if (route.answer.schema === undefined) res.end();
+        else res.json(answer);
+      },
+    ];
+    this.router[route.method](toExpressPath(route.path), ...handlers);
+    return this;
+  }
+
+  private register(
+    route: RouteDeclaration<
+      A,
+      z.ZodType | undefined,
+      z.ZodType | undefined,
+      z.ZodType | undefined,
+      z.ZodType | undefined
+    >,
+    access: AccessRule,
+  ): void {
+    const { answer } = route;
+    const responses: Record<number, ResponseConfig> = {
+      [answer.status]: {
+        description: answer.description,
+        ...(answer.headers ? { headers: answer.headers } : {}),
+        ...(answer.schema
+          ? {
+              content: {
+                'application/json': {
+                  schema: answer.schema,
+                  ...(answer.example === undefined ? {} : { example: answer.example }),
+                },
+              },
+            }
+          : {}),
+      },
+      ...access.responses,
+    };
+    if (route.params || route.query || route.body) responses[400] = INVALID_INPUT;
+    for (const [status, problem] of Object.entries(route.problems ?? {})) {
+      responses[Number(status)] = typeof problem === 'string' ? problemResponse(problem) : problem;
+    }
+    const description = [access.describe, route.description].filter(Boolean).join(' ');
+    this.options.registry.registerPath({
+      method: route.method,
+      path: `${this.options.basePath}${route.path}`,
+      tags: [this.options.tag],
+      summary: route.summary,
+      ...(description ? { description } : {}),
+      ...(access.security ? { security: access.security } : {}),
+      request: {
+        ...(route.params ? { params: route.params as RouteParameter } : {}),
+        ...(route.query ? { query: route.query as RouteParameter } : {}),
+        ...(route.body
+          ? {
+              body: {
+                required: true,
+                content: {
+                  'application/json': {
+                    schema: route.body,
+                    ...(route.bodyExample === undefined ? {} : { example: route.bodyExample }),
+                  },
+                },
+              },
+            }
+          : {}),
+      },
+      responses,
+    });
+  }
+}
+
+type RouteParameter = NonNullable<NonNullable<RouteConfig['request']>['params']>;
