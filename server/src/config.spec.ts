@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ConfigError, loadConfig } from './config';
+import { ConfigError, demoDataNotice, loadConfig } from './config';
 
 describe('loadConfig', () => {
   it('starts on port 4300 with the SQLite file under data/ when nothing is set', () => {
@@ -41,5 +41,52 @@ describe('loadConfig', () => {
     );
     expect(() => loadConfig({ CORS_ORIGINS: 'portal.example' })).toThrow(/CORS_ORIGINS/);
     expect(() => loadConfig({ API_KEY_DEFAULT_LIMIT: '0' })).toThrow(/API_KEY_DEFAULT_LIMIT/);
+  });
+
+  it('seeds no demo data in production unless SEED_DEMO asks for it', () => {
+    expect(loadConfig({ NODE_ENV: 'production' }).SEED_DEMO).toBe(false);
+    expect(loadConfig({ NODE_ENV: 'production', SEED_DEMO: 'true' }).SEED_DEMO).toBe(true);
+    expect(loadConfig({ NODE_ENV: 'production', SEED_DEMO: '1' }).SEED_DEMO).toBe(true);
+  });
+
+  it('seeds the demo data in development and tests unless SEED_DEMO says no', () => {
+    expect(loadConfig({ NODE_ENV: 'development' }).SEED_DEMO).toBe(true);
+    expect(loadConfig({ NODE_ENV: 'test' }).SEED_DEMO).toBe(true);
+    expect(loadConfig({ NODE_ENV: 'development', SEED_DEMO: 'no' }).SEED_DEMO).toBe(false);
+  });
+});
+
+describe('demoDataNotice', () => {
+  const notice = (env: NodeJS.ProcessEnv, present: boolean) => demoDataNotice(loadConfig(env), present);
+
+  it('says why the demo data is off in production, and how to turn it on', () => {
+    expect(notice({ NODE_ENV: 'production' }, false)).toEqual({
+      status: 'off (NODE_ENV=production; set SEED_DEMO=true to seed it)',
+    });
+  });
+
+  it('says the demo data is on by default outside production, without a warning', () => {
+    expect(notice({}, true)).toEqual({
+      status: 'on (NODE_ENV=development; set SEED_DEMO=false to start without it)',
+    });
+    expect(notice({ NODE_ENV: 'test', SEED_DEMO: 'false' }, false)).toEqual({
+      status: 'off (SEED_DEMO=false)',
+    });
+  });
+
+  it('warns when a production server is given the demo data', () => {
+    const { status, warning } = notice({ NODE_ENV: 'production', SEED_DEMO: 'true' }, true);
+    expect(status).toBe('on (SEED_DEMO=true)');
+    expect(warning).toMatch(/^WARNING: .*NODE_ENV=production and holds the demo data/);
+    expect(warning).toContain('password published in the README');
+  });
+
+  it('warns when a production server holds the demo data of an earlier start, even with seeding off', () => {
+    const { status, warning } = notice({ NODE_ENV: 'production' }, true);
+    expect(status).toBe(
+      'off (NODE_ENV=production; set SEED_DEMO=true to seed it), ' +
+        'but the database holds the demo data of an earlier start',
+    );
+    expect(warning).toMatch(/^WARNING: /);
   });
 });

@@ -45,7 +45,11 @@ const ConfigSchema = z.object({
     .default('data/counterpoise.sqlite')
     .transform((url) => url.replace(/^file:/, '')),
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
-  SEED_DEMO: flag.default(true),
+  /**
+   * Seed the demo scenario (people with a published password, a working API key) into an empty
+   * database. Unset, it follows NODE_ENV: off in production, on otherwise.
+   */
+  SEED_DEMO: flag.optional(),
   STATIC_DIR: z.string().min(1).default('dist/workbench/browser'),
   /** Web pages on these origins may call `/api/v1` from the browser. */
   CORS_ORIGINS: origins,
@@ -81,7 +85,17 @@ const ConfigSchema = z.object({
   USER_CALC_LIMIT: z.coerce.number().int().min(1).max(MAX_LIMIT_PER_MINUTE).default(600),
 });
 
-export type Config = z.infer<typeof ConfigSchema>;
+/** The settings completed with the defaults that depend on one another. */
+const CompletedConfigSchema = ConfigSchema.transform(({ SEED_DEMO, ...settings }) => ({
+  ...settings,
+  // A production server must not hand out the README's password and a working key unless asked to.
+  SEED_DEMO: SEED_DEMO ?? settings.NODE_ENV !== 'production',
+  /** Whether SEED_DEMO was set or follows NODE_ENV, so that the start-up can say why. */
+  seedDemoSetBy: SEED_DEMO === undefined ? ('NODE_ENV' as const) : ('SEED_DEMO' as const),
+}));
+
+/** The server's settings, as checked and completed by `loadConfig`. */
+export type Config = z.infer<typeof CompletedConfigSchema>;
 
 /** Thrown when the environment does not describe a server that can start. */
 export class ConfigError extends Error {
@@ -93,8 +107,41 @@ export class ConfigError extends Error {
  * `PORT` stops the start-up instead of surfacing later as a puzzling error.
  */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
-  const parsed = ConfigSchema.safeParse(env);
+  const parsed = CompletedConfigSchema.safeParse(env);
   if (parsed.success) return parsed.data;
   const lines = parsed.error.issues.map((issue) => `  ${issue.path.join('.')}: ${issue.message}`);
   throw new ConfigError(`The configuration in the environment is not valid:\n${lines.join('\n')}`);
+}
+
+/** What the start-up says about the demo data: on or off and why, and a warning when it matters. */
+export interface DemoDataNotice {
+  /** E.g. `off (NODE_ENV=production; set SEED_DEMO=true to seed it)`, printed after "Demo data:". */
+  readonly status: string;
+  readonly warning?: string;
+}
+
+/**
+ * Says whether the demo data is on and why, so that nobody has to guess which default applied; and warns
+ * when a production server holds it (seeded now or on an earlier start), because anyone who has read the
+ * README can then sign in as its owner and call the API with its key.
+ */
+export function demoDataNotice(config: Config, present: boolean): DemoDataNotice {
+  let status: string;
+  if (config.seedDemoSetBy === 'SEED_DEMO') {
+    status = `${config.SEED_DEMO ? 'on' : 'off'} (SEED_DEMO=${config.SEED_DEMO})`;
+  } else if (config.SEED_DEMO) {
+    status = `on (NODE_ENV=${config.NODE_ENV}; set SEED_DEMO=false to start without it)`;
+  } else {
+    status = 'off (NODE_ENV=production; set SEED_DEMO=true to seed it)';
+  }
+  if (!config.SEED_DEMO && present) status += ', but the database holds the demo data of an earlier start';
+  if (config.NODE_ENV !== 'production' || !present) return { status };
+  return {
+    status,
+    warning: [
+      'WARNING: this server runs with NODE_ENV=production and holds the demo data. Its people sign in',
+      'with the password published in the README, and its demo API key works. Use it to try Counterpoise',
+      'on your own machine only; a real installation starts from a new database without SEED_DEMO=true.',
+    ].join('\n'),
+  };
 }

@@ -2,11 +2,13 @@ import { existsSync } from 'node:fs';
 import type { IncomingMessage, ServerResponse } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { dirname, join } from 'node:path';
+import { eq } from 'drizzle-orm';
 import { createApp } from './app';
 import { systemClock } from './clock';
-import { ConfigError, loadConfig } from './config';
+import { ConfigError, demoDataNotice, loadConfig } from './config';
 import { migrateDatabase, openDatabase } from './db/database';
-import { seedDemoData } from './db/seed';
+import { appMeta } from './db/schema';
+import { DEMO_SEEDED_KEY, seedDemoData } from './db/seed';
 import { DEMO_SEEDERS } from './db/demo-seeders';
 import { DEMO_API_KEY_FILE } from './keys/keys.seed';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from './auth/accounts.seed';
@@ -30,6 +32,11 @@ async function main(): Promise<void> {
   const seed = config.SEED_DEMO
     ? seedDemoData(database, systemClock.now(), DEMO_SEEDERS, { dataDir })
     : { seeded: false };
+  const demoData = demoDataNotice(
+    config,
+    seed.seeded ||
+      database.orm.select().from(appMeta).where(eq(appMeta.key, DEMO_SEEDED_KEY)).get() !== undefined,
+  );
   // Where the demo key is, never the key itself: logs travel further than the data folder.
   const demoKeyFile = join(dataDir, DEMO_API_KEY_FILE);
 
@@ -69,6 +76,7 @@ async function main(): Promise<void> {
         `Counterpoise ${VERSION} is running at http://${host}:${port}`,
         `  API reference: http://${host}:${port}/api/docs`,
         `  Database:      ${config.DATABASE_URL} (${migrations} migrations applied${seed.seeded ? ', demo data seeded' : ''})`,
+        `  Demo data:     ${demoData.status}`,
         ...(existsSync(demoKeyFile) ? [`  Demo API key:  in ${demoKeyFile}`] : []),
         capture
           ? `  E-mail:        kept by the local mail server on 127.0.0.1:${capture.port}; owners read it in the workbench's Outbox`
@@ -81,6 +89,7 @@ async function main(): Promise<void> {
           : []),
       ].join('\n'),
     );
+    if (demoData.warning) console.warn(`\n${demoData.warning}\n`);
   });
 
   let stopping = false;
