@@ -1,39 +1,83 @@
 // `npm start`: builds the widget library and the workbench, then serves the app, the API and Swagger UI
 // from one Express process. The server migrates the SQLite file (created when absent) and seeds the demo
 // data once. PORT, HOST and DATABASE_URL override the defaults (4300, localhost, data/counterpoise.sqlite).
-import { spawn, spawnSync } from 'node:child_process';
+//
+// The server runs with NODE_ENV=production, where it seeds no demo data by default; `npm start` is how
+// people try Counterpoise, so it asks for the demo data (SEED_DEMO=true) unless SEED_DEMO is set.
+// SKIP_BUILD=true serves the build already in dist/ instead of building again.
+//
+// npm runs this script as `exec node scripts/start.mjs` (see package.json), so that this process is the
+// one npm waits for and signals; a SIGINT or SIGTERM is handed on to the build or the server under way,
+// and this process exits when it has finished.
+import { spawn } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import { constants } from 'node:os';
+import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 const ng = fileURLToPath(new URL('../node_modules/@angular/cli/bin/ng.js', import.meta.url));
 const env = { ...process.env, NG_CLI_ANALYTICS: 'false' };
 
-// The library's build imports @counterpoise/engine and @counterpoise/api as packages, built first.
-console.log('\nBuilding the shared packages…');
-const shared = spawnSync(process.execPath, [fileURLToPath(new URL('./build-shared.mjs', import.meta.url))], {
-  cwd: root,
-  env,
-  stdio: 'inherit',
-});
-if (shared.status !== 0) {
-  console.error('\nThe build of the shared packages failed; the server was not started.');
-  process.exit(shared.status ?? 1);
+/** The child under way (a build, then the server): where a stop signal goes. */
+let current;
+let stopSignal;
+for (const signal of ['SIGINT', 'SIGTERM']) {
+  process.on(signal, () => {
+    stopSignal ??= signal;
+    current?.kill(signal);
+  });
 }
 
-for (const project of ['counterpoise', 'workbench']) {
-  console.log(`\nBuilding ${project}…`);
-  const build = spawnSync(process.execPath, [ng, 'build', project], { cwd: root, env, stdio: 'inherit' });
-  if (build.status !== 0) {
-    console.error(`\nThe build of ${project} failed; the server was not started.`);
-    process.exit(build.status ?? 1);
+/** Runs one step to its end; resolves with its exit code, or with the signal that ended it. */
+function run(args, options) {
+  return new Promise((settle, fail) => {
+    current = spawn(process.execPath, args, { cwd: root, stdio: 'inherit', ...options });
+    current.on('error', fail);
+    current.on('exit', (code, signal) => settle({ code, signal }));
+  });
+}
+
+/** Exits with the step's code, or as a shell reports a process ended by a signal (128 + its number). */
+function exitLike({ code, signal }) {
+  process.exit(code ?? 128 + (constants.signals[signal] ?? 0));
+}
+
+const builds = [
+  // The library's build imports @counterpoise/engine and @counterpoise/api as packages, built first.
+  { name: 'the shared packages', args: [fileURLToPath(new URL('./build-shared.mjs', import.meta.url))] },
+  { name: 'counterpoise', args: [ng, 'build', 'counterpoise'] },
+  { name: 'workbench', args: [ng, 'build', 'workbench'] },
+];
+const skipBuild = ['true', '1', 'yes'].includes(process.env.SKIP_BUILD ?? '');
+
+if (skipBuild) {
+  const staticDir = resolve(root, process.env.STATIC_DIR ?? 'dist/workbench/browser');
+  if (!existsSync(join(staticDir, 'index.html'))) {
+    console.warn(`\nSKIP_BUILD: no built workbench in ${staticDir}; the API is served without it.`);
+  }
+} else {
+  for (const build of builds) {
+    console.log(`\nBuilding ${build.name}…`);
+    const result = await run(build.args, { env });
+    if (stopSignal) {
+      console.error(`\n${stopSignal} received during the build; the server was not started.`);
+      exitLike({ code: null, signal: stopSignal });
+    }
+    if (result.code !== 0) {
+      console.error(`\nThe build of ${build.name} failed; the server was not started.`);
+      exitLike(result);
+    }
   }
 }
 
+if (process.env.SEED_DEMO === undefined) {
+  console.log(
+    '\nnpm start seeds the demo data for a local try (SEED_DEMO=true); SEED_DEMO=false starts without it.',
+  );
+}
 // tsx runs in the server's own process (not a child of its CLI), so signals reach the graceful shutdown.
-const server = spawn(process.execPath, ['--import', 'tsx', 'server/src/main.ts'], {
-  cwd: root,
-  env: { NODE_ENV: 'production', ...env },
-  stdio: 'inherit',
+const server = await run(['--import', 'tsx', 'server/src/main.ts'], {
+  env: { NODE_ENV: 'production', SEED_DEMO: 'true', ...env },
 });
-for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => server.kill(signal));
-server.on('exit', (code, signal) => process.exit(code ?? (signal ? 1 : 0)));
+exitLike(server);
