@@ -51,23 +51,46 @@ export function methodNotAllowed(...allowed: readonly string[]): RequestHandler 
   };
 }
 
-/** A 415 problem unless the request says its body is JSON. */
+/** The charset parameter of a Content-Type, quoted or not. */
+const CHARSET_PARAMETER = /;\s*charset\s*=\s*(?:"([^"]*)"|([^;\s]*))/i;
+const UNSUPPORTED_CHARSET_DETAIL =
+  'The body must be JSON in UTF-8: send Content-Type: application/json, with no charset or charset=utf-8.';
+const UNSUPPORTED_CHARSET = new HttpProblem(415, 'Unsupported Media Type', UNSUPPORTED_CHARSET_DETAIL);
+
+/**
+ * A 415 problem unless the request says its body is JSON, in UTF-8. RFC 8259 (8.1) has JSON exchanged
+ * between systems in UTF-8 alone; a body declared in another charset (`koi8-r`, or `utf-7`, which the
+ * parser would decode and so let `+ADw-` through as `<`) is refused before it is read, whatever parser
+ * follows.
+ */
 export const requireJsonBody: RequestHandler = (req, _res, next) => {
-  if (req.is('application/json')) {
-    next();
+  if (!req.is('application/json')) {
+    const sent = req.headers['content-type'] ?? 'no Content-Type';
+    next(
+      new HttpProblem(
+        415,
+        'Unsupported Media Type',
+        `The body must be JSON, sent with Content-Type: application/json (got ${sent}).`,
+      ),
+    );
     return;
   }
-  const sent = req.headers['content-type'] ?? 'no Content-Type';
-  next(
-    new HttpProblem(
-      415,
-      'Unsupported Media Type',
-      `The body must be JSON, sent with Content-Type: application/json (got ${sent}).`,
-    ),
-  );
+  const contentType = req.headers['content-type']!;
+  if (contentType.includes(';')) {
+    const match = CHARSET_PARAMETER.exec(contentType);
+    const charset = (match?.[1] ?? match?.[2])?.toLowerCase();
+    if (charset !== undefined && charset !== 'utf-8') {
+      next(UNSUPPORTED_CHARSET);
+      return;
+    }
+  }
+  next();
 };
 
-/** The status and wording of the errors Express's own body parsers raise. */
+/**
+ * The status and wording of the errors Express's own body parsers raise (body-parser and raw-body set
+ * `type` on each). Each is the client's doing, so none is logged.
+ */
 const BODY_PARSER_ERRORS: Record<string, { status: number; title: string; detail: string }> = {
   'entity.parse.failed': {
     status: 400,
@@ -82,9 +105,60 @@ const BODY_PARSER_ERRORS: Record<string, { status: number; title: string; detail
   'encoding.unsupported': {
     status: 415,
     title: 'Unsupported Media Type',
-    detail: 'The body uses a content encoding this server does not read.',
+    detail:
+      'The body uses a Content-Encoding this server does not read; send it as it is, or in gzip, deflate or br.',
+  },
+  'charset.unsupported': {
+    status: 415,
+    title: 'Unsupported Media Type',
+    detail: UNSUPPORTED_CHARSET_DETAIL,
+  },
+  'request.size.invalid': {
+    status: 400,
+    title: 'Bad Request',
+    detail: 'The body is not as long as its Content-Length says.',
+  },
+  'request.aborted': {
+    status: 400,
+    title: 'Bad Request',
+    detail: 'The request was broken off before its body had arrived.',
   },
 };
+
+/** The encodings body-parser decompresses; any other is refused as `encoding.unsupported`. */
+const DECOMPRESSED_ENCODINGS = new Set(['gzip', 'deflate', 'br', 'zstd']);
+
+/**
+ * The problem of a body that failed to decompress, or whose stream broke, or undefined for any other
+ * error. body-parser passes such a failure on as the stream's own error (zlib's `Z_DATA_ERROR`, a
+ * Brotli `ERR_…` code, a socket's `ECONNRESET`: a Node error with `code` and `errno`), marked for the
+ * client (`expose`) with status 400 and no `type`.
+ */
+function unreadableBody(error: unknown, contentEncoding: string | undefined): Problem | undefined {
+  const candidate = error as
+    | { status?: unknown; expose?: unknown; type?: unknown; code?: unknown; errno?: unknown }
+    | null
+    | undefined;
+  if (
+    candidate?.status !== 400 ||
+    candidate.expose !== true ||
+    candidate.type !== undefined ||
+    typeof candidate.code !== 'string' ||
+    typeof candidate.errno !== 'number'
+  ) {
+    return undefined;
+  }
+  const encoding = contentEncoding?.trim().toLowerCase();
+  return {
+    type: 'about:blank',
+    title: 'Bad Request',
+    status: 400,
+    detail:
+      encoding !== undefined && DECOMPRESSED_ENCODINGS.has(encoding)
+        ? `The body is not valid ${encoding} data, as its Content-Encoding says: it is corrupt or cut short.`
+        : 'The body could not be read to its end.',
+  };
+}
 
 /**
  * The last handler: every error becomes a problem answer. Anything unexpected is logged and answered
@@ -113,6 +187,11 @@ export function problemHandler(log: (message: string, error: unknown) => void): 
     const parserError = typeof parserType === 'string' ? BODY_PARSER_ERRORS[parserType] : undefined;
     if (parserError) {
       sendProblem(res, { type: 'about:blank', ...parserError, instance });
+      return;
+    }
+    const unreadable = unreadableBody(error, req.headers['content-encoding']);
+    if (unreadable) {
+      sendProblem(res, { ...unreadable, instance });
       return;
     }
     log(`Unexpected error on ${req.method} ${instance}`, error);
