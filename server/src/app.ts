@@ -43,6 +43,12 @@ export interface AppDeps {
   readonly usageLog?: UsageLog;
   /** Web origins whose pages may call `/api/v1` (CORS); none by default. */
   readonly corsOrigins?: readonly string[];
+  /**
+   * Every request reaches the server over HTTPS (a proxy ends TLS in front of it; `COOKIE_SECURE`):
+   * send `Strict-Transport-Security` on every answer. Without it, only answers to requests that came
+   * over HTTPS themselves carry it.
+   */
+  readonly secureTransport?: boolean;
   /** Sign-in, people and e-mail; tests leave out what they do not need. */
   readonly accounts?: AccountsDeps;
 }
@@ -97,7 +103,7 @@ export function createApp(deps: AppDeps): Express {
   // every body. The workbench's files keep theirs (express.static sets its own).
   app.set('etag', false);
   app.set('query parser', 'simple');
-  app.use(securityHeaders());
+  app.use(securityHeaders({ secureTransport: deps.secureTransport ?? false }));
 
   const accounts = deps.accounts ?? {};
   const mailer = accounts.mailer ?? NO_MAILER;

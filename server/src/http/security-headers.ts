@@ -1,22 +1,25 @@
 import type { RequestHandler } from 'express';
 import helmet from 'helmet';
+import { normaliseRoutePath } from './route-path';
 
 /**
  * helmet for the pages: the workbench and Swagger UI. Its defaults, less `upgrade-insecure-requests`:
  * the product is served over plain HTTP on a shop's network, where upgrading would break every asset.
+ * `Strict-Transport-Security` is added apart, and only over HTTPS (see `securityHeaders`).
  */
 const pageHeaders = helmet({
   contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } },
+  strictTransportSecurity: false,
 });
 
 /**
  * helmet for the JSON answers of the API, the headers the OWASP REST Security Cheat Sheet ("Security
  * Headers") lists for every API response: `Cache-Control: no-store`, `Content-Security-Policy:
- * frame-ancestors 'none'` (with `default-src 'none'`: a JSON answer loads nothing), `Strict-Transport-Security`,
- * `X-Content-Type-Options: nosniff` and `X-Frame-Options: DENY`, plus `Cross-Origin-Resource-Policy` and
- * `Referrer-Policy`. The headers meant for HTML documents (DNS prefetch, download options, Flash policies,
- * the old XSS filter, origin-agent clustering, the opener policy) are left off: on a JSON answer they
- * protect nothing and cost bytes on every one of the busiest responses.
+ * frame-ancestors 'none'` (with `default-src 'none'`: a JSON answer loads nothing), `Strict-Transport-Security`
+ * (over HTTPS, see `securityHeaders`), `X-Content-Type-Options: nosniff` and `X-Frame-Options: DENY`, plus
+ * `Cross-Origin-Resource-Policy` and `Referrer-Policy`. The headers meant for HTML documents (DNS prefetch,
+ * download options, Flash policies, the old XSS filter, origin-agent clustering, the opener policy) are left
+ * off: on a JSON answer they protect nothing and cost bytes on every one of the busiest responses.
  */
 const apiHelmet = helmet({
   contentSecurityPolicy: {
@@ -25,6 +28,7 @@ const apiHelmet = helmet({
   },
   crossOriginOpenerPolicy: false,
   originAgentCluster: false,
+  strictTransportSecurity: false,
   xDnsPrefetchControl: false,
   xDownloadOptions: false,
   xFrameOptions: { action: 'deny' },
@@ -37,12 +41,39 @@ const apiHeaders: RequestHandler = (req, res, next) => {
   apiHelmet(req, res, next);
 };
 
-/** Whether a path is one of the API's JSON answers (everything under `/api` but the Swagger UI page). */
+/** helmet's own `Strict-Transport-Security` (a year, subdomains included), for answers over HTTPS. */
+const hsts = helmet.strictTransportSecurity();
+
+/**
+ * Whether a path is one of the API's JSON answers (everything under `/api` but the Swagger UI page).
+ * The path is read as Express routes it (`normaliseRoutePath`): `/API/v1/usage` reaches the API, so it
+ * gets the API's headers.
+ */
 export function isJsonApiPath(path: string): boolean {
-  return path.startsWith('/api/') && !path.startsWith('/api/docs');
+  const normal = normaliseRoutePath(path);
+  return normal.startsWith('/api/') && !normal.startsWith('/api/docs');
 }
 
-/** The security headers of every answer: the API's set on JSON routes, the pages' set elsewhere. */
-export function securityHeaders(): RequestHandler {
-  return (req, res, next) => (isJsonApiPath(req.path) ? apiHeaders : pageHeaders)(req, res, next);
+/** How the server is reached, for the headers that depend on it. */
+export interface SecurityHeaderOptions {
+  /**
+   * Every request reaches the server over HTTPS, through a proxy that ends TLS in front of it (what
+   * `COOKIE_SECURE` says): send `Strict-Transport-Security` on every answer. Without it, the header goes
+   * only on answers to requests that came over HTTPS themselves (`req.secure`): over plain HTTP a browser
+   * ignores it (RFC 6797, 8.1), and the product is often served over plain HTTP on a shop's network.
+   */
+  readonly secureTransport?: boolean;
+}
+
+/**
+ * The security headers of every answer: the API's set on JSON routes, the pages' set elsewhere, and
+ * `Strict-Transport-Security` over HTTPS only.
+ */
+export function securityHeaders(options: SecurityHeaderOptions = {}): RequestHandler {
+  const always = options.secureTransport === true;
+  return (req, res, next) => {
+    const headers = isJsonApiPath(req.path) ? apiHeaders : pageHeaders;
+    if (always || req.secure) hsts(req, res, () => headers(req, res, next));
+    else headers(req, res, next);
+  };
 }
