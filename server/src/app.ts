@@ -24,6 +24,7 @@ import { PeopleService } from './people/people.service';
 import { requirePermission } from './auth/require-user';
 import { buildOpenApiDocument, openApiRouter } from './openapi/openapi';
 import { UsageLog } from './usage/usage-log';
+import { documentedPaths } from './usage/usage.recorder';
 import { usageRegistry } from './usage/usage.router';
 import { VERSION } from './version';
 
@@ -128,6 +129,7 @@ export function createApp(deps: AppDeps): Express {
     clock,
     usage: usageLog,
     corsOrigins: deps.corsOrigins ?? [],
+    documentedPaths: documentedPaths(OPENAPI_REGISTRIES),
     keys,
     tokens: auth,
     ...(accounts.userCalcLimitPerMinute === undefined

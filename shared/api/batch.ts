@@ -4,7 +4,10 @@ import { ProblemSchema } from './problem';
 /** The most items one batch may carry. */
 export const MAX_BATCH_ITEMS = 1000;
 
-/** `POST /api/v1/calc/batch`: many calculations in one request, each answered on its own. */
+/**
+ * `POST /api/v1/calc/batch`: many calculations in one request, each answered on its own. Each item is one
+ * calculation of the key's limit per minute, and one row of its usage, as if it were sent alone.
+ */
 export const BatchRequestSchema = z
   .strictObject({
     items: z

@@ -75,7 +75,15 @@ export const UsageQuerySchema = z.strictObject(
 /** The sums over a set of keyed requests. */
 export const UsageFiguresSchema = z
   .object({
-    requests: z.number().int().nonnegative(),
+    requests: z
+      .number()
+      .int()
+      .nonnegative()
+      .meta({
+        description:
+          'Keyed requests, counted as the rate limit counts calculations: each item of a batch is one; a ' +
+          'batch refused before its items are answered (over the limit, or a body that does not fit) is one.',
+      }),
     clientErrors: z.number().int().nonnegative().meta({ description: 'Answers with a 4xx status.' }),
     serverErrors: z.number().int().nonnegative().meta({ description: 'Answers with a 5xx status.' }),
     rateLimited: z
@@ -93,7 +101,8 @@ export const UsageFiguresSchema = z
 export const UsageGroupSchema = UsageFiguresSchema.extend({
   group: z.string().meta({
     description:
-      'The UTC day (`2026-05-01`), the route (`POST /api/v1/calc/single-plane`) or the key prefix.',
+      'The UTC day (`2026-05-01`), the route (`POST /api/v1/calc/single-plane`) or the key prefix. A path ' +
+      'that no route documents is grouped under its method and `(unknown route)`, e.g. `GET (unknown route)`.',
   }),
   keyName: z.string().optional().meta({ description: 'The name of the key, when grouped by key.' }),
 }).meta({ id: 'UsageGroup' });

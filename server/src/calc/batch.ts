@@ -12,8 +12,10 @@ import type * as z from 'zod';
 import type { Clock } from '../clock';
 import { sendJsonText } from '../http/json';
 import type { UsageSink } from '../http/keyed-request';
+import { unknownRouteLabel } from '../http/route-path';
 
 const CALC_ROUTE_PREFIX = 'POST /api/v1/calc/';
+const UNKNOWN_ROUTE = unknownRouteLabel('POST');
 
 function unknownRouteProblem(route: string): Problem {
   const message = `"${route}" is not a calculator route; use one of ${CALC_ROUTE_NAMES.join(', ')}.`;
@@ -28,9 +30,11 @@ function unknownRouteProblem(route: string): Problem {
 }
 
 /**
- * Answers every item of a batch on its own, in order, and logs one usage row per item. Each item's JSON is
- * written once and its length is the row's byte count, so the log costs no second serialisation. The rows
- * share the time of the request: its items are answered together.
+ * Answers every item of a batch on its own, in order, and logs one usage row per item, as each item is
+ * one calculation of the key's limit; an item naming no calculator route is logged under the same fixed
+ * label as any unknown route. Each item's JSON is written once and its length is the row's byte count, so
+ * the log costs no second serialisation. The rows share the time of the request: its items are answered
+ * together. The caller has counted the items against the limit (`takeBatchCalculations`) beforehand.
  */
 export function answerBatch(
   res: Response,
@@ -55,7 +59,7 @@ export function answerBatch(
     if (key) {
       deps.usage.record({
         keyId: key.id,
-        route: CALC_ROUTE_PREFIX + (isCalcRouteName(item.route) ? item.route : '(unknown)'),
+        route: isCalcRouteName(item.route) ? CALC_ROUTE_PREFIX + item.route : UNKNOWN_ROUTE,
         status: outcome.status,
         durationMs: performance.now() - started,
         bytes: Buffer.byteLength(json),

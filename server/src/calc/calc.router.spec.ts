@@ -159,7 +159,7 @@ describe('POST /api/v1/calc/batch', () => {
     expect(rows.map((row) => [row.keyId, row.route, row.status])).toEqual([
       [7, 'POST /api/v1/calc/single-plane', 200],
       [7, 'POST /api/v1/calc/radius', 400],
-      [7, 'POST /api/v1/calc/(unknown)', 404],
+      [7, 'POST (unknown route)', 404],
       [7, 'POST /api/v1/calc/trial-weight', 200],
     ]);
     for (const row of rows) expect(row.bytes).toBeGreaterThan(10);

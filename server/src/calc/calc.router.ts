@@ -13,9 +13,11 @@ import type * as z from 'zod';
 import type { Clock } from '../clock';
 import type { UsageSink } from '../http/keyed-request';
 import { inSequence } from '../http/in-sequence';
+import { normaliseRoutePath } from '../http/route-path';
 import { sendJsonText } from '../http/json';
 import { apiNotFound, HttpProblem, methodNotAllowed, requireJsonBody } from '../http/problem';
 import { validateBody } from '../http/validate';
+import { takeBatchCalculations } from '../keys/api-key.rate-limit';
 import { API_KEY_SECURITY, KEYED_ROUTE_RESPONSES, RATE_LIMIT_HEADERS } from '../keys/keys.openapi';
 import { answerBatch } from './batch';
 
@@ -92,7 +94,9 @@ calcRegistry.registerPath({
   description:
     'Up to 1,000 items, each `{ id?, route, body }` with `route` one of the calculator routes. Each item is ' +
     'validated and answered on its own, with the status that route alone would give; one bad item never ' +
-    'fails the others. Usage counts one row per item.',
+    'fails the others. Each item is one calculation: a batch of n counts n against the key’s limit per ' +
+    'minute and in its usage, one row per item. A batch larger than what remains of the limit is refused ' +
+    'whole (429) before any item is computed.',
   security: API_KEY_SECURITY,
   request: {
     body: {
@@ -124,8 +128,9 @@ calcRegistry.registerPath({
  * The calculator routes, `POST /<route>` and `POST /batch`, as one handler mounted at `CALC_BASE_PATH`
  * behind the API-key, rate-limit and usage middleware. One lookup in a table finds the route, where a
  * router would try each route's pattern in turn: these are the API's busiest requests. Every path under
- * the mount is answered here: another method gets 405, an unknown route 404. A batch logs its own usage
- * rows, one per item.
+ * the mount is answered here: another method gets 405, an unknown route 404. A batch counts its items
+ * against the key's limit once they are validated, before computing any, and logs its own usage rows, one
+ * per item.
  */
 export function calcRouter(deps: { usage: UsageSink; clock: Clock }): RequestHandler {
   const parseCalc = express.json({ limit: CALC_BODY_LIMIT, type: () => true });
@@ -136,7 +141,12 @@ export function calcRouter(deps: { usage: UsageSink; clock: Clock }): RequestHan
       requireJsonBody,
       express.json({ limit: BATCH_BODY_LIMIT, type: () => true }),
       validateBody(BatchRequestSchema),
-      (_req, res) => answerBatch(res, deps, (res.locals.body as z.output<typeof BatchRequestSchema>).items),
+      (_req, res, next) => {
+        const { items } = res.locals.body as z.output<typeof BatchRequestSchema>;
+        const refusal = takeBatchCalculations(res, items.length);
+        if (refusal) next(refusal);
+        else answerBatch(res, deps, items);
+      },
     ),
   );
   for (const name of CALC_ROUTE_NAMES) {
@@ -153,10 +163,9 @@ export function calcRouter(deps: { usage: UsageSink; clock: Clock }): RequestHan
   const onlyPost = methodNotAllowed('POST');
 
   return (req, res, next) => {
-    // Express matches paths without regard to case or a trailing slash; so does this table.
-    let path = req.path.toLowerCase();
-    if (path.length > 1 && path.endsWith('/')) path = path.slice(0, -1);
-    const answer = answers.get(path);
+    // Express matches paths without regard to case or a trailing slash; so does this table, and the
+    // usage log names the route by the same reading.
+    const answer = answers.get(normaliseRoutePath(req.path));
     if (answer === undefined) apiNotFound(req, res, next);
     else if (req.method !== 'POST') onlyPost(req, res, next);
     else answer(req, res, next);

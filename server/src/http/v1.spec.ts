@@ -85,7 +85,13 @@ describe('CORS on /api/v1', () => {
 describe('routes mounted on the keyed chain', () => {
   /** An app like createApp's, with stand-ins for the calculator's routes on the chain. */
   function appWithRoutes(sink: UsageSink) {
-    const v1 = keyedV1Router({ database: temporary.database, clock, usage: sink, corsOrigins: [] });
+    const v1 = keyedV1Router({
+      database: temporary.database,
+      clock,
+      usage: sink,
+      corsOrigins: [],
+      documentedPaths: new Set(['/api/v1/calc/single-plane', '/api/v1/calc/batch']),
+    });
     const calc = Router();
     calc.post('/single-plane', express.json(), (_req, res) => {
       res.json({ keyName: res.locals.apiKey?.name });

@@ -24,8 +24,13 @@ export interface KeyedV1Deps {
   readonly keys?: ApiKeyService;
   /** Accepts signed-in people's access tokens beside API keys. */
   readonly tokens?: AccessTokenCheck;
-  /** Requests per minute of a signed-in person on these routes. */
+  /** Calculations per minute of a signed-in person on these routes (a batch of n counts n). */
   readonly userLimitPerMinute?: number;
+  /**
+   * The paths the API documents (`documentedPaths` of its OpenAPI registries): a usage row names one
+   * of these, or the fixed label of an unknown route.
+   */
+  readonly documentedPaths: ReadonlySet<string>;
 }
 
 /**
@@ -54,7 +59,8 @@ function corsFor(origins: readonly string[]): RequestHandler {
  * (`app.use(path, chain, routes)`): its rate-limit counters and key cache are then shared by every mount.
  *
  * With `tokens`, a signed-in person's access token is accepted in place of a key; such requests are
- * rate-limited per person and leave no usage row (usage is the keys' account).
+ * rate-limited per person and leave no usage row (usage is the keys' account). The limit counts
+ * calculations, as the usage log does: a request counts one, a batch of n counts n.
  *
  * The recorder sits before the rate limit so that a refused 429 is still a logged request of its key;
  * requests without a valid key have no key to log against and are not recorded.
@@ -64,7 +70,7 @@ export function keyedMiddleware(deps: KeyedV1Deps): RequestHandler[] {
   return [
     ...(deps.corsOrigins.length > 0 ? [corsFor(deps.corsOrigins)] : []),
     requireApiKey(keys, deps.tokens),
-    recordUsage(deps.usage, deps.clock),
+    recordUsage(deps.usage, deps.clock, deps.documentedPaths),
     apiKeyRateLimit(
       deps.userLimitPerMinute === undefined ? {} : { userLimitPerMinute: deps.userLimitPerMinute },
     ),

@@ -1,22 +1,34 @@
+import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import type { Request, RequestHandler, Response } from 'express';
 import type { Clock } from '../clock';
 import type { UsageSink } from '../http/keyed-request';
-
-/** Paths are cut here: a route name is for reading, and a junk path must not bloat the log. */
-const MAX_ROUTE_LENGTH = 200;
+import { normaliseRoutePath, unknownRouteLabel } from '../http/route-path';
 
 /**
- * The route a row names: the method and the path without its query. The path, not Express's route
- * pattern, because the pattern is no longer reliable once an error has left the router that matched;
- * the keyed routes have no path parameters, so the two agree.
+ * The paths of every route the registries document, in the spelling of `normaliseRoutePath`: the
+ * routes a usage row may name. Built once, when the app is.
  */
-function routeOf(req: Request): string {
+export function documentedPaths(registries: readonly OpenAPIRegistry[]): ReadonlySet<string> {
+  const paths = new Set<string>();
+  for (const registry of registries) {
+    for (const definition of registry.definitions) {
+      if (definition.type === 'route') paths.add(normaliseRoutePath(definition.route.path));
+    }
+  }
+  return paths;
+}
+
+/**
+ * The route a row names: the method and the documented path the request reached, read as Express
+ * routes it (`/API/v1/Usage/` is `GET /api/v1/usage`), or one fixed label for a path no route documents.
+ * The path, not Express's route pattern, because the pattern is no longer reliable once an error has
+ * left the router that matched; the keyed routes have no path parameters, so the two agree.
+ */
+function routeOf(req: Request, documented: ReadonlySet<string>): string {
   const url = req.originalUrl;
   const query = url.indexOf('?');
-  let path = query === -1 ? url : url.slice(0, query);
-  if (path.length > 1 && path.endsWith('/')) path = path.slice(0, -1);
-  if (path.length > MAX_ROUTE_LENGTH) path = path.slice(0, MAX_ROUTE_LENGTH);
-  return `${req.method} ${path}`;
+  const path = normaliseRoutePath(query === -1 ? url : url.slice(0, query));
+  return documented.has(path) ? `${req.method} ${path}` : unknownRouteLabel(req.method);
 }
 
 function bytesOf(res: Response): number {
@@ -30,9 +42,10 @@ function bytesOf(res: Response): number {
  * handed to the network ('finish'), so the row has the final status and size and the response waits
  * for nothing. A handler that logged its own rows (the batch route: one per item) sets
  * `res.locals.usageRecorded` and this one stays silent. A request whose client went away before the
- * answer was sent got no answer and leaves no row.
+ * answer was sent got no answer and leaves no row. Rows name only `documented` paths (see `routeOf`),
+ * so that made-up paths cannot fill the usage table with strings of the caller's choosing.
  */
-export function recordUsage(sink: UsageSink, clock: Clock): RequestHandler {
+export function recordUsage(sink: UsageSink, clock: Clock, documented: ReadonlySet<string>): RequestHandler {
   return (req, res, next) => {
     const apiKey = res.locals.apiKey;
     if (apiKey !== undefined) {
@@ -41,7 +54,7 @@ export function recordUsage(sink: UsageSink, clock: Clock): RequestHandler {
         if (res.locals.usageRecorded === true) return;
         sink.record({
           keyId: apiKey.id,
-          route: routeOf(req),
+          route: routeOf(req, documented),
           status: res.statusCode,
           durationMs: performance.now() - startedAt,
           bytes: bytesOf(res),
