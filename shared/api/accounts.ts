@@ -1,5 +1,5 @@
 import * as z from 'zod';
-import { ApiKeySummarySchema } from './keys';
+import { ApiKeySummarySchema, displayName } from './keys';
 import { UsageReportSchema } from './usage';
 
 /*
@@ -93,11 +93,15 @@ export const EmailSchema = z
   .max(254)
   .transform((email) => email.toLowerCase());
 
-export const PersonNameSchema = z
-  .string({ error: 'Enter a name.' })
-  .trim()
-  .min(1, { error: 'Enter a name.' })
-  .max(100, { error: 'Keep the name to 100 characters.' });
+/** A person's name, as their colleagues see it in the workbench and the CLI lists it. */
+export const PersonNameSchema = displayName({ field: 'the name', maxLength: 100, missing: 'Enter a name.' });
+
+/** An organisation's name (a dealer or service shop), as its people and the CLI see it. */
+export const OrganisationNameSchema = displayName({
+  field: 'the name of an organisation',
+  maxLength: 100,
+  missing: 'Name the organisation.',
+});
 
 /** A person as the API shows them. */
 export const UserSchema = z

@@ -1,4 +1,8 @@
 import * as z from 'zod';
+import { displayName } from './display-name';
+
+// The rule for names people read lives beside the key's own, so that every name of the API shares it.
+export * from './display-name';
 
 /** The header an API key travels in; `Authorization: Bearer <key>` is accepted as well. */
 export const API_KEY_HEADER = 'X-Api-Key';
@@ -33,12 +37,11 @@ export const KEY_PROBLEM_CODES = {
 export const MAX_LIMIT_PER_MINUTE = 1_000_000;
 
 /** A person's name for a key: who or what uses it. */
-export const ApiKeyNameSchema = z
-  .string()
-  .trim()
-  .min(1, 'Give the key a name that says who or what uses it.')
-  .max(100, 'Keep the name of a key to 100 characters.')
-  .meta({ description: 'Who or what uses the key.', example: 'Dealer portal' });
+export const ApiKeyNameSchema = displayName({
+  field: 'the name of a key',
+  maxLength: 100,
+  missing: 'Give the key a name that says who or what uses it.',
+}).meta({ description: 'Who or what uses the key.', example: 'Dealer portal' });
 
 /** How many requests per minute a key may make. */
 export const LimitPerMinuteSchema = z

@@ -1,4 +1,5 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { HIDDEN_CHARACTERS } from '@counterpoise/api';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
 import { EXIT, runApiKeyCommand } from './api-key.command';
 import { ApiKeysRepo } from './keys.repo';
@@ -56,6 +57,34 @@ describe('runApiKeyCommand', () => {
       name: 'Dealer portal',
       limitPerMinute: 600,
     });
+  });
+
+  it('refuses a name with a text-direction override, storing nothing', () => {
+    const result = run('create', '--name', 'Portal\u202Etxt.exe');
+    expect(result.status).toBe(EXIT.usage);
+    expect(result.err).toMatch(/--name: The name of a key holds U\+202E/);
+    expect(result.err).not.toContain('\u202E');
+    expect(keys.list()).toEqual([]);
+  });
+
+  it('prints a name stored before names were checked with its hidden characters escaped', () => {
+    const repo = new ApiKeysRepo(temporary.database.orm);
+    const stored = repo.insert({
+      name: 'Portal\u202Etxt.exe\u001B[2J\n',
+      prefix: 'cpk_AbCdEfGh',
+      hash: 'a'.repeat(64),
+      limitPerMinute: 60,
+      createdAt: new Date('2026-05-01T00:00:00Z'),
+    });
+    const listed = run('list');
+    expect(listed.out).toContain('Portal\\u202Etxt.exe\\u001B[2J\\n');
+    expect(listed.out.split('\n')).toHaveLength(2);
+    const revoked = run('revoke', String(stored.id));
+    expect(revoked.out).toContain('"Portal\\u202Etxt.exe\\u001B[2J\\n"');
+    for (const line of [...listed.out.split('\n'), revoked.out]) {
+      expect(line).not.toMatch(HIDDEN_CHARACTERS);
+    }
+    expect(run('rot\u202Eate').err).toContain('Unknown command "rot\\u202Eate"');
   });
 
   it('prints its usage on help', () => {

@@ -1,9 +1,13 @@
 import { parseArgs } from 'node:util';
-import { CreateApiKeySchema } from '@counterpoise/api';
+import { CreateApiKeySchema, escapeHiddenCharacters as shown } from '@counterpoise/api';
 import type { ApiKeyRecord } from './keys.repo';
 import type { ApiKeyService } from './keys.service';
 
-/** Where the command writes; the CLI passes the process's streams, tests collect the lines. */
+/**
+ * Where the command writes; the CLI passes the process's streams, tests collect the lines. Every name
+ * and argument echoed goes through `escapeHiddenCharacters` first: a name stored before names were
+ * checked, or a mistyped argument, must not drive the operator's terminal.
+ */
 export interface CommandOutput {
   out(line: string): void;
   err(line: string): void;
@@ -57,7 +61,7 @@ export function runApiKeyCommand(
         output.out(API_KEY_USAGE);
         return EXIT.ok;
       default:
-        output.err(command === undefined ? 'Name a command.' : `Unknown command "${command}".`);
+        output.err(command === undefined ? 'Name a command.' : `Unknown command "${shown(command)}".`);
         output.err(API_KEY_USAGE);
         return EXIT.usage;
     }
@@ -97,7 +101,9 @@ function create(
   if (orgName !== undefined) {
     organisation = organisations?.findByName(orgName);
     if (!organisation) {
-      output.err(`No organisation is named "${orgName}". Create it with: npm run user -- create --org …`);
+      output.err(
+        `No organisation is named "${shown(orgName)}". Create it with: npm run user -- create --org …`,
+      );
       return EXIT.failed;
     }
   } else if ((organisations?.count() ?? 0) > 0) {
@@ -120,8 +126,8 @@ function create(
     organisation?.id ?? null,
   );
   output.out(
-    `Created API key ${record.id} "${record.name}" (${record.prefix}…), ` +
-      `${record.limitPerMinute} requests a minute${organisation ? `, for ${organisation.name}` : ''}.`,
+    `Created API key ${record.id} "${shown(record.name)}" (${record.prefix}…), ` +
+      `${record.limitPerMinute} requests a minute${organisation ? `, for ${shown(organisation.name)}` : ''}.`,
   );
   output.out('Keep it now: it is shown only this once, and only its hash is stored.');
   output.out(key);
@@ -139,7 +145,7 @@ function list(args: string[], keys: ApiKeyService, output: CommandOutput): numbe
     ['id', 'name', 'prefix', 'limit/min', 'created', 'last used', 'state'],
     ...records.map((record) => [
       String(record.id),
-      record.name,
+      shown(record.name),
       `${record.prefix}…`,
       String(record.limitPerMinute),
       record.createdAt.toISOString(),
@@ -172,8 +178,8 @@ function revoke(args: string[], keys: ApiKeyService, now: Date, output: CommandO
   const { key } = result;
   output.out(
     result.outcome === 'revoked'
-      ? `Revoked API key ${key.id} "${key.name}" (${key.prefix}…); requests with it are refused from now on.`
-      : `API key ${key.id} "${key.name}" (${key.prefix}…) was already revoked on ${key.revokedAt?.toISOString()}.`,
+      ? `Revoked API key ${key.id} "${shown(key.name)}" (${key.prefix}…); requests with it are refused from now on.`
+      : `API key ${key.id} "${shown(key.name)}" (${key.prefix}…) was already revoked on ${key.revokedAt?.toISOString()}.`,
   );
   return EXIT.ok;
 }
@@ -191,6 +197,6 @@ function parse(
     const { values, positionals } = parseArgs({ args, options, allowPositionals, strict: true });
     return { values: values as Record<string, string | undefined>, positionals };
   } catch (error) {
-    throw new UsageError(error instanceof Error ? error.message : String(error));
+    throw new UsageError(shown(error instanceof Error ? error.message : String(error)));
   }
 }

@@ -1,6 +1,13 @@
 import { parseArgs } from 'node:util';
 import * as z from 'zod';
-import { EmailSchema, PasswordSchema, PersonNameSchema, RoleSchema } from '@counterpoise/api';
+import {
+  EmailSchema,
+  escapeHiddenCharacters as shown,
+  OrganisationNameSchema,
+  PasswordSchema,
+  PersonNameSchema,
+  RoleSchema,
+} from '@counterpoise/api';
 import type { AccountsRepo } from '../auth/accounts.repo';
 import { hashPasswordSync, passwordWeakness, type ScryptCost } from '../auth/passwords';
 import { type CommandOutput, EXIT } from '../keys/api-key.command';
@@ -18,18 +25,13 @@ export const USER_USAGE = [
   'The database is DATABASE_URL (default data/counterpoise.sqlite).',
 ].join('\n');
 
-const OrganisationNameSchema = z
-  .string()
-  .trim()
-  .min(1, { error: 'Name the organisation.' })
-  .max(100, { error: 'Keep the name of an organisation to 100 characters.' });
-
 class UsageError extends Error {}
 
 /**
  * Runs one `user` command: the logic of the CLI without its process. The password comes from
  * `readPassword` (standard input in the CLI), never from the arguments, which other users of the
- * machine can read in the process list and which shells keep in their history.
+ * machine can read in the process list and which shells keep in their history. Names and arguments
+ * echoed pass through `escapeHiddenCharacters`, so that none can drive the operator's terminal.
  */
 export function runUserCommand(
   args: readonly string[],
@@ -49,7 +51,7 @@ export function runUserCommand(
         output.out(USER_USAGE);
         return EXIT.ok;
       default:
-        output.err(command === undefined ? 'Name a command.' : `Unknown command "${command}".`);
+        output.err(command === undefined ? 'Name a command.' : `Unknown command "${shown(command)}".`);
         output.err(USER_USAGE);
         return EXIT.usage;
     }
@@ -70,7 +72,7 @@ function parse(args: string[], options: Record<string, { type: 'string' | 'boole
       string | boolean | undefined
     >;
   } catch (error) {
-    throw new UsageError(error instanceof Error ? error.message : String(error));
+    throw new UsageError(shown(error instanceof Error ? error.message : String(error)));
   }
 }
 
@@ -120,7 +122,7 @@ function create(
   }
   const { repo } = context;
   if (repo.emailTaken(parsed.data.email)) {
-    output.err(`${parsed.data.email} already has an account.`);
+    output.err(`${shown(parsed.data.email)} already has an account.`);
     return EXIT.failed;
   }
   const passwordHash = hashPasswordSync(password, context.cost);
@@ -137,9 +139,10 @@ function create(
     });
     return { created: existing === undefined, user };
   });
-  if (result.created) output.out(`Created the organisation "${result.user.organisationName}".`);
+  const { user } = result;
+  if (result.created) output.out(`Created the organisation "${shown(user.organisationName)}".`);
   output.out(
-    `Created ${result.user.role} ${result.user.id} ${result.user.email} ("${result.user.name}") in "${result.user.organisationName}".`,
+    `Created ${user.role} ${user.id} ${shown(user.email)} ("${shown(user.name)}") in "${shown(user.organisationName)}".`,
   );
   return EXIT.ok;
 }
@@ -150,11 +153,11 @@ function list(args: string[], repo: AccountsRepo, output: CommandOutput): number
   if (name === '') throw new UsageError('--org: Name the organisation.');
   const organisation = repo.findOrganisationByName(name);
   if (!organisation) {
-    output.err(`No organisation is named "${name}".`);
+    output.err(`No organisation is named "${shown(name)}".`);
     return EXIT.failed;
   }
   for (const user of repo.listUsers(organisation.id)) {
-    output.out(`${user.id}\t${user.role}\t${user.status}\t${user.email}\t${user.name}`);
+    output.out(`${user.id}\t${user.role}\t${user.status}\t${shown(user.email)}\t${shown(user.name)}`);
   }
   return EXIT.ok;
 }
