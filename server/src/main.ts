@@ -46,7 +46,7 @@ async function main(): Promise<void> {
     mailer = smtpMailer({ from: config.MAIL_FROM, url: config.SMTP_URL });
   } else {
     capture = await startSmtpCapture({ database, clock: systemClock, port: config.SMTP_FAKE_PORT });
-    mailer = smtpMailer({ from: config.MAIL_FROM, localPort: capture.port });
+    mailer = smtpMailer({ from: config.MAIL_FROM, localPort: capture.port, auth: capture.credentials });
   }
 
   // The rows are written in a thread of their own, so that a burst of requests never waits on SQLite.
@@ -79,7 +79,7 @@ async function main(): Promise<void> {
         `  Demo data:     ${demoData.status}`,
         ...(existsSync(demoKeyFile) ? [`  Demo API key:  in ${demoKeyFile}`] : []),
         capture
-          ? `  E-mail:        kept by the local mail server on 127.0.0.1:${capture.port}; owners read it in the workbench's Outbox`
+          ? `  E-mail:        not delivered: the local mail server on 127.0.0.1:${capture.port} keeps a copy with its links masked for the Outbox; set SMTP_URL to deliver it`
           : `  E-mail:        sent through SMTP_URL`,
         ...(config.SEED_DEMO
           ? [

@@ -192,6 +192,13 @@ export const UpdatePersonSchema = z
   })
   .meta({ id: 'UpdatePerson' });
 
+/**
+ * What stands in the Outbox for the secret of a link (`/reset-password?token=••••••`): the local mail
+ * server keeps no link that works, so that whoever reads the database or the Outbox cannot take over
+ * the account the link was for.
+ */
+export const MASKED_SECRET = '••••••';
+
 /** One e-mail the local SMTP server captured, as the Outbox shows it (`GET /api/v1/outbox`, owner). */
 export const OutboxMessageSchema = z
   .object({
@@ -199,8 +206,10 @@ export const OutboxMessageSchema = z
     from: z.string(),
     to: z.array(z.string()),
     subject: z.string(),
-    text: z.string(),
-    html: z.string().nullable(),
+    text: z
+      .string()
+      .meta({ description: `The plain text, each link's secret replaced by \`${MASKED_SECRET}\`.` }),
+    html: z.string().nullable().meta({ description: 'Not kept: always null.' }),
     receivedAt: z.iso.datetime(),
   })
   .meta({ id: 'OutboxMessage' });

@@ -1,23 +1,16 @@
 /*
  * Accounts in the browser: a technician sees a technician's navigation and signs out; an owner invites a
- * person, reads the invitation in the Outbox, and the new person accepts it and signs in. The server is
- * the real one over a fresh database with the demo data, with its local mail server on a free port.
+ * person and finds the invitation in the Outbox with its link masked, and the new person accepts it from
+ * the message they got and signs in. The server is the real one over a fresh database with the demo
+ * data, with its local mail server on a free port.
  */
-import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync } from 'node:fs';
-import { createServer, type Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
-import { dirname, join } from 'node:path';
+import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createApp } from '../../server/src/app';
+import { MASKED_SECRET } from '@counterpoise/api';
 import { DEMO_PASSWORD } from '../../server/src/auth/accounts.seed';
-import { DEMO_SEEDERS } from '../../server/src/db/demo-seeders';
-import { seedDemoData } from '../../server/src/db/seed';
-import { smtpMailer } from '../../server/src/mail/mailer';
-import { type SmtpCapture, startSmtpCapture } from '../../server/src/mail/smtp-capture';
-import { openTemporaryDatabase, type TemporaryDatabase } from '../../server/src/testing/temporary-database';
-import { UsageLog } from '../../server/src/usage/usage-log';
+import { type AccountsServer, startAccountsServer } from './support/accounts-server';
 import { type Browser, launchChromium } from './support/chromium';
 import { WORKBENCH_DIR } from './support/server';
 
@@ -25,10 +18,7 @@ const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
 const NEW_PERSON = { email: 'ines.halloway@ridgeline-rotor.test', name: 'Ines Halloway' };
 const NEW_PASSWORD = 'three herons over the weir';
 
-let temporary: TemporaryDatabase;
-let capture: SmtpCapture;
-let usageLog: UsageLog;
-let server: Server;
+let server: AccountsServer;
 let url: string;
 let browser: Browser;
 let page: Page;
@@ -38,30 +28,8 @@ beforeAll(async () => {
     throw new Error(`The workbench is not built in ${WORKBENCH_DIR}: run \`npm run build\` first.`);
   }
   mkdirSync(SCREENS_DIR, { recursive: true });
-  temporary = openTemporaryDatabase();
-  seedDemoData(temporary.database, new Date(), DEMO_SEEDERS, { dataDir: dirname(temporary.path) });
-  capture = await startSmtpCapture({
-    database: temporary.database,
-    clock: { now: () => new Date() },
-    port: 0,
-  });
-  usageLog = new UsageLog(temporary.database);
-  // Listening first, so that the links in the e-mails can name the server's own address.
-  server = createServer();
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-  const app = createApp({
-    database: temporary.database,
-    staticDir: WORKBENCH_DIR,
-    usageLog,
-    log: () => undefined,
-    accounts: {
-      signingKey: randomBytes(48),
-      publicUrl: url,
-      mailer: smtpMailer({ from: 'Counterpoise <no-reply@counterpoise.test>', localPort: capture.port }),
-    },
-  });
-  server.on('request', app);
+  server = await startAccountsServer();
+  url = server.url;
   browser = await launchChromium();
   page = browser.context.pages()[0] ?? (await browser.context.newPage());
   await page.setViewportSize({ width: 1024, height: 768 });
@@ -69,10 +37,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await browser?.close();
-  await new Promise<void>((resolve) => (server ? server.close(() => resolve()) : resolve()));
-  await capture?.close();
-  usageLog?.close();
-  temporary?.dispose();
+  await server?.stop();
 });
 
 const navigation = () => page.getByRole('navigation', { name: 'Main' });
@@ -110,7 +75,7 @@ describe('accounts in the workbench', () => {
     await page.getByRole('link', { name: 'Sign in' }).first().waitFor();
   });
 
-  it('lets an owner invite someone, who accepts from the Outbox and signs in', async () => {
+  it('lets an owner invite someone, who finds the link masked in the Outbox, accepts and signs in', async () => {
     await signInAs('owner@ridgeline-rotor.test', DEMO_PASSWORD);
     for (const label of ['People', 'API keys', 'Outbox']) {
       await navigation().getByRole('link', { name: label }).waitFor();
@@ -143,11 +108,18 @@ describe('accounts in the workbench', () => {
       .waitFor();
     await page.screenshot({ path: join(SCREENS_DIR, 'accounts-outbox.png'), fullPage: true });
 
-    const link = message.getByRole('link', { name: /\/accept-invitation\?token=/ });
-    const href = await link.getAttribute('href');
-    expect(href).toMatch(new RegExp(`^${url}/accept-invitation\\?token=[A-Za-z0-9_-]{43}$`));
+    // The Outbox shows that the invitation went out, but no link in it works.
+    await message.getByText(`${url}/accept-invitation?token=${MASKED_SECRET}`).waitFor();
+    expect(await message.getByRole('link', { name: /accept-invitation/ }).count()).toBe(0);
+    await message.getByText(/without the secret part of its links/).waitFor();
+    const [sent] = server.sentMail.listTo(NEW_PERSON.email);
+    const href = new RegExp(`${url}/accept-invitation\\?token=[A-Za-z0-9_-]{43}`).exec(sent!.text)?.[0];
+    expect(href).toBeDefined();
+    const token = new URL(href!).searchParams.get('token')!;
+    expect(await page.content()).not.toContain(token);
     await signOut();
 
+    // The invitee follows the link from the message they got.
     await page.goto(href!);
     await page.getByRole('heading', { level: 1, name: 'Join your shop on Counterpoise' }).waitFor();
     await page.getByText(NEW_PERSON.email).first().waitFor();

@@ -1,8 +1,11 @@
-import { and, desc, eq } from 'drizzle-orm';
+import { desc, eq } from 'drizzle-orm';
 import type { Orm } from '../db/database';
 import { mailMessages } from '../db/schema';
 
-/** A captured message as stored. */
+/**
+ * A captured message as stored: what shows that it went out, its links' secrets masked
+ * (`maskLinkSecrets`); `html` is no longer kept and stays null.
+ */
 export interface StoredMessage {
   readonly id: number;
   readonly organisationId: number | null;
@@ -39,17 +42,5 @@ export class MailRepo {
       .limit(limit)
       .all()
       .map((row) => ({ ...row, to: JSON.parse(row.to) as string[] }));
-  }
-
-  /** Every message to an address, newest first (for tests that follow a link). */
-  listTo(address: string, organisationId?: number): StoredMessage[] {
-    const rows = this.orm
-      .select()
-      .from(mailMessages)
-      .where(organisationId === undefined ? undefined : and(eq(mailMessages.organisationId, organisationId)))
-      .orderBy(desc(mailMessages.id))
-      .all()
-      .map((row) => ({ ...row, to: JSON.parse(row.to) as string[] }));
-    return rows.filter((row) => row.to.includes(address.toLowerCase()));
   }
 }

@@ -1,5 +1,5 @@
 import nodemailer from 'nodemailer';
-import { ORGANISATION_HEADER } from './smtp-capture';
+import { ORGANISATION_HEADER, type SmtpCredentials } from './smtp-capture';
 
 /** One e-mail to send on behalf of an organisation. */
 export interface OutgoingMail {
@@ -17,9 +17,12 @@ export interface Mailer {
 
 /**
  * A mailer over nodemailer's SMTP transport: to `SMTP_URL` when set, otherwise to the local capture
- * server on 127.0.0.1 (plain SMTP on the loopback, no TLS to negotiate).
+ * server on 127.0.0.1 with the credentials it drew at start (plain SMTP on the loopback, no TLS to
+ * negotiate; the password never leaves the machine).
  */
-export function smtpMailer(options: { from: string } & ({ url: string } | { localPort: number })): Mailer {
+export function smtpMailer(
+  options: { from: string } & ({ url: string } | { localPort: number; auth: SmtpCredentials }),
+): Mailer {
   const transport =
     'url' in options
       ? nodemailer.createTransport(options.url)
@@ -28,6 +31,7 @@ export function smtpMailer(options: { from: string } & ({ url: string } | { loca
           port: options.localPort,
           secure: false,
           ignoreTLS: true,
+          auth: { user: options.auth.user, pass: options.auth.pass },
         });
   return {
     async send(mail) {

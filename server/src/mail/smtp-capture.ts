@@ -1,9 +1,11 @@
+import { createHash, randomBytes, timingSafeEqual } from 'node:crypto';
 import type { AddressInfo } from 'node:net';
 import { simpleParser, type AddressObject } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import type { Clock } from '../clock';
 import type { Database } from '../db/database';
 import { MailRepo } from './mail.repo';
+import { maskLinkSecrets } from './mask-secrets';
 
 /** The header that names the organisation a message belongs to, so that its Outbox can show it. */
 export const ORGANISATION_HEADER = 'X-Counterpoise-Organisation';
@@ -11,10 +13,24 @@ export const ORGANISATION_HEADER = 'X-Counterpoise-Organisation';
 /** The largest message the local server takes. */
 const MAX_MESSAGE_BYTES = 2 * 1024 * 1024;
 
+/** A user name and password for SMTP AUTH, in nodemailer's `auth` shape. */
+export interface SmtpCredentials {
+  readonly user: string;
+  readonly pass: string;
+}
+
 /** The local SMTP server, listening. */
 export interface SmtpCapture {
   readonly port: number;
+  /** Drawn at random when the server starts: only a process that was handed them can send to it. */
+  readonly credentials: SmtpCredentials;
   close(): Promise<void>;
+}
+
+/** Compares two secrets in a time that does not depend on where they first differ. */
+function sameSecret(given: string, expected: string): boolean {
+  const digest = (text: string) => createHash('sha256').update(text, 'utf8').digest();
+  return timingSafeEqual(digest(given), digest(expected));
 }
 
 function addressesOf(field: AddressObject | AddressObject[] | undefined): string[] {
@@ -25,10 +41,13 @@ function addressesOf(field: AddressObject | AddressObject[] | undefined): string
 }
 
 /**
- * Starts the local SMTP server of development and tests on 127.0.0.1: it takes every message (no
- * authentication, no TLS: it listens on the loopback only), parses it with mailparser and stores it in
- * `mail_messages`, which the Outbox reads. The server answers the client only once the message is
- * stored, so a sender that has been told "sent" finds it there.
+ * Starts the local SMTP server of development and tests on 127.0.0.1. Every local user can reach the
+ * loopback, so the server draws a user name and password at start and refuses MAIL FROM until a client
+ * has authenticated with them (AUTH PLAIN or LOGIN; no TLS, since the password never leaves the
+ * machine). It parses each message with mailparser and stores what the Outbox needs to show that it went
+ * out (sender, recipients, subject, time, and the plain text with every link's secret masked): never a
+ * link that works, nor the HTML part, so that reading the database or the Outbox takes over no account.
+ * The server answers the client only once the message is stored, so a sender told "sent" finds it there.
  */
 export async function startSmtpCapture(deps: {
   database: Database;
@@ -38,12 +57,25 @@ export async function startSmtpCapture(deps: {
 }): Promise<SmtpCapture> {
   const repo = new MailRepo(deps.database.orm);
   const log = deps.log ?? ((message, error) => console.error(message, error));
+  const credentials: SmtpCredentials = {
+    user: `counterpoise-${randomBytes(6).toString('hex')}`,
+    pass: randomBytes(32).toString('base64url'),
+  };
   const server = new SMTPServer({
-    authOptional: true,
-    disabledCommands: ['AUTH', 'STARTTLS'],
+    authOptional: false,
+    authMethods: ['PLAIN', 'LOGIN'],
+    allowInsecureAuth: true,
+    disabledCommands: ['STARTTLS'],
     size: MAX_MESSAGE_BYTES,
     banner: 'Counterpoise local mail capture',
     logger: false,
+    onAuth(auth, _session, callback) {
+      // Both compared, always, so that the time taken tells nothing of which one was wrong.
+      const userMatches = sameSecret(auth.username ?? '', credentials.user);
+      const passMatches = sameSecret(auth.password ?? '', credentials.pass);
+      if (userMatches && passMatches) callback(null, { user: credentials.user });
+      else callback(new Error('Invalid user name or password.'));
+    },
     onData(stream, _session, callback) {
       simpleParser(stream)
         .then((parsed) => {
@@ -52,9 +84,9 @@ export async function startSmtpCapture(deps: {
             organisationId: Number.isSafeInteger(organisation) && organisation > 0 ? organisation : null,
             from: parsed.from?.text ?? '',
             to: addressesOf(parsed.to),
-            subject: parsed.subject ?? '',
-            text: parsed.text ?? '',
-            html: typeof parsed.html === 'string' ? parsed.html : null,
+            subject: maskLinkSecrets(parsed.subject ?? ''),
+            text: maskLinkSecrets(parsed.text ?? ''),
+            html: null,
             receivedAt: deps.clock.now(),
           });
           callback();
@@ -74,5 +106,9 @@ export async function startSmtpCapture(deps: {
   });
   server.on('error', (error) => log('The local mail server failed.', error));
   const { port } = server.server.address() as AddressInfo;
-  return { port, close: () => new Promise<void>((resolve) => server.close(() => resolve())) };
+  return {
+    port,
+    credentials,
+    close: () => new Promise<void>((resolve) => server.close(() => resolve())),
+  };
 }

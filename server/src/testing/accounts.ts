@@ -7,8 +7,7 @@ import { AccountsRepo, type UserRecord } from '../auth/accounts.repo';
 import { hashPasswordSync } from '../auth/passwords';
 import type { Clock } from '../clock';
 import type { Database } from '../db/database';
-import { smtpMailer } from '../mail/mailer';
-import { MailRepo } from '../mail/mail.repo';
+import { type Mailer, type OutgoingMail, smtpMailer } from '../mail/mailer';
 import { type SmtpCapture, startSmtpCapture } from '../mail/smtp-capture';
 import { UsageLog } from '../usage/usage-log';
 
@@ -47,22 +46,94 @@ export function createTestOrganisation(database: Database, name: string, now = n
   return { ...organisation, people };
 }
 
+/** A message a test app sent, whole, as its recipient's mailbox would have it: its links work. */
+export interface SentMessage {
+  /** The order of sending, from 1. */
+  readonly id: number;
+  readonly organisationId: number;
+  readonly from: string;
+  readonly to: string[];
+  readonly subject: string;
+  readonly text: string;
+  readonly html: string;
+  readonly receivedAt: Date;
+}
+
+/**
+ * The mail a test app sent, kept in the test's memory: the local mail server keeps only a masked copy
+ * (no link in it works), so a test follows a link the way its recipient would, from the message itself.
+ */
+export class SentMail {
+  private readonly messages: SentMessage[] = [];
+
+  constructor(
+    private readonly from: string,
+    private readonly clock: Clock = { now: () => new Date() },
+  ) {}
+
+  /** Keeps a message that the mail server accepted. */
+  record(mail: OutgoingMail): void {
+    this.messages.push({
+      id: this.messages.length + 1,
+      organisationId: mail.organisationId,
+      from: this.from,
+      to: [mail.to.toLowerCase()],
+      subject: mail.subject,
+      text: mail.text,
+      html: mail.html,
+      receivedAt: this.clock.now(),
+    });
+  }
+
+  /** Every message to an address (of one organisation when given), newest first. */
+  listTo(address: string, organisationId?: number): SentMessage[] {
+    return this.messages
+      .filter(
+        (message) =>
+          message.to.includes(address.toLowerCase()) &&
+          (organisationId === undefined || message.organisationId === organisationId),
+      )
+      .reverse();
+  }
+}
+
+/**
+ * A mailer that sends through `mailer` and, once the server has accepted a message, keeps it whole in
+ * `sent`: the real SMTP path still runs and stores its masked copy for the Outbox.
+ */
+export function recordingMailer(mailer: Mailer, sent: SentMail): Mailer {
+  return {
+    async send(mail) {
+      await mailer.send(mail);
+      sent.record(mail);
+    },
+  };
+}
+
+/** The sender of every test app's mail. */
+export const TEST_MAIL_FROM = 'Counterpoise <no-reply@counterpoise.test>';
+
 /** An app over a database, with a local SMTP capture server that the app's mail goes to. */
 export interface AccountsTestApp {
   readonly app: Express;
   readonly capture: SmtpCapture;
   readonly usageLog: UsageLog;
-  readonly mail: MailRepo;
+  /** What the app sent, whole (the capture server's store holds masked copies only). */
+  readonly mail: SentMail;
   close(): Promise<void>;
 }
 
-/** Builds the app as main.ts does, with a fast password hash and a local mail server on a free port. */
+/**
+ * Builds the app as main.ts does, with a fast password hash and a local mail server on a free port; the
+ * messages it sends are also kept whole in `mail`, for the test to follow their links.
+ */
 export async function startAccountsTestApp(
   database: Database,
   options: { clock?: Clock; signingKey?: Uint8Array; userCalcLimitPerMinute?: number } = {},
 ): Promise<AccountsTestApp> {
   const clock = options.clock ?? { now: () => new Date() };
   const capture = await startSmtpCapture({ database, clock, port: 0, log: () => undefined });
+  const mail = new SentMail(TEST_MAIL_FROM, clock);
   const usageLog = new UsageLog(database, { log: () => undefined });
   const app = createApp({
     database,
@@ -73,7 +144,10 @@ export async function startAccountsTestApp(
       signingKey: options.signingKey ?? randomBytes(48),
       passwordHashCost: TEST_HASH_COST,
       publicUrl: 'http://workbench.test:4300',
-      mailer: smtpMailer({ from: 'Counterpoise <no-reply@counterpoise.test>', localPort: capture.port }),
+      mailer: recordingMailer(
+        smtpMailer({ from: TEST_MAIL_FROM, localPort: capture.port, auth: capture.credentials }),
+        mail,
+      ),
       ...(options.userCalcLimitPerMinute === undefined
         ? {}
         : { userCalcLimitPerMinute: options.userCalcLimitPerMinute }),
@@ -83,7 +157,7 @@ export async function startAccountsTestApp(
     app,
     capture,
     usageLog,
-    mail: new MailRepo(database.orm),
+    mail,
     close: async () => {
       usageLog.close();
       await capture.close();
@@ -112,10 +186,10 @@ export function refreshCookieOf(response: request.Response): string {
   return cookie.split(';')[0]!;
 }
 
-/** The token of the first link to `path` in the newest message to `address`. */
-export function linkTokenIn(mail: MailRepo, address: string, path: string): string {
+/** The token of the first link to `path` in the newest message the test app sent to `address`. */
+export function linkTokenIn(mail: SentMail, address: string, path: string): string {
   const [message] = mail.listTo(address);
-  if (!message) throw new Error(`No message to ${address} was captured.`);
+  if (!message) throw new Error(`No message to ${address} was sent.`);
   const match = new RegExp(`${path}\\?token=([A-Za-z0-9_-]+)`).exec(message.text);
   if (!match?.[1]) throw new Error(`The message to ${address} has no ${path} link:\n${message.text}`);
   return match[1];

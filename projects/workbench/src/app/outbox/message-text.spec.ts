@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { linkify, pathInApp } from './message-text';
+import { MASKED_SECRET as API_MASKED_SECRET } from '@counterpoise/api';
+import { hasMaskedSecret, linkify, MASKED_SECRET, pathInApp } from './message-text';
 
 describe('linkify', () => {
   it('turns web addresses into links and keeps every other character', () => {
@@ -28,6 +29,19 @@ describe('linkify', () => {
       linkify('http://a.example.com (or http://b.example.com)').filter((p) => p.kind === 'link'),
     ).toHaveLength(2);
     expect(linkify('')).toEqual([]);
+  });
+});
+
+describe('masked links', () => {
+  it('uses the mark the server writes in place of a secret', () => {
+    expect(MASKED_SECRET).toBe(API_MASKED_SECRET);
+  });
+
+  it('leaves an address whose secret is masked as text, and finds the mark', () => {
+    const text = `Accept: http://localhost:4300/accept-invitation?token=${MASKED_SECRET}\nThen sign in.`;
+    expect(linkify(text)).toEqual([{ kind: 'text', text }]);
+    expect(hasMaskedSecret(text)).toBe(true);
+    expect(hasMaskedSecret('See https://docs.example.com/guide')).toBe(false);
   });
 });
 

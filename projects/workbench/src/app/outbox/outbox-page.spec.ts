@@ -8,6 +8,7 @@ import { BehaviorSubject, map } from 'rxjs';
 import { RouteStandIn } from '../auth/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import type { Outbox } from '../auth/api-types';
+import { MASKED_SECRET } from './message-text';
 import { OutboxPage } from './outbox-page';
 
 const ORIGIN = window.location.origin;
@@ -108,6 +109,21 @@ describe('OutboxPage', () => {
     link?.click();
     await harness.fixture.whenStable();
     expect(TestBed.inject(Router).url).toBe('/reset-password?token=rst-2');
+  });
+
+  it('shows a masked link as text and says why it cannot be followed', async () => {
+    const text = `Accept: https://shop.example.com/accept-invitation?token=${MASKED_SECRET}\n`;
+    const harness = await RouterTestingHarness.create('/outbox?message=3');
+    http.expectOne('/api/v1/outbox').flush({
+      messages: [{ ...OUTBOX.messages[0]!, id: 3, text, html: null }],
+    });
+    await harness.fixture.whenStable();
+    const message = (harness.routeNativeElement as HTMLElement).querySelector('article');
+    expect(message?.querySelector('.body')?.textContent).toBe(text);
+    expect(message?.querySelector('.body a')).toBeNull();
+    expect(message?.querySelector('.note')?.textContent).toContain(
+      `without the secret part of its links (shown as ${MASKED_SECRET})`,
+    );
   });
 
   it('shows the list or the open message on a phone, with the way back', async () => {

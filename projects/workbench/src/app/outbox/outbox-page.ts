@@ -20,7 +20,7 @@ import { Router, RouterLink } from '@angular/router';
 import { map } from 'rxjs';
 import type { Outbox } from '../auth/api-types';
 import { httpErrorMessage } from '../shell/server-errors';
-import { linkify, pathInApp } from './message-text';
+import { hasMaskedSecret, linkify, MASKED_SECRET, pathInApp } from './message-text';
 
 /** From this width the list and the open message sit side by side. */
 const TWO_PANES = '(min-width: 960px)';
@@ -67,6 +67,8 @@ export class OutboxPage {
     { initialValue: true },
   );
   protected readonly httpErrorMessage = httpErrorMessage;
+  protected readonly hasMaskedSecret = hasMaskedSecret;
+  protected readonly maskedSecret = MASKED_SECRET;
 
   constructor() {
     // On a phone the list and the message replace each other, and the focused link goes with the list:
