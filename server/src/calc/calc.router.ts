@@ -11,6 +11,7 @@ import {
 import express, { type RequestHandler } from 'express';
 import type * as z from 'zod';
 import type { Clock } from '../clock';
+import type { DispatchTable } from '../openapi/served-routes';
 import type { UsageSink } from '../http/keyed-request';
 import { inSequence } from '../http/in-sequence';
 import { normaliseRoutePath } from '../http/route-path';
@@ -132,7 +133,7 @@ calcRegistry.registerPath({
  * against the key's limit once they are validated, before computing any, and logs its own usage rows, one
  * per item.
  */
-export function calcRouter(deps: { usage: UsageSink; clock: Clock }): RequestHandler {
+export function calcRouter(deps: { usage: UsageSink; clock: Clock }): RequestHandler & DispatchTable {
   const parseCalc = express.json({ limit: CALC_BODY_LIMIT, type: () => true });
   const answers = new Map<string, RequestHandler>();
   answers.set(
@@ -162,7 +163,7 @@ export function calcRouter(deps: { usage: UsageSink; clock: Clock }): RequestHan
   }
   const onlyPost = methodNotAllowed('POST');
 
-  return (req, res, next) => {
+  const dispatch: RequestHandler = (req, res, next) => {
     // Express matches paths without regard to case or a trailing slash; so does this table, and the
     // usage log names the route by the same reading.
     const answer = answers.get(normaliseRoutePath(req.path));
@@ -170,4 +171,10 @@ export function calcRouter(deps: { usage: UsageSink; clock: Clock }): RequestHan
     else if (req.method !== 'POST') onlyPost(req, res, next);
     else answer(req, res, next);
   };
+  // The documentation test walks Express's routes; this table is not one, so it says what it serves.
+  const servedRoutes = [...answers.keys()].map((path) => ({
+    method: 'post',
+    path: `${CALC_BASE_PATH}${path}`,
+  }));
+  return Object.assign(dispatch, { servedRoutes });
 }
