@@ -41,7 +41,7 @@ describe('the calculator with a signed-in person’s access token', () => {
       expect(answer.headers['ratelimit-limit']).toBe('3');
     }
     const limited = await calc(accessToken).expect(429);
-    expect(limited.body.detail).toMatch(/You may make 3 requests a minute/);
+    expect(limited.body.detail).toMatch(/You may make 3 calculations a minute/);
     // Another person has their own allowance.
     await calc((await signIn(test.app, shop.people.technician.email)).accessToken).expect(200);
     test.usageLog.flush();
