@@ -58,6 +58,8 @@ async function main(): Promise<void> {
     staticDir: config.STATIC_DIR,
     usageLog,
     corsOrigins: config.CORS_ORIGINS,
+    // Behind HTTPS (the cookie is Secure), browsers are told to keep to HTTPS too.
+    secureTransport: config.COOKIE_SECURE,
     accounts: {
       signingKey: loadSigningKey(config.AUTH_SIGNING_KEY, dataDir),
       passwordHashCost: config.PASSWORD_HASH_COST,
