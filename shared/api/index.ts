@@ -12,3 +12,4 @@ export * from './batch';
 export * from './keys';
 export * from './usage';
 export * from './accounts';
+export * from './people-rules';
