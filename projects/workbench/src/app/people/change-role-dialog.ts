@@ -1,4 +1,3 @@
-import { HttpClient } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -10,6 +9,7 @@ import { type Role, ROLES, type User } from '@counterpoise/api';
 import type { UpdatePerson } from '../auth/api-types';
 import { ROLE_LABELS, ROLE_SUMMARIES } from '../auth/roles';
 import { httpErrorMessage, problemOf } from '../shell/server-errors';
+import { PeopleApi } from './people.api';
 
 /**
  * Giving a person another role, each role with what it does, so that the choice is made knowingly. The
@@ -94,7 +94,7 @@ import { httpErrorMessage, problemOf } from '../shell/server-errors';
 export class ChangeRoleDialog {
   protected readonly person = inject<User>(MAT_DIALOG_DATA);
   private readonly dialogRef = inject<MatDialogRef<ChangeRoleDialog, User>>(MatDialogRef);
-  private readonly http = inject(HttpClient);
+  private readonly api = inject(PeopleApi);
 
   protected readonly roles = ROLES;
   protected readonly chosen = signal<Role>(this.person.role);
@@ -108,7 +108,7 @@ export class ChangeRoleDialog {
     this.busy.set(true);
     this.formError.set(null);
     const change: UpdatePerson = { role: this.chosen() };
-    this.http.patch<User>(`/api/v1/people/${this.person.id}`, change).subscribe({
+    this.api.update(this.person.id, change).subscribe({
       next: (updated) => this.dialogRef.close(updated),
       error: (error: unknown) => {
         const fieldMessages = problemOf(error)?.errors?.map((field) => field.message) ?? [];

@@ -1,4 +1,3 @@
-import { HttpClient } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
@@ -10,10 +9,11 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSelectModule } from '@angular/material/select';
 import { EmailSchema, PersonNameSchema, type Role } from '@counterpoise/api';
-import type { Invitation, InviteRequest } from '../auth/api-types';
+import type { InviteRequest } from '../auth/api-types';
 import { ROLE_LABELS, ROLE_SUMMARIES } from '../auth/roles';
 import { formErrorOf, httpErrorMessage, problemOf } from '../shell/server-errors';
 import { errorMessage, requiredWith, schemaValidator } from '../shell/validators';
+import { PeopleApi } from './people.api';
 
 /** What the invitation dialog needs to know. */
 export interface InviteDialogData {
@@ -109,7 +109,7 @@ export interface InviteOutcome {
 export class InviteDialog {
   protected readonly data = inject<InviteDialogData>(MAT_DIALOG_DATA);
   private readonly dialogRef = inject<MatDialogRef<InviteDialog, InviteOutcome>>(MatDialogRef);
-  private readonly http = inject(HttpClient);
+  private readonly api = inject(PeopleApi);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     email: ['', [requiredWith('Enter their e-mail address.'), schemaValidator(EmailSchema)]],
@@ -137,7 +137,7 @@ export class InviteDialog {
       role,
       ...(name.trim() ? { name: name.trim() } : {}),
     };
-    this.http.post<Invitation>('/api/v1/people/invitations', request).subscribe({
+    this.api.invite(request).subscribe({
       next: (invitation) => this.dialogRef.close({ email: invitation.email, mailProblem: null }),
       error: (error: unknown) => {
         // The invitation exists; sending it again would replace it, so the dialog's work is done.

@@ -23,6 +23,7 @@ import type { People } from '../auth/api-types';
 import { AuthSession } from '../auth/auth-session';
 import { aSession, aUser } from '../auth/testing';
 import { PeoplePage } from './people-page';
+import { PEOPLE_URLS } from './people.api';
 
 const PEOPLE: People = {
   people: [
@@ -91,7 +92,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
     TestBed.inject(AuthSession).start(aSession(role));
     const fixture = TestBed.createComponent(PeoplePage);
     fixture.detectChanges();
-    http.expectOne('/api/v1/people').flush(people);
+    http.expectOne(PEOPLE_URLS.list).flush(people);
     await fixture.whenStable();
     return {
       fixture,
@@ -129,7 +130,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
     const fixture = TestBed.createComponent(PeoplePage);
     fixture.detectChanges();
     expect((fixture.nativeElement as HTMLElement).textContent).toContain('Fetching the people');
-    http.expectOne('/api/v1/people').flush(PEOPLE);
+    http.expectOne(PEOPLE_URLS.list).flush(PEOPLE);
     await fixture.whenStable();
 
     const table = await TestbedHarnessEnvironment.loader(fixture).getHarness(
@@ -208,7 +209,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
     ).setValue('Kaito Brandt');
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Send the invitation' }))).click();
 
-    const request = http.expectOne('/api/v1/people/invitations');
+    const request = http.expectOne(PEOPLE_URLS.invitations);
     expect(request.request.body).toEqual({
       email: 'kaito@example.com',
       role: 'manager',
@@ -217,7 +218,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
     request.flush(PEOPLE.invitations[0] ?? null, { status: 201, statusText: 'Created' });
     await settle(fixture);
 
-    http.expectOne('/api/v1/people').flush(PEOPLE);
+    http.expectOne(PEOPLE_URLS.list).flush(PEOPLE);
     expect(await overlays.getAllHarnesses(MatDialogHarness)).toHaveLength(0);
   });
 
@@ -229,7 +230,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
       await dialog.getHarness(MatInputHarness.with({ selector: '[formControlName=email]' }))
     ).setValue('kaito@example.com');
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Send the invitation' }))).click();
-    http.expectOne('/api/v1/people/invitations').flush(
+    http.expectOne(PEOPLE_URLS.invitations).flush(
       {
         type: 'about:blank',
         title: 'Bad Gateway',
@@ -240,7 +241,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
       { status: 502, statusText: 'Bad Gateway' },
     );
     await settle(fixture);
-    http.expectOne('/api/v1/people').flush(PEOPLE);
+    http.expectOne(PEOPLE_URLS.list).flush(PEOPLE);
     const snackBar = await overlays.getHarness(MatSnackBarHarness);
     expect(await snackBar.getMessage()).toContain(
       'The invitation to kaito@example.com is saved, but its e-mail was not sent.',
@@ -263,7 +264,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
     const email = await dialog.getHarness(MatInputHarness.with({ selector: '[formControlName=email]' }));
     await email.setValue('suvi@example.com');
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Send the invitation' }))).click();
-    http.expectOne('/api/v1/people/invitations').flush(
+    http.expectOne(PEOPLE_URLS.invitations).flush(
       {
         type: 'about:blank',
         title: 'Conflict',
@@ -292,12 +293,12 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
     await roles.checkRadioButton({ label: /Manager/ });
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Make manager' }))).click();
 
-    const request = http.expectOne('/api/v1/people/3');
+    const request = http.expectOne(PEOPLE_URLS.person(3));
     expect(request.request.method).toBe('PATCH');
     expect(request.request.body).toEqual({ role: 'manager' });
     request.flush(aUser('technician', { role: 'manager' }));
     await settle(fixture);
-    http.expectOne('/api/v1/people').flush(PEOPLE);
+    http.expectOne(PEOPLE_URLS.list).flush(PEOPLE);
   });
 
   it('deactivates someone only once the owner confirms', async () => {
@@ -308,18 +309,18 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
     expect(await dialog.getTitleText()).toBe('Deactivate Suvi Achterberg?');
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Cancel' }))).click();
     await settle(fixture);
-    http.expectNone('/api/v1/people/3');
+    http.expectNone(PEOPLE_URLS.person(3));
 
     menu = await openActions(loader, 'Suvi Achterberg');
     await menu.clickItem({ text: /Deactivate/ });
     dialog = await overlays.getHarness(MatDialogHarness);
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Deactivate' }))).click();
     await settle(fixture);
-    const request = http.expectOne('/api/v1/people/3');
+    const request = http.expectOne(PEOPLE_URLS.person(3));
     expect(request.request.body).toEqual({ status: 'deactivated' });
     request.flush(aUser('technician', { status: 'deactivated' }));
     await settle(fixture);
-    http.expectOne('/api/v1/people').flush(PEOPLE);
+    http.expectOne(PEOPLE_URLS.list).flush(PEOPLE);
     await settle(fixture);
     // The menu item that asked is gone: the focus goes back to the person's actions button.
     expect(document.activeElement?.id).toBe('actions-3');
@@ -364,7 +365,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
     TestBed.inject(AuthSession).start(aSession('developer'));
     const fixture = TestBed.createComponent(PeoplePage);
     fixture.detectChanges();
-    http.expectOne('/api/v1/people').flush(PEOPLE);
+    http.expectOne(PEOPLE_URLS.list).flush(PEOPLE);
     await fixture.whenStable();
     expect((fixture.nativeElement as HTMLElement).textContent).not.toContain('Invite someone');
   });
@@ -381,7 +382,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
     TestBed.inject(AuthSession).start(aSession('owner'));
     const fixture = TestBed.createComponent(PeoplePage);
     fixture.detectChanges();
-    http.expectOne('/api/v1/people').error(new ProgressEvent('error'));
+    http.expectOne(PEOPLE_URLS.list).error(new ProgressEvent('error'));
     await fixture.whenStable();
     const element = fixture.nativeElement as HTMLElement;
     expect(element.querySelector('[role=alert]')?.textContent).toContain('The server cannot be reached');
@@ -389,6 +390,6 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
       .find((button) => button.textContent?.includes('Try again'))
       ?.click();
     fixture.detectChanges();
-    http.expectOne('/api/v1/people').flush(PEOPLE);
+    http.expectOne(PEOPLE_URLS.list).flush(PEOPLE);
   });
 });

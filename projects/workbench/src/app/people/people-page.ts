@@ -1,6 +1,5 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
 import { DatePipe } from '@angular/common';
-import { HttpClient, httpResource } from '@angular/common/http';
 import {
   afterNextRender,
   ChangeDetectionStrategy,
@@ -22,22 +21,17 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatSortModule, type Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
-import type { User } from '@counterpoise/api';
+import { invitableRoles, mayChangeRole, mayChangeStatus, type User } from '@counterpoise/api';
 import { filter, map, switchMap, tap } from 'rxjs';
-import type { Invitation, People, UpdatePerson } from '../auth/api-types';
+import type { Invitation, UpdatePerson } from '../auth/api-types';
 import { AuthSession } from '../auth/auth-session';
 import { ROLE_LABELS } from '../auth/roles';
 import { askToConfirm } from '../shell/confirm-dialog';
 import { httpErrorMessage } from '../shell/server-errors';
 import { ChangeRoleDialog } from './change-role-dialog';
 import { InviteDialog, type InviteDialogData, type InviteOutcome } from './invite-dialog';
-import {
-  invitableRoles,
-  mayChangeRole,
-  mayChangeStatus,
-  sortAndFilterPeople,
-  STATUS_LABELS,
-} from './people-rules';
+import { sortAndFilterPeople, STATUS_LABELS } from './people-rules';
+import { PeopleApi } from './people.api';
 
 /** Below this width the e-mail address and the status move under the name, so that the table fits a phone. */
 const WIDE_TABLE = '(min-width: 720px)';
@@ -65,14 +59,14 @@ const WIDE_TABLE = '(min-width: 720px)';
 })
 export class PeoplePage {
   protected readonly session = inject(AuthSession);
-  private readonly http = inject(HttpClient);
+  private readonly api = inject(PeopleApi);
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
   private readonly document = inject(DOCUMENT);
   private readonly injector = inject(Injector);
 
   // value() throws while the resource is in error: everything derived from it asks hasValue() first.
-  protected readonly people = httpResource<People>(() => '/api/v1/people');
+  protected readonly people = this.api.listResource();
   protected readonly filter = signal('');
   protected readonly sort = signal<Sort>({ active: 'name', direction: 'asc' });
   protected readonly rows = computed(() =>
@@ -97,7 +91,10 @@ export class PeoplePage {
     this.wide() ? ['email', 'role', 'invitedBy', 'expiresAt'] : ['email', 'role', 'expiresAt'],
   );
 
-  protected readonly invitable = computed(() => invitableRoles((p) => this.session.can(p)));
+  protected readonly invitable = computed(() => {
+    const me = this.session.user();
+    return me === null ? [] : invitableRoles(me.role);
+  });
   /** The id of the person whose status is being changed, to show the row busy. */
   protected readonly updating = signal<number | null>(null);
   protected readonly httpErrorMessage = httpErrorMessage;
@@ -113,12 +110,12 @@ export class PeoplePage {
 
   protected mayChangeRole(person: User): boolean {
     const me = this.session.user();
-    return me !== null && mayChangeRole(me, person, (p) => this.session.can(p));
+    return me !== null && mayChangeRole(me, person);
   }
 
   protected mayChangeStatus(person: User): boolean {
     const me = this.session.user();
-    return me !== null && mayChangeStatus(me, person, (p) => this.session.can(p));
+    return me !== null && mayChangeStatus(me, person);
   }
 
   /** Rows are kept across reloads, so that the focus stays where it was. */
@@ -196,7 +193,7 @@ export class PeoplePage {
         switchMap(() => {
           this.updating.set(person.id);
           const change: UpdatePerson = { status: deactivate ? 'deactivated' : 'active' };
-          return this.http.patch<User>(`/api/v1/people/${person.id}`, change);
+          return this.api.update(person.id, change);
         }),
       )
       .subscribe({

@@ -1,30 +1,12 @@
 import type { Sort } from '@angular/material/sort';
-import { MANAGER_INVITABLE_ROLES, type Permission, type Role, ROLES, type User } from '@counterpoise/api';
+import { ROLES, type User } from '@counterpoise/api';
 import { ROLE_LABELS } from '../auth/roles';
 
 /*
- * Who may do what to whom on the People page. The server decides every request; these rules only keep
- * the page from offering what it would refuse (the contract: PATCH /api/v1/people/{id} is for owners, and
- * for managers only to change the status of technicians and viewers).
+ * How the People page shows people: the names of their statuses, and the table's filter and order. Who may
+ * do what to whom is the contract's (`invitableRoles`, `mayChangeRole`, `mayChangeStatus` in
+ * `@counterpoise/api`), shared with the server that enforces it.
  */
-
-/** The roles the signed-in person may give in an invitation. */
-export function invitableRoles(can: (permission: Permission) => boolean): readonly Role[] {
-  if (!can('people:invite')) return [];
-  return can('people:manage') ? ROLES : MANAGER_INVITABLE_ROLES;
-}
-
-/** Whether the signed-in person may give someone another role; never their own, so an owner stays one. */
-export function mayChangeRole(me: User, person: User, can: (permission: Permission) => boolean): boolean {
-  return person.id !== me.id && can('people:manage');
-}
-
-/** Whether the signed-in person may deactivate or reactivate someone; never themselves. */
-export function mayChangeStatus(me: User, person: User, can: (permission: Permission) => boolean): boolean {
-  if (person.id === me.id) return false;
-  if (can('people:manage')) return true;
-  return me.role === 'manager' && MANAGER_INVITABLE_ROLES.includes(person.role);
-}
 
 /** How a person's status is named on screen. */
 export const STATUS_LABELS: Readonly<Record<User['status'], string>> = {
