@@ -6,6 +6,7 @@ import { provideRouter } from '@angular/router';
 import type { Health } from '@counterpoise/api';
 import { CpSafetyNoticeHarness } from '@counterpoise/ng/core/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { API_REFERENCE_URL, HEALTH_URL } from '../status/health.api';
 import { HomePage, uptimeLabel } from './home-page';
 
 describe('HomePage', () => {
@@ -29,16 +30,20 @@ describe('HomePage', () => {
 
   it('explains the job and lists its six stages', async () => {
     const fixture = await render();
-    http.expectOne('/api/health');
+    http.expectOne(HEALTH_URL);
     const element: HTMLElement = fixture.nativeElement;
     expect(element.querySelector('h1')?.textContent).toContain('Balance rotors in the field');
     const stages = [...element.querySelectorAll('.step__title')].map((title) => title.textContent?.trim());
     expect(stages).toEqual(['1. Inspect', '2. Set up', '3. Read', '4. Correct', '5. Verify', '6. Record']);
+    const reference = [...element.querySelectorAll('a')].find((link) =>
+      link.textContent?.includes('Calculation API reference'),
+    );
+    expect(reference?.getAttribute('href')).toBe(API_REFERENCE_URL);
   });
 
   it('shows the safety cautions in their compact form', async () => {
     const fixture = await render();
-    http.expectOne('/api/health').error(new ProgressEvent('error'));
+    http.expectOne(HEALTH_URL).error(new ProgressEvent('error'));
     const notice = await TestbedHarnessEnvironment.loader(fixture).getHarness(CpSafetyNoticeHarness);
     expect(await notice.isCompact()).toBe(true);
     expect(await notice.getCautionTitles()).toContain('Lock out and tag out');
@@ -52,7 +57,7 @@ describe('HomePage', () => {
       uptimeSeconds: 3_700,
       database: { status: 'ok', migrations: 3 },
     };
-    http.expectOne('/api/health').flush(health);
+    http.expectOne(HEALTH_URL).flush(health);
     await fixture.whenStable();
     const text = (fixture.nativeElement as HTMLElement).querySelector('.status')?.textContent ?? '';
     expect(text).toContain('Working, version 0.1.0');
@@ -62,7 +67,7 @@ describe('HomePage', () => {
 
   it('says the readings stay on the device when the server cannot be reached', async () => {
     const fixture = await render();
-    http.expectOne('/api/health').error(new ProgressEvent('error'));
+    http.expectOne(HEALTH_URL).error(new ProgressEvent('error'));
     await fixture.whenStable();
     const text = (fixture.nativeElement as HTMLElement).querySelector('.status')?.textContent ?? '';
     expect(text).toContain('The server cannot be reached');
@@ -70,14 +75,14 @@ describe('HomePage', () => {
 
   it('asks the server again on request', async () => {
     const fixture = await render();
-    http.expectOne('/api/health').error(new ProgressEvent('error'));
+    http.expectOne(HEALTH_URL).error(new ProgressEvent('error'));
     await fixture.whenStable();
     const button = [...(fixture.nativeElement as HTMLElement).querySelectorAll('button')].find((b) =>
       b.textContent?.includes('Check again'),
     );
     button?.click();
     fixture.detectChanges();
-    http.expectOne('/api/health');
+    http.expectOne(HEALTH_URL);
   });
 });
 

@@ -5,6 +5,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
 import { CpSafetyNotice } from '@counterpoise/ng/core';
+import { API_REFERENCE_URL } from '../status/health.api';
 import { ServerStatus } from '../status/server-status';
 import { JOB_STEPS } from './job-steps';
 
@@ -27,6 +28,7 @@ export class HomePage {
   protected readonly steps = JOB_STEPS;
   protected readonly status = inject(ServerStatus);
   protected readonly uptimeLabel = uptimeLabel;
+  protected readonly apiReferenceUrl = API_REFERENCE_URL;
 }
 
 /** How long the server has been up, in the largest unit that reads naturally. */
