@@ -1,5 +1,4 @@
 import { Clipboard } from '@angular/cdk/clipboard';
-import { HttpClient } from '@angular/common/http';
 import {
   afterNextRender,
   ChangeDetectionStrategy,
@@ -25,13 +24,13 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import {
   type ApiKeySummary,
   ApiKeyNameSchema,
-  type CreateApiKey,
   LimitPerMinuteSchema,
   MAX_LIMIT_PER_MINUTE,
 } from '@counterpoise/api';
 import type { CreatedApiKey } from '../auth/api-types';
 import { formErrorOf } from '../shell/server-errors';
 import { errorMessage, requiredWith, schemaError, schemaValidator } from '../shell/validators';
+import { type CreateApiKeyRequest, KeysApi } from './keys.api';
 
 /**
  * Creating an API key, then showing it the one time the server ever answers it, with a copy button. Once
@@ -55,7 +54,7 @@ import { errorMessage, requiredWith, schemaError, schemaValidator } from '../she
 })
 export class CreateKeyDialog {
   private readonly dialogRef = inject<MatDialogRef<CreateKeyDialog, ApiKeySummary>>(MatDialogRef);
-  private readonly http = inject(HttpClient);
+  private readonly api = inject(KeysApi);
   private readonly clipboard = inject(Clipboard);
   private readonly injector = inject(Injector);
   private readonly copyButton = viewChild('copyButton', { read: ElementRef<HTMLButtonElement> });
@@ -84,8 +83,11 @@ export class CreateKeyDialog {
     this.formError.set(null);
     const { name, limitPerMinute } = this.form.getRawValue();
     const limit = limitPerMinute.trim();
-    const request: CreateApiKey = { name: name.trim(), ...(limit ? { limitPerMinute: Number(limit) } : {}) };
-    this.http.post<CreatedApiKey>('/api/v1/keys', request).subscribe({
+    const request: CreateApiKeyRequest = {
+      name: name.trim(),
+      ...(limit ? { limitPerMinute: Number(limit) } : {}),
+    };
+    this.api.create(request).subscribe({
       next: (created) => {
         this.dialogRef.disableClose = true;
         this.created.set(created);

@@ -17,6 +17,7 @@ import type { ApiKeyList, CreatedApiKey } from '../auth/api-types';
 import { AuthSession } from '../auth/auth-session';
 import { aSession } from '../auth/testing';
 import { KeysPage } from './keys-page';
+import { KEYS_URLS } from './keys.api';
 
 const PORTAL: ApiKeySummary = {
   id: 1,
@@ -85,7 +86,7 @@ describe('KeysPage', { timeout: 20_000 }, () => {
   async function render(list: ApiKeyList = LIST) {
     const fixture = TestBed.createComponent(KeysPage);
     fixture.detectChanges();
-    http.expectOne('/api/v1/keys').flush(list);
+    http.expectOne(KEYS_URLS.list).flush(list);
     await fixture.whenStable();
     return {
       fixture,
@@ -152,7 +153,7 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     await (await loader.getHarness(MatButtonHarness.with({ text: /Create a key/ }))).click();
     const dialog = await createKey(overlays, 'Field tablet', '120');
 
-    const request = http.expectOne('/api/v1/keys');
+    const request = http.expectOne(KEYS_URLS.list);
     expect(request.request.method).toBe('POST');
     expect(request.request.body).toEqual({ name: 'Field tablet', limitPerMinute: 120 });
     const created: CreatedApiKey = {
@@ -183,7 +184,7 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     // it sets off prevents until the test answers it.
     buttonByText('I have kept the key')?.click();
     await settle(fixture);
-    http.expectOne('/api/v1/keys').flush(LIST);
+    http.expectOne(KEYS_URLS.list).flush(LIST);
     expect(await overlays.getAllHarnesses(MatDialogHarness)).toHaveLength(0);
   });
 
@@ -192,7 +193,7 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     const { loader, overlays, fixture } = await render();
     await (await loader.getHarness(MatButtonHarness.with({ text: /Create a key/ }))).click();
     const dialog = await createKey(overlays, 'Field tablet');
-    const request = http.expectOne('/api/v1/keys');
+    const request = http.expectOne(KEYS_URLS.list);
     // An empty limit leaves the server's default.
     expect(request.request.body).toEqual({ name: 'Field tablet' });
     request.flush({ key: WHOLE_KEY, summary: LOGGER }, { status: 201, statusText: 'Created' });
@@ -208,10 +209,10 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     let [name, limit] = await dialog.getAllHarnesses(MatFormFieldHarness);
     expect(await name?.getTextErrors()).toEqual(['Give the key a name that says who or what uses it.']);
     expect(await limit?.getTextErrors()).toEqual(['The limit is at least 1 request per minute.']);
-    http.expectNone('/api/v1/keys');
+    http.expectNone(KEYS_URLS.list);
 
     dialog = await createKey(overlays, 'Dealer portal', '60');
-    http.expectOne('/api/v1/keys').flush(
+    http.expectOne(KEYS_URLS.list).flush(
       {
         type: 'about:blank',
         title: 'Conflict',
@@ -236,17 +237,17 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     expect(await dialog.getTitleText()).toBe('Revoke the key “Dealer portal”?');
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Cancel' }))).click();
     await settle(fixture);
-    http.expectNone('/api/v1/keys/1');
+    http.expectNone(KEYS_URLS.key(1));
 
     await revoke.click();
     dialog = await overlays.getHarness(MatDialogHarness);
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Revoke the key' }))).click();
     await settle(fixture);
-    const request = http.expectOne('/api/v1/keys/1');
+    const request = http.expectOne(KEYS_URLS.key(1));
     expect(request.request.method).toBe('DELETE');
     request.flush(null, { status: 204, statusText: 'No Content' });
     await settle(fixture);
-    http.expectOne('/api/v1/keys').flush({ keys: [{ ...PORTAL, revokedAt: '2026-05-07T08:00:00.000Z' }] });
+    http.expectOne(KEYS_URLS.list).flush({ keys: [{ ...PORTAL, revokedAt: '2026-05-07T08:00:00.000Z' }] });
     // The revoke button went with the key; the focus waits on the way to create another.
     expect(document.activeElement?.textContent).toContain('Create a key');
   });
@@ -255,7 +256,7 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     const fixture = TestBed.createComponent(KeysPage);
     fixture.detectChanges();
     http
-      .expectOne('/api/v1/keys')
+      .expectOne(KEYS_URLS.list)
       .flush(
         { type: 'about:blank', title: 'Forbidden', status: 403 },
         { status: 403, statusText: 'Forbidden' },

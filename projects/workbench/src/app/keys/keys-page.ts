@@ -1,6 +1,5 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
 import { DatePipe, NgTemplateOutlet } from '@angular/common';
-import { HttpClient, httpResource } from '@angular/common/http';
 import {
   afterNextRender,
   ChangeDetectionStrategy,
@@ -22,11 +21,12 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import type { ApiKeySummary } from '@counterpoise/api';
 import { filter, map, switchMap } from 'rxjs';
-import type { ApiKeyList } from '../auth/api-types';
 import { AuthSession } from '../auth/auth-session';
 import { askToConfirm } from '../shell/confirm-dialog';
 import { httpErrorMessage } from '../shell/server-errors';
+import { API_REFERENCE_URL } from '../status/health.api';
 import { CreateKeyDialog } from './create-key-dialog';
+import { KeysApi } from './keys.api';
 
 /** Below this width a key's details stack in one column, so that the table fits a phone. */
 const WIDE_TABLE = '(min-width: 720px)';
@@ -51,13 +51,13 @@ const WIDE_TABLE = '(min-width: 720px)';
 })
 export class KeysPage {
   protected readonly session = inject(AuthSession);
-  private readonly http = inject(HttpClient);
+  private readonly api = inject(KeysApi);
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
   private readonly document = inject(DOCUMENT);
   private readonly injector = inject(Injector);
 
-  protected readonly list = httpResource<ApiKeyList>(() => '/api/v1/keys');
+  protected readonly list = this.api.listResource();
   /** Keys in use first, the newest at the top; revoked keys after them, kept for the record. */
   protected readonly keys = computed(() =>
     // value() throws while the resource is in error, hence hasValue() first.
@@ -80,6 +80,7 @@ export class KeysPage {
   /** The id of the key being revoked, to show its row busy. */
   protected readonly revoking = signal<number | null>(null);
   protected readonly httpErrorMessage = httpErrorMessage;
+  protected readonly apiReferenceUrl = API_REFERENCE_URL;
 
   protected create(): void {
     this.dialog
@@ -104,7 +105,7 @@ export class KeysPage {
         filter(Boolean),
         switchMap(() => {
           this.revoking.set(key.id);
-          return this.http.delete<void>(`/api/v1/keys/${key.id}`);
+          return this.api.revoke(key.id);
         }),
       )
       .subscribe({
