@@ -10,6 +10,7 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import type { Outbox } from '../auth/api-types';
 import { MASKED_SECRET } from './message-text';
 import { OutboxPage } from './outbox-page';
+import { OUTBOX_URL } from './outbox.api';
 
 const ORIGIN = window.location.origin;
 const OUTBOX: Outbox = {
@@ -69,7 +70,7 @@ describe('OutboxPage', () => {
     const harness = await RouterTestingHarness.create();
     const navigation = harness.navigateByUrl(url);
     await navigation;
-    http.expectOne('/api/v1/outbox').flush(OUTBOX);
+    http.expectOne(OUTBOX_URL).flush(OUTBOX);
     await harness.fixture.whenStable();
     return { harness, element: () => harness.routeNativeElement as HTMLElement };
   }
@@ -114,7 +115,7 @@ describe('OutboxPage', () => {
   it('shows a masked link as text and says why it cannot be followed', async () => {
     const text = `Accept: https://shop.example.com/accept-invitation?token=${MASKED_SECRET}\n`;
     const harness = await RouterTestingHarness.create('/outbox?message=3');
-    http.expectOne('/api/v1/outbox').flush({
+    http.expectOne(OUTBOX_URL).flush({
       messages: [{ ...OUTBOX.messages[0]!, id: 3, text, html: null }],
     });
     await harness.fixture.whenStable();
@@ -147,14 +148,14 @@ describe('OutboxPage', () => {
 
   it('says when nothing has been sent yet', async () => {
     const harness = await RouterTestingHarness.create('/outbox');
-    http.expectOne('/api/v1/outbox').flush({ messages: [] });
+    http.expectOne(OUTBOX_URL).flush({ messages: [] });
     await harness.fixture.whenStable();
     expect(harness.routeNativeElement?.textContent).toContain('No e-mail has been sent yet.');
   });
 
   it('says when the outbox cannot be fetched, and tries again on request', async () => {
     const harness = await RouterTestingHarness.create('/outbox');
-    http.expectOne('/api/v1/outbox').error(new ProgressEvent('error'));
+    http.expectOne(OUTBOX_URL).error(new ProgressEvent('error'));
     await harness.fixture.whenStable();
     const element = harness.routeNativeElement as HTMLElement;
     expect(element.querySelector('[role=alert]')?.textContent).toContain('The server cannot be reached');
@@ -162,6 +163,6 @@ describe('OutboxPage', () => {
       .find((button) => button.textContent?.includes('Try again'))
       ?.click();
     harness.fixture.detectChanges();
-    http.expectOne('/api/v1/outbox').flush(OUTBOX);
+    http.expectOne(OUTBOX_URL).flush(OUTBOX);
   });
 });

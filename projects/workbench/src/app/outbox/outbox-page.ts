@@ -1,6 +1,5 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
 import { DatePipe, DOCUMENT } from '@angular/common';
-import { httpResource } from '@angular/common/http';
 import {
   afterNextRender,
   ChangeDetectionStrategy,
@@ -18,9 +17,9 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { Router, RouterLink } from '@angular/router';
 import { map } from 'rxjs';
-import type { Outbox } from '../auth/api-types';
 import { httpErrorMessage } from '../shell/server-errors';
 import { hasMaskedSecret, linkify, MASKED_SECRET, pathInApp } from './message-text';
+import { OutboxApi } from './outbox.api';
 
 /** From this width the list and the open message sit side by side. */
 const TWO_PANES = '(min-width: 960px)';
@@ -47,7 +46,7 @@ export class OutboxPage {
   private readonly injector = inject(Injector);
   private lastOpen: number | null = null;
 
-  protected readonly outbox = httpResource<Outbox>(() => '/api/v1/outbox');
+  protected readonly outbox = inject(OutboxApi).listResource();
   /** Newest first: the message just sent is the one being looked for. */
   protected readonly messages = computed(() =>
     // value() throws while the resource is in error, hence hasValue() first.
