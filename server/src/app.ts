@@ -6,6 +6,9 @@ import { AccountsRepo } from './auth/accounts.repo';
 import { authRegistry } from './auth/auth.openapi';
 import { authRouter } from './auth/auth.router';
 import { AuthService } from './auth/auth.service';
+import type { BackgroundWork } from './auth/background-work';
+import type { ClientLimits } from './auth/client-limits';
+import type { HashGate } from './auth/hash-gate';
 import { type Clock, systemClock } from './clock';
 import type { Database } from './db/database';
 import { healthRegistry, healthRouter } from './health/health.router';
@@ -70,6 +73,12 @@ export interface AccountsDeps {
   readonly defaultKeyLimitPerMinute?: number;
   /** Requests per minute of a signed-in person on the calculator routes. */
   readonly userCalcLimitPerMinute?: number;
+  /** Per-client-address limits of sign-in, resets and invitations; `DEFAULT_CLIENT_LIMITS` otherwise. */
+  readonly clientLimits?: Partial<ClientLimits>;
+  /** The gate of password hashes (how many at once, how many waiting); a default one when absent. */
+  readonly hashGate?: HashGate;
+  /** Where reset e-mails are sent after the answer; main.ts waits for it at shutdown, tests for mail. */
+  readonly background?: BackgroundWork;
 }
 
 /** The mailer of an app built without one: it says why nothing can be sent. */
@@ -120,6 +129,10 @@ export function createApp(deps: AppDeps): Express {
     clock,
     mailer,
     log,
+    {
+      ...(accounts.hashGate ? { hashGate: accounts.hashGate } : {}),
+      ...(accounts.background ? { background: accounts.background } : {}),
+    },
   );
   const keys = new ApiKeyService(new ApiKeysRepo(deps.database.orm));
 
@@ -147,8 +160,11 @@ export function createApp(deps: AppDeps): Express {
   // The workbench's routes, for signed-in people (and the public session routes). Mounted ahead of
   // the other keyed routes; a path they do not answer falls through to them.
   const signedIn = Router();
-  signedIn.use(authRouter(auth));
-  signedIn.use(peopleRouter({ auth, people: new PeopleService(accountsRepo, auth, clock, mailer) }));
+  const clientLimits = accounts.clientLimits ?? {};
+  signedIn.use(authRouter(auth, { clientLimits }));
+  signedIn.use(
+    peopleRouter({ auth, people: new PeopleService(accountsRepo, auth, clock, mailer), clientLimits }),
+  );
   signedIn.use(
     keysRouter({ auth, keys, clock, defaultLimitPerMinute: accounts.defaultKeyLimitPerMinute ?? 600 }),
   );

@@ -285,4 +285,7 @@ export const ACCOUNTS_PROBLEM_CODES = {
   emailTaken: 'EMAIL_TAKEN',
   ownAccount: 'OWN_ACCOUNT',
   mailNotSent: 'MAIL_NOT_SENT',
+  clientThrottled: 'CLIENT_THROTTLED',
+  passwordChecksBusy: 'PASSWORD_CHECKS_BUSY',
+  crossSite: 'CROSS_SITE_REQUEST',
 } as const;

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, gt, isNull, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, gt, isNull, ne, type SQL, sql } from 'drizzle-orm';
 import type { Role } from '@counterpoise/api';
 import type { Orm } from '../db/database';
 import {
@@ -11,6 +11,22 @@ import {
 } from '../db/schema';
 
 export type UserStatus = 'active' | 'deactivated';
+
+/** How failed sign-ins of an address are counted and held back (see `waitAfterFailures`). */
+export interface SignInFailurePolicy {
+  /** The failures in a row from which the wait no longer grows: the lock. */
+  readonly lockAfter: number;
+  /** How long an address must wait after its n-th failure in a row (0: not at all). */
+  readonly waitMs: (failures: number) => number;
+  /** Failures whose latest is this old are forgotten: the next attempt counts from one again. */
+  readonly forgetMs: number;
+}
+
+/** An attempt counted by `countSignInAttempt`: the failures in a row with it, and the wait it sets. */
+export interface CountedAttempt {
+  readonly failures: number;
+  readonly blockedUntil: Date | null;
+}
 
 /** A stored person with their organisation's name; the password hash stays in `UserCredentials`. */
 export interface UserRecord {
@@ -183,12 +199,48 @@ export class AccountsRepo {
     return this.orm.select().from(signInFailures).where(eq(signInFailures.email, email)).get();
   }
 
-  saveFailures(row: { email: string; failures: number; lastFailedAt: Date; blockedUntil: Date | null }) {
-    this.orm
+  /**
+   * Counts a sign-in attempt as a failure before its password is checked (a success clears the count
+   * afterwards), in one statement: the count goes up by one (from one when the last failure is older
+   * than `forgetMs`) and the wait of the new count is set. An address still waiting is left as it is
+   * and nothing is returned: the attempt is refused without being counted. Being one statement, it
+   * holds however many attempts arrive at once, in this process or another on the same file.
+   */
+  countSignInAttempt(email: string, now: Date, policy: SignInFailurePolicy): CountedAttempt | undefined {
+    const at = now.getTime();
+    const blockedUntilAfter = (failures: number): number | null => {
+      const wait = policy.waitMs(failures);
+      return wait > 0 ? at + wait : null;
+    };
+    const count = sql`(CASE WHEN ${signInFailures.lastFailedAt} <= ${at - policy.forgetMs} THEN 1 ELSE ${signInFailures.failures} + 1 END)`;
+    // The schedule is spelled out from `policy.waitMs` itself, so the statement cannot drift from it.
+    const steps: SQL[] = [
+      sql`WHEN ${count} >= ${policy.lockAfter} THEN ${blockedUntilAfter(policy.lockAfter)}`,
+    ];
+    for (let failures = 1; failures < policy.lockAfter; failures++) {
+      const until = blockedUntilAfter(failures);
+      if (until !== null) steps.push(sql`WHEN ${count} = ${failures} THEN ${until}`);
+    }
+    const first = blockedUntilAfter(1);
+    return this.orm
       .insert(signInFailures)
-      .values(row)
-      .onConflictDoUpdate({ target: signInFailures.email, set: row })
-      .run();
+      .values({
+        email,
+        failures: 1,
+        lastFailedAt: now,
+        blockedUntil: first === null ? null : new Date(first),
+      })
+      .onConflictDoUpdate({
+        target: signInFailures.email,
+        set: {
+          failures: count,
+          lastFailedAt: now,
+          blockedUntil: sql`(CASE ${sql.join(steps, sql` `)} ELSE NULL END)`,
+        },
+        setWhere: sql`${signInFailures.blockedUntil} IS NULL OR ${signInFailures.blockedUntil} <= ${at}`,
+      })
+      .returning({ failures: signInFailures.failures, blockedUntil: signInFailures.blockedUntil })
+      .get();
   }
 
   clearFailures(email: string): void {
@@ -311,6 +363,37 @@ export class AccountsRepo {
 
   insertPasswordReset(row: { userId: number; tokenHash: string; createdAt: Date; expiresAt: Date }): void {
     this.orm.insert(passwordResets).values(row).run();
+  }
+
+  /** When the person's latest reset link was issued, if ever. */
+  latestPasswordResetAt(userId: number): Date | undefined {
+    return this.orm
+      .select({ createdAt: passwordResets.createdAt })
+      .from(passwordResets)
+      .where(eq(passwordResets.userId, userId))
+      .orderBy(desc(passwordResets.createdAt), desc(passwordResets.id))
+      .limit(1)
+      .get()?.createdAt;
+  }
+
+  /** Ends every open reset link of a person (but `keep`, if given) by marking it used at `now`. */
+  endOpenPasswordResets(userId: number, now: Date, keep?: string): void {
+    this.orm
+      .update(passwordResets)
+      .set({ usedAt: now })
+      .where(
+        and(
+          eq(passwordResets.userId, userId),
+          isNull(passwordResets.usedAt),
+          keep === undefined ? undefined : ne(passwordResets.tokenHash, keep),
+        ),
+      )
+      .run();
+  }
+
+  /** Removes a reset link that never reached its person (its e-mail could not be sent). */
+  deletePasswordReset(tokenHash: string): void {
+    this.orm.delete(passwordResets).where(eq(passwordResets.tokenHash, tokenHash)).run();
   }
 
   /** The person of a reset token that is neither spent nor expired. */

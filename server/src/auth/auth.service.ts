@@ -11,8 +11,11 @@ import type { Clock } from '../clock';
 import { HttpProblem } from '../http/problem';
 import type { Mailer } from '../mail/mailer';
 import { composeMail } from '../mail/mailer';
-import type { AccountsRepo, UserRecord } from './accounts.repo';
+import type { AccountsRepo, SignInFailurePolicy, UserRecord } from './accounts.repo';
+import { BackgroundWork } from './background-work';
+import { HashGate, HashGateFull } from './hash-gate';
 import { decoyHash, hashPassword, passwordWeakness, type ScryptCost, verifyPassword } from './passwords';
+import { TooManyRequests } from './too-many-requests';
 import {
   ACCESS_TOKEN_TTL_SECONDS,
   generateSecret,
@@ -36,6 +39,16 @@ export interface AuthSettings {
 export const REFRESH_TOKEN_TTL_MS = 14 * 24 * 3_600_000;
 /** How long a password-reset link works. */
 export const PASSWORD_RESET_TTL_MS = 3_600_000;
+/**
+ * At most one reset e-mail per address in this span: asking again sooner is answered alike (202) and
+ * sends nothing, so that nobody can fill a person's mailbox or pile up live links.
+ */
+export const PASSWORD_RESET_MAIL_INTERVAL_MS = 5 * 60_000;
+/**
+ * How long the refresh token just replaced still answers, with the same successor: two tabs that
+ * refresh at the same moment with one cookie both go on, instead of ending the session as a theft.
+ */
+export const REFRESH_GRACE_MS = 10_000;
 
 /** Failed sign-ins of an address in a row before each further attempt must wait. */
 export const SLOW_DOWN_AFTER = 5;
@@ -55,6 +68,13 @@ export function waitAfterFailures(failures: number): number {
   if (failures >= LOCK_AFTER) return LOCK_MS;
   return 1000 * 2 ** (failures - SLOW_DOWN_AFTER);
 }
+
+/** The slow-down and lock above, as the sign-in counter applies them. */
+export const SIGN_IN_FAILURE_POLICY: SignInFailurePolicy = {
+  lockAfter: LOCK_AFTER,
+  waitMs: waitAfterFailures,
+  forgetMs: FORGET_FAILURES_MS,
+};
 
 /** Stable `code`s of the accounts problems (shared with the workbench). */
 export const AUTH_PROBLEM_CODES = ACCOUNTS_PROBLEM_CODES;
@@ -93,12 +113,30 @@ function unauthenticated(detail: string, code: string): HttpProblem {
 const WEAK = (error: FieldError) =>
   problem(400, 'Bad Request', `${error.path}: ${error.message}`, AUTH_PROBLEM_CODES.weakPassword, [error]);
 
+/** What the protections of the accounts routes are built from; a default of each when absent. */
+export interface AuthProtections {
+  /** The gate every password hash passes through. */
+  readonly hashGate?: HashGate;
+  /** Where the work after an answer runs (reset e-mails). */
+  readonly background?: BackgroundWork;
+}
+
+/** The successor a refresh gave for a token, kept in memory for `REFRESH_GRACE_MS`. */
+interface RecentRefresh {
+  readonly successor: string;
+  readonly untilMs: number;
+}
+
 /**
  * Signing in and out, sessions and their refresh tokens, password rules and resets. Passwords are
  * only ever held to hash or verify them: they are neither stored nor logged.
  */
 export class AuthService {
   private decoy: Promise<string> | undefined;
+  private readonly hashes: HashGate;
+  private readonly background: BackgroundWork;
+  /** By the hash of the token replaced: never the secret of a replaced token, only of its successor. */
+  private readonly recentRefreshes = new Map<string, RecentRefresh>();
 
   constructor(
     private readonly repo: AccountsRepo,
@@ -106,13 +144,20 @@ export class AuthService {
     private readonly clock: Clock,
     private readonly mailer: Mailer,
     private readonly log: (message: string, error?: unknown) => void,
-  ) {}
+    protections: AuthProtections = {},
+  ) {
+    this.hashes = protections.hashGate ?? new HashGate();
+    this.background = protections.background ?? new BackgroundWork(log);
+  }
 
-  /** Hashes a password after checking it against the rules; a 400 naming `password` otherwise. */
+  /**
+   * Hashes a password after checking it against the rules; a 400 naming `password` otherwise, a 429
+   * when the server is already hashing all it takes.
+   */
   async checkAndHashPassword(password: string, email: string): Promise<string> {
     const weakness = passwordWeakness(password, { email });
     if (weakness) throw WEAK(weakness);
-    return hashPassword(password, this.settings.passwordCost);
+    return this.hashes.run(() => hashPassword(password, this.settings.passwordCost));
   }
 
   /**
@@ -120,41 +165,26 @@ export class AuthService {
    * 4, 8, 16 s: answered 429 with `Retry-After`, without checking the password); after 10 it is
    * locked for 15 minutes. Known and unknown addresses are counted, delayed and answered alike, and an
    * unknown one costs a decoy hash, so no answer tells whether an address has an account.
+   *
+   * The attempt is counted as a failure before the password is checked, and the count cleared once it
+   * proves right: attempts sent at once are each counted, and those past the allowance are refused
+   * without a hash. When the server is already hashing all it takes, the attempt is refused (429)
+   * before it is counted.
    */
   async signIn(email: string, password: string): Promise<IssuedSession> {
+    if (this.hashes.full) throw new HashGateFull();
     const now = this.clock.now();
-    const failures = this.repo.findFailures(email);
-    if (failures?.blockedUntil && failures.blockedUntil.getTime() > now.getTime()) {
-      const seconds = Math.ceil((failures.blockedUntil.getTime() - now.getTime()) / 1000);
-      const locked = failures.failures >= LOCK_AFTER;
-      throw Object.assign(
-        problem(
-          429,
-          'Too Many Requests',
-          locked
-            ? `Too many failed sign-ins with this address: it is locked for ${Math.ceil(seconds / 60)} more minutes. Reset the password, or wait.`
-            : `Too many failed sign-ins with this address. Wait ${seconds} s before trying again.`,
-          locked ? AUTH_PROBLEM_CODES.locked : AUTH_PROBLEM_CODES.throttled,
-        ),
-        { retryAfterSeconds: seconds },
-      );
-    }
+    const counted = this.repo.countSignInAttempt(email, now, SIGN_IN_FAILURE_POLICY);
+    if (counted === undefined) throw this.tooSoon(email, now);
 
     const credentials = this.repo.findCredentialsByEmail(email);
-    const matches = credentials
-      ? await verifyPassword(password, credentials.passwordHash)
-      : await verifyPassword(password, await this.decoyHash()).then(() => false);
+    // No await between the `full` check and here: the gate has room for this one.
+    const matches = await this.hashes.run(async () =>
+      credentials
+        ? verifyPassword(password, credentials.passwordHash)
+        : verifyPassword(password, await this.decoyHash()).then(() => false),
+    );
     if (!credentials || !matches) {
-      const recent =
-        failures !== undefined && now.getTime() - failures.lastFailedAt.getTime() < FORGET_FAILURES_MS;
-      const count = (recent ? failures.failures : 0) + 1;
-      const wait = waitAfterFailures(count);
-      this.repo.saveFailures({
-        email,
-        failures: count,
-        lastFailedAt: now,
-        blockedUntil: wait > 0 ? new Date(now.getTime() + wait) : null,
-      });
       throw unauthenticated(
         'The e-mail address or the password is not right.',
         AUTH_PROBLEM_CODES.invalidCredentials,
@@ -172,8 +202,29 @@ export class AuthService {
     return this.issueSession(credentials);
   }
 
+  /** The 429 of an attempt that came while its address must wait or is locked. */
+  private tooSoon(email: string, now: Date): TooManyRequests {
+    const failures = this.repo.findFailures(email);
+    const blockedMs = (failures?.blockedUntil?.getTime() ?? now.getTime()) - now.getTime();
+    const seconds = Math.max(1, Math.ceil(blockedMs / 1000));
+    const locked = (failures?.failures ?? 0) >= LOCK_AFTER;
+    return new TooManyRequests(
+      locked
+        ? `Too many failed sign-ins with this address: it is locked for ${Math.ceil(seconds / 60)} more minutes. Reset the password, or wait.`
+        : `Too many failed sign-ins with this address. Wait ${seconds} s before trying again.`,
+      locked ? AUTH_PROBLEM_CODES.locked : AUTH_PROBLEM_CODES.throttled,
+      seconds,
+    );
+  }
+
   /** Starts a session: a new family of refresh tokens and an access token. */
   async issueSession(user: UserRecord, familyId: string = randomUUID()): Promise<IssuedSession> {
+    const refreshToken = this.storeRefreshToken(user, familyId);
+    return { session: await this.sessionOf(user), refreshToken };
+  }
+
+  /** Stores a new refresh token of a family and returns its secret. */
+  private storeRefreshToken(user: UserRecord, familyId: string): string {
     const now = this.clock.now();
     const { secret, hash } = generateSecret();
     this.repo.insertRefreshToken({
@@ -183,7 +234,7 @@ export class AuthService {
       createdAt: now,
       expiresAt: new Date(now.getTime() + REFRESH_TOKEN_TTL_MS),
     });
-    return { session: await this.sessionOf(user), refreshToken: secret };
+    return secret;
   }
 
   private async sessionOf(user: UserRecord): Promise<Session> {
@@ -203,7 +254,9 @@ export class AuthService {
   /**
    * Trades a refresh token for a new one of the same family and a new access token. A token already
    * traded is a copy in someone else's hands: the whole family is revoked, and both holders must sign
-   * in again.
+   * in again. Except within `REFRESH_GRACE_MS` of its trade, while its successor is still unused: then
+   * it answers that same successor again (with a fresh access token), because two tabs of one browser
+   * refreshing at the same moment with one cookie are not a theft.
    */
   async refresh(token: string | undefined): Promise<IssuedSession> {
     const invalid = unauthenticated(
@@ -212,7 +265,9 @@ export class AuthService {
     );
     if (token === undefined || token === '') throw invalid;
     const now = this.clock.now();
-    const row = this.repo.findRefreshToken(hashSecret(token));
+    this.forgetOldRefreshes(now);
+    const tokenHash = hashSecret(token);
+    const row = this.repo.findRefreshToken(tokenHash);
     if (!row || row.revokedAt !== null) throw invalid;
     const reused = () => {
       this.repo.revokeFamily(row.familyId, now);
@@ -221,7 +276,11 @@ export class AuthService {
         AUTH_PROBLEM_CODES.refreshReused,
       );
     };
-    if (row.replacedAt !== null) throw reused();
+    if (row.replacedAt !== null) {
+      const again = this.successorInGrace(tokenHash, now);
+      if (again === undefined) throw reused();
+      return { session: await this.sessionOf(again.user), refreshToken: again.successor };
+    }
     if (row.expiresAt.getTime() <= now.getTime()) throw invalid;
     const user = this.repo.findUserById(row.userId);
     if (!user || user.status !== 'active') {
@@ -230,7 +289,32 @@ export class AuthService {
     }
     const replaced = this.repo.markReplaced(row.id, now);
     if (!replaced) throw reused();
-    return this.issueSession(user, row.familyId);
+    // Stored and remembered before the first await, so that a second refresh with the same token,
+    // however soon, finds both.
+    const successor = this.storeRefreshToken(user, row.familyId);
+    this.recentRefreshes.set(tokenHash, { successor, untilMs: now.getTime() + REFRESH_GRACE_MS });
+    return { session: await this.sessionOf(user), refreshToken: successor };
+  }
+
+  /** The successor given for a replaced token, while its grace lasts and it is still usable. */
+  private successorInGrace(
+    tokenHash: string,
+    now: Date,
+  ): { successor: string; user: UserRecord } | undefined {
+    const recent = this.recentRefreshes.get(tokenHash);
+    if (recent === undefined || recent.untilMs <= now.getTime()) return undefined;
+    const next = this.repo.findRefreshToken(hashSecret(recent.successor));
+    if (!next || next.revokedAt !== null || next.replacedAt !== null) return undefined;
+    if (next.expiresAt.getTime() <= now.getTime()) return undefined;
+    const user = this.repo.findUserById(next.userId);
+    if (!user || user.status !== 'active') return undefined;
+    return { successor: recent.successor, user };
+  }
+
+  private forgetOldRefreshes(now: Date): void {
+    for (const [tokenHash, recent] of this.recentRefreshes) {
+      if (recent.untilMs <= now.getTime()) this.recentRefreshes.delete(tokenHash);
+    }
   }
 
   /** Ends the session of a refresh token: its family is revoked. Nothing happens for an unknown one. */
@@ -260,20 +344,35 @@ export class AuthService {
   }
 
   /**
-   * Sends a reset link when an active account has this address; does nothing otherwise. The caller
-   * answers 202 either way, so the answer tells nothing of the address.
+   * Takes a request for a reset link and returns at once: the caller answers 202 before anything is
+   * looked up, so neither the answer nor its time tells whether the address has an account. After the
+   * answer, an active account with this address gets a link, unless it got one less than
+   * `PASSWORD_RESET_MAIL_INTERVAL_MS` ago; the new link ends every older one.
    */
-  async requestPasswordReset(email: string): Promise<void> {
-    const user = this.repo.findCredentialsByEmail(email);
-    if (!user || user.status !== 'active') return;
+  requestPasswordReset(email: string): void {
+    this.background.start('A password-reset e-mail could not be sent.', () => this.sendPasswordReset(email));
+  }
+
+  private async sendPasswordReset(email: string): Promise<void> {
     const now = this.clock.now();
-    const { secret, hash } = generateSecret();
-    this.repo.insertPasswordReset({
-      userId: user.id,
-      tokenHash: hash,
-      createdAt: now,
-      expiresAt: new Date(now.getTime() + PASSWORD_RESET_TTL_MS),
+    // One transaction without an await: requests for one address that arrive together issue one link.
+    const issued = this.repo.transaction(() => {
+      const user = this.repo.findCredentialsByEmail(email);
+      if (!user || user.status !== 'active') return undefined;
+      const latest = this.repo.latestPasswordResetAt(user.id);
+      if (latest && now.getTime() - latest.getTime() < PASSWORD_RESET_MAIL_INTERVAL_MS) return undefined;
+      this.repo.endOpenPasswordResets(user.id, now);
+      const { secret, hash } = generateSecret();
+      this.repo.insertPasswordReset({
+        userId: user.id,
+        tokenHash: hash,
+        createdAt: now,
+        expiresAt: new Date(now.getTime() + PASSWORD_RESET_TTL_MS),
+      });
+      return { user, secret, hash };
     });
+    if (issued === undefined) return;
+    const { user, secret, hash } = issued;
     const url = `${this.settings.publicUrl}/reset-password?token=${secret}`;
     try {
       await this.mailer.send({
@@ -291,13 +390,16 @@ export class AuthService {
         ),
       });
     } catch (error) {
-      this.log('A password-reset e-mail could not be sent.', error);
+      // A link that reached nobody must not hold back the next request for one.
+      this.repo.deletePasswordReset(hash);
+      throw error;
     }
   }
 
   /**
-   * Sets a new password with a reset link's token: the token is spent, every session of the person
-   * ends, and failed sign-ins are forgotten. A weak password is refused before the token is spent.
+   * Sets a new password with a reset link's token: the token is spent with every other open link of
+   * the person, every session of the person ends, and failed sign-ins are forgotten. A weak password
+   * is refused before the token is spent.
    */
   async confirmPasswordReset(token: string, password: string): Promise<void> {
     const now = this.clock.now();
@@ -321,14 +423,19 @@ export class AuthService {
     this.repo.transaction(() => {
       const spentBy = this.repo.spendPasswordReset(tokenHash, this.clock.now());
       if (spentBy !== user.id) throw linkInvalid;
+      this.repo.endOpenPasswordResets(user.id, now);
       this.repo.setPassword(user.id, passwordHash);
       this.repo.revokeAllOfUser(user.id, now);
       this.repo.clearFailures(user.email);
     });
   }
 
+  /** Computed once, inside the gate place of the first unknown address that needs it. */
   private decoyHash(): Promise<string> {
-    this.decoy ??= decoyHash(this.settings.passwordCost);
+    this.decoy ??= decoyHash(this.settings.passwordCost).catch((error: unknown) => {
+      this.decoy = undefined;
+      throw error;
+    });
     return this.decoy;
   }
 }

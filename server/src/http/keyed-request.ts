@@ -9,7 +9,7 @@ export interface ApiKeyIdentity {
   readonly name: string;
   /** The short visible start of the key, safe to show and log. */
   readonly prefix: string;
-  /** Calculations per minute this key may make (a batch of n counts n). */
+  /** Requests per minute this key may make. */
   readonly limitPerMinute: number;
 }
 

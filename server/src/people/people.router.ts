@@ -20,8 +20,15 @@ import {
   SET_COOKIE_HEADER,
   SIGNED_IN_RESPONSES,
 } from '../auth/auth.openapi';
-import { accountsJson, sendSession } from '../auth/auth.router';
+import {
+  accountsJson,
+  CROSS_SITE_RESPONSE,
+  PASSWORD_CHECKS_BUSY,
+  RETRY_AFTER_HEADER,
+  sendSession,
+} from '../auth/auth.router';
 import type { AuthService } from '../auth/auth.service';
+import { type ClientLimits, clientLimiter, defaultLimitInWords } from '../auth/client-limits';
 import {
   ACCEPT_INVITATION_EXAMPLE,
   INVITATION_EXAMPLE,
@@ -33,6 +40,8 @@ import {
   USER_EXAMPLE,
 } from '../auth/examples';
 import { requirePermission, requireUser } from '../auth/require-user';
+import { refuseCrossSite } from '../auth/same-origin';
+import { retryAfterHeader } from '../auth/too-many-requests';
 import { IdParamSchema, TokenParamSchema, validateParams } from '../http/params';
 import { validateBody } from '../http/validate';
 import type { PeopleService } from './people.service';
@@ -87,7 +96,9 @@ peopleRegistry.registerPath({
   description:
     'Owners change the role and status of anyone but themselves; managers deactivate or reactivate ' +
     'technicians and viewers only. Deactivating ends the person’s sessions. A person of another ' +
-    'organisation is not found (404).',
+    'organisation is not found (404). The role and status of both people are read again when the ' +
+    'change is made: an actor whose role or status changed meanwhile is refused (403), so two owners ' +
+    'demoting each other at once leave one owner.',
   security: ACCESS_TOKEN_SECURITY,
   request: { params: IdParamSchema, ...jsonBody(UpdatePersonSchema, UPDATE_PERSON_EXAMPLE) },
   responses: {
@@ -118,19 +129,31 @@ peopleRegistry.registerPath({
   path: '/api/v1/invitations/{token}/accept',
   tags: ['People'],
   summary: 'Accept an invitation: choose a name and a password, and sign in',
-  description: 'Creates the person with the invitation’s role, spends the link, and signs them in.',
+  description:
+    'Creates the person with the invitation’s role, spends the link, and signs them in. Limited per ' +
+    `client address (${defaultLimitInWords('invitationAccept')} by default).`,
   request: { params: TokenParamSchema, ...jsonBody(AcceptInvitationSchema, ACCEPT_INVITATION_EXAMPLE) },
   responses: {
     201: { ...jsonResponse('Signed in.', SessionSchema, SESSION_EXAMPLE), headers: SET_COOKIE_HEADER },
     400: problemResponse('The body does not fit, or the password breaks a rule (`errors` on `password`).'),
+    403: CROSS_SITE_RESPONSE,
     404: problemResponse('No invitation has this token.'),
     409: problemResponse('The address already has an account (`code`: `EMAIL_TAKEN`).'),
     410: problemResponse('The invitation was accepted, replaced or has expired.'),
+    429: problemResponse(
+      `Too many invitations accepted from this client address (\`code\`: \`CLIENT_THROTTLED\`), or ${PASSWORD_CHECKS_BUSY}.`,
+      RETRY_AFTER_HEADER,
+    ),
   },
 });
 
 /** The people routes and the invitation links, mounted on `/api/v1`. */
-export function peopleRouter(deps: { auth: AuthService; people: PeopleService }): Router {
+export function peopleRouter(deps: {
+  auth: AuthService;
+  people: PeopleService;
+  /** The per-client limits (invitations accepted); the defaults for those left out. */
+  clientLimits?: Partial<ClientLimits>;
+}): Router {
   const { auth, people } = deps;
   const router = Router();
   const signedIn = requireUser(auth);
@@ -173,6 +196,8 @@ export function peopleRouter(deps: { auth: AuthService; people: PeopleService })
 
   router.post(
     '/invitations/:token/accept',
+    refuseCrossSite(auth.settings.publicUrl),
+    clientLimiter('invitationAccept', deps.clientLimits),
     validateParams(TokenParamSchema),
     ...accountsJson,
     validateBody(AcceptInvitationSchema),
@@ -183,5 +208,6 @@ export function peopleRouter(deps: { auth: AuthService; people: PeopleService })
     },
   );
 
+  router.use(retryAfterHeader);
   return router;
 }

@@ -191,42 +191,61 @@ export class PeopleService {
   }
 
   /**
-   * Changes a person's role or status. Owners change anyone's but their own (so an organisation always
-   * keeps an owner); managers only deactivate or reactivate technicians and viewers. Deactivating ends
-   * the person's sessions. Someone of another organisation is not found.
+   * Changes a person's role or status. Owners change anyone's but their own; managers only deactivate
+   * or reactivate technicians and viewers. Deactivating ends the person's sessions. Someone of another
+   * organisation is not found.
+   *
+   * The rules are checked inside the change's transaction against the actor and the person as they
+   * are then, not as the access token found them a moment earlier: of two owners who demote or
+   * deactivate each other at the same moment, the second is no longer an owner when their change is
+   * made, and is refused (403). As nobody changes themselves, the actor of any change of an owner stays
+   * an active owner: the organisation keeps one.
    */
   update(actor: UserRecord, id: number, change: z.output<typeof UpdatePersonSchema>): User {
-    const person = this.repo.findUserInOrganisation(actor.organisationId, id);
-    if (!person) throw new HttpProblem(404, 'Not Found', `No person ${id} in your organisation.`);
     const field = change.role !== undefined ? 'role' : 'status';
-    if (person.id === actor.id) {
-      throw refuse(409, 'Conflict', 'OWN_ACCOUNT', {
-        path: field,
-        message: 'You cannot change your own role or status; ask another owner.',
-      });
-    }
-    if (!can(actor.role, 'people:manage')) {
-      if (change.role !== undefined) {
-        throw refuse(403, 'Forbidden', AUTH_PROBLEM_CODES.forbidden, {
-          path: 'role',
-          message: 'Only an owner changes roles.',
-        });
-      }
-      if (!MANAGER_INVITABLE_ROLES.includes(person.role)) {
-        throw refuse(403, 'Forbidden', AUTH_PROBLEM_CODES.forbidden, {
-          path: 'status',
-          message: `A ${actor.role} changes the status of ${MANAGER_INVITABLE_ROLES.join(' and ')} people only.`,
-        });
-      }
-    }
     const now = this.clock.now();
-    this.repo.transaction(() => {
+    return this.repo.transaction(() => {
+      const person = this.repo.findUserInOrganisation(actor.organisationId, id);
+      if (!person) throw new HttpProblem(404, 'Not Found', `No person ${id} in your organisation.`);
+      if (person.id === actor.id) {
+        throw refuse(409, 'Conflict', AUTH_PROBLEM_CODES.ownAccount, {
+          path: field,
+          message: 'You cannot change your own role or status; ask another owner.',
+        });
+      }
+      const current = this.repo.findUserInOrganisation(actor.organisationId, actor.id);
+      if (!current || current.status !== 'active') {
+        throw refuse(403, 'Forbidden', AUTH_PROBLEM_CODES.forbidden, {
+          path: field,
+          message: 'Your account was deactivated meanwhile.',
+        });
+      }
+      if (!can(current.role, 'people:manage')) {
+        if (!can(current.role, 'people:invite')) {
+          throw refuse(403, 'Forbidden', AUTH_PROBLEM_CODES.forbidden, {
+            path: field,
+            message: `Your role was changed to ${current.role} meanwhile; it may not change people.`,
+          });
+        }
+        if (change.role !== undefined) {
+          throw refuse(403, 'Forbidden', AUTH_PROBLEM_CODES.forbidden, {
+            path: 'role',
+            message: 'Only an owner changes roles.',
+          });
+        }
+        if (!MANAGER_INVITABLE_ROLES.includes(person.role)) {
+          throw refuse(403, 'Forbidden', AUTH_PROBLEM_CODES.forbidden, {
+            path: 'status',
+            message: `A ${current.role} changes the status of ${MANAGER_INVITABLE_ROLES.join(' and ')} people only.`,
+          });
+        }
+      }
       this.repo.updateUser(actor.organisationId, id, {
         ...(change.role === undefined ? {} : { role: change.role }),
         ...(change.status === undefined ? {} : { status: change.status }),
       });
       if (change.status === 'deactivated') this.repo.revokeAllOfUser(id, now);
+      return toUser(this.repo.findUserInOrganisation(actor.organisationId, id)!);
     });
-    return toUser(this.repo.findUserInOrganisation(actor.organisationId, id)!);
   }
 }

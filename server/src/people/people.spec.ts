@@ -1,3 +1,4 @@
+import { randomBytes } from 'node:crypto';
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { InvitationPreviewSchema, PeopleSchema, ProblemSchema, SessionSchema } from '@counterpoise/api';
@@ -11,7 +12,10 @@ import {
   type TestOrganisation,
 } from '../testing/accounts';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
-import { INVITATION_TTL_MS } from './people.service';
+import { AccountsRepo } from '../auth/accounts.repo';
+import { AuthService } from '../auth/auth.service';
+import { HttpProblem } from '../http/problem';
+import { INVITATION_TTL_MS, PeopleService } from './people.service';
 
 let temporary: TemporaryDatabase;
 let test: AccountsTestApp;
@@ -166,5 +170,70 @@ describe('PATCH /api/v1/people/{id}', () => {
       .prepare('SELECT role, status FROM users WHERE id = ?')
       .get(shop.people.viewer.id);
     expect(row).toEqual({ role: 'viewer', status: 'active' });
+  });
+});
+
+describe('owners changing each other at the same moment', () => {
+  const activeOwners = () =>
+    temporary.database.sqlite
+      .prepare(
+        "SELECT count(*) FROM users WHERE role = 'owner' AND status = 'active' AND organisation_id = ?",
+      )
+      .pluck()
+      .get(shop.id);
+
+  it('never both succeed: a change is checked against the actor as they are when it is made', () => {
+    const repo = new AccountsRepo(temporary.database.orm);
+    repo.updateUser(shop.id, shop.people.manager.id, { role: 'owner' });
+    const auth = new AuthService(
+      repo,
+      {
+        signingKey: randomBytes(48),
+        passwordCost: { log2N: 10 },
+        secureCookie: false,
+        publicUrl: 'http://x',
+      },
+      clock,
+      { send: () => Promise.resolve() },
+      () => undefined,
+    );
+    const service = new PeopleService(repo, auth, clock, { send: () => Promise.resolve() });
+    for (const change of [{ role: 'technician' as const }, { status: 'deactivated' as const }]) {
+      // Both access tokens were checked, and both people read as owners, before either change is made.
+      const first = repo.findUserById(shop.people.owner.id)!;
+      const second = repo.findUserById(shop.people.manager.id)!;
+      service.update(first, second.id, change);
+      let refused: unknown;
+      try {
+        service.update(second, first.id, change);
+      } catch (error) {
+        refused = error;
+      }
+      expect(refused).toBeInstanceOf(HttpProblem);
+      expect(refused).toMatchObject({ status: 403, errors: [{ path: Object.keys(change)[0] }] });
+      expect(activeOwners()).toBe(1);
+      repo.updateUser(shop.id, shop.people.manager.id, { role: 'owner', status: 'active' });
+    }
+  });
+
+  it('sent in parallel, leave the organisation one active owner', async () => {
+    await patch('owner', shop.people.manager.id, { role: 'owner' }).expect(200);
+    for (const change of [{ role: 'technician' }, { status: 'deactivated' }]) {
+      tokens['owner'] = (await signIn(test.app, shop.people.owner.email)).accessToken;
+      tokens['second'] = (await signIn(test.app, shop.people.manager.email)).accessToken;
+      const answers = await Promise.all([
+        patch('owner', shop.people.manager.id, change),
+        patch('second', shop.people.owner.id, change),
+      ]);
+      // The other is refused: 403 for a demoted owner, 401 for a deactivated one (its token no longer
+      // works), whichever step of the request meets the change first.
+      const statuses = answers.map((answer) => answer.status).sort();
+      expect(statuses[0]).toBe(200);
+      expect(change.role ? [403] : [401, 403]).toContain(statuses[1]);
+      expect(activeOwners()).toBe(1);
+      temporary.database.sqlite
+        .prepare("UPDATE users SET role = 'owner', status = 'active' WHERE id IN (?, ?)")
+        .run(shop.people.owner.id, shop.people.manager.id);
+    }
   });
 });
