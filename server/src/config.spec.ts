@@ -23,7 +23,7 @@ describe('loadConfig', () => {
     expect(read).toThrow(/SEED_DEMO/);
   });
 
-  it('allows no cross-origin caller and 600 requests a minute for a new key by default', () => {
+  it('allows no cross-origin caller and 600 calculations a minute for a new key by default', () => {
     const config = loadConfig({});
     expect(config.CORS_ORIGINS).toEqual([]);
     expect(config.API_KEY_DEFAULT_LIMIT).toBe(600);

@@ -53,7 +53,7 @@ const ConfigSchema = z.object({
   STATIC_DIR: z.string().min(1).default('dist/workbench/browser'),
   /** Web pages on these origins may call `/api/v1` from the browser. */
   CORS_ORIGINS: origins,
-  /** Requests per minute of a key created without `--limit`. */
+  /** Calculations per minute of a key created without `--limit`. */
   API_KEY_DEFAULT_LIMIT: z.coerce.number().int().min(1).max(MAX_LIMIT_PER_MINUTE).default(600),
   /**
    * The secret that signs access tokens (HS256), at least 32 characters. Unset, the server generates

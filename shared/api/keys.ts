@@ -33,7 +33,7 @@ export const KEY_PROBLEM_CODES = {
   rateLimited: 'RATE_LIMITED',
 } as const;
 
-/** The highest per-key rate a key may be given, in requests per minute. */
+/** The highest per-key rate a key may be given, in calculations per minute. */
 export const MAX_LIMIT_PER_MINUTE = 1_000_000;
 
 /** A person's name for a key: who or what uses it. */
@@ -43,13 +43,13 @@ export const ApiKeyNameSchema = displayName({
   missing: 'Give the key a name that says who or what uses it.',
 }).meta({ description: 'Who or what uses the key.', example: 'Dealer portal' });
 
-/** How many requests per minute a key may make. */
+/** How many calculations per minute a key may make; a batch of n counts n. */
 export const LimitPerMinuteSchema = z
   .number()
-  .int('The limit is a whole number of requests per minute.')
-  .min(1, 'The limit is at least 1 request per minute.')
-  .max(MAX_LIMIT_PER_MINUTE, `The limit is at most ${MAX_LIMIT_PER_MINUTE} requests per minute.`)
-  .meta({ description: 'Requests per minute the key may make.', example: 600 });
+  .int('The limit is a whole number of calculations per minute.')
+  .min(1, 'The limit is at least 1 calculation per minute.')
+  .max(MAX_LIMIT_PER_MINUTE, `The limit is at most ${MAX_LIMIT_PER_MINUTE} calculations per minute.`)
+  .meta({ description: 'Calculations per minute the key may make; a batch of n counts n.', example: 600 });
 
 /** What creating a key takes; without a limit, the server's default applies. */
 export const CreateApiKeySchema = z

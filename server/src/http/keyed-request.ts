@@ -9,7 +9,7 @@ export interface ApiKeyIdentity {
   readonly name: string;
   /** The short visible start of the key, safe to show and log. */
   readonly prefix: string;
-  /** Requests per minute this key may make. */
+  /** Calculations per minute this key may make (a batch of n counts n). */
   readonly limitPerMinute: number;
 }
 

@@ -44,7 +44,7 @@ describe('npm run api-key', { timeout: 60_000 }, () => {
     const created = apiKey('create', '--name', 'Dealer portal', '--limit', '42');
     expect(created.status).toBe(0);
     expect(created.lastLine).toMatch(API_KEY_PATTERN);
-    expect(created.stdout).toMatch(/42 requests a minute/);
+    expect(created.stdout).toMatch(/42 calculations a minute/);
     expect(created.stdout).toMatch(/shown only this once/);
 
     const database = openDatabase(databasePath);
@@ -65,7 +65,7 @@ describe('npm run api-key', { timeout: 60_000 }, () => {
   it('gives a key without --limit the configured default', () => {
     const created = apiKey('create', '--name', 'Workshop tablet');
     expect(created.status).toBe(0);
-    expect(created.stdout).toMatch(/250 requests a minute/);
+    expect(created.stdout).toMatch(/250 calculations a minute/);
   });
 
   it('lists keys by prefix, never with their secret, and marks the revoked', () => {

@@ -27,7 +27,7 @@ export const API_KEY_USAGE = [
   '  revoke ID                                revoke a key; requests with it are refused from then on',
   '',
   'The database is DATABASE_URL (default data/counterpoise.sqlite); a key created without --limit',
-  'may make API_KEY_DEFAULT_LIMIT requests a minute.',
+  'may make API_KEY_DEFAULT_LIMIT calculations a minute (a batch of n counts n).',
 ].join('\n');
 
 /**
@@ -127,7 +127,7 @@ function create(
   );
   output.out(
     `Created API key ${record.id} "${shown(record.name)}" (${record.prefix}…), ` +
-      `${record.limitPerMinute} requests a minute${organisation ? `, for ${shown(organisation.name)}` : ''}.`,
+      `${record.limitPerMinute} calculations a minute${organisation ? `, for ${shown(organisation.name)}` : ''}.`,
   );
   output.out('Keep it now: it is shown only this once, and only its hash is stored.');
   output.out(key);

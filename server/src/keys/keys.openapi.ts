@@ -35,8 +35,8 @@ export const API_KEY_SECURITY: Record<string, string[]>[] = [
 const integerHeader = (description: string) => ({ description, schema: { type: 'integer' as const } });
 
 const HEADER_COMPONENTS = {
-  'RateLimit-Limit': integerHeader('Requests per minute this key may make.'),
-  'RateLimit-Remaining': integerHeader('Requests left in the current window.'),
+  'RateLimit-Limit': integerHeader('Calculations per minute this key may make (a batch of n counts n).'),
+  'RateLimit-Remaining': integerHeader('Calculations left in the current window.'),
   'RateLimit-Reset': integerHeader('Seconds until the window starts afresh.'),
   'RateLimit-Policy': {
     description: 'The limit and its window in seconds, e.g. `600;w=60`.',
@@ -75,8 +75,11 @@ export const KEYED_ROUTE_RESPONSES: Record<401 | 403 | 429, ResponseConfig> = {
     },
   ),
   403: problem('The API key was revoked (`code`: `API_KEY_REVOKED`).'),
-  429: problem('The key made more requests this minute than its limit allows (`code`: `RATE_LIMITED`).', {
-    ...RATE_LIMIT_HEADERS,
-    'Retry-After': headerRef('Retry-After'),
-  }),
+  429: problem(
+    'The key asked for more calculations this minute than its limit allows (a batch of n counts n) (`code`: `RATE_LIMITED`).',
+    {
+      ...RATE_LIMIT_HEADERS,
+      'Retry-After': headerRef('Retry-After'),
+    },
+  ),
 };
