@@ -24,8 +24,11 @@ export const PERMISSIONS = [
   'jobs:read',
   'jobs:write',
   'jobs:write-any',
+  'records:read',
   'machines:write',
   'customers:write',
+  'families:write',
+  'records:archive',
   'reports:read',
   'keys:manage',
   'usage:read',
@@ -44,8 +47,11 @@ export const ROLE_PERMISSIONS: Readonly<Record<Role, readonly Permission[]>> = {
     'jobs:read',
     'jobs:write',
     'jobs:write-any',
+    'records:read',
     'machines:write',
     'customers:write',
+    'families:write',
+    'records:archive',
     'reports:read',
     'docs:read',
     'calc:use',
@@ -53,6 +59,7 @@ export const ROLE_PERMISSIONS: Readonly<Record<Role, readonly Permission[]>> = {
   technician: [
     'jobs:read',
     'jobs:write',
+    'records:read',
     'machines:write',
     'customers:write',
     'reports:read',
@@ -60,7 +67,7 @@ export const ROLE_PERMISSIONS: Readonly<Record<Role, readonly Permission[]>> = {
     'calc:use',
   ],
   developer: ['keys:manage', 'usage:read', 'docs:read', 'calc:use'],
-  viewer: ['jobs:read', 'reports:read', 'calc:use'],
+  viewer: ['jobs:read', 'records:read', 'reports:read', 'calc:use'],
 };
 
 /** The roles a manager may invite; owners may invite any role. */

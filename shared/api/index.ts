@@ -12,4 +12,5 @@ export * from './batch';
 export * from './keys';
 export * from './usage';
 export * from './accounts';
+export * from './records';
 export * from './people-rules';

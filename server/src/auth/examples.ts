@@ -30,6 +30,7 @@ export const SESSION_EXAMPLE = {
   permissions: [
     'jobs:read',
     'jobs:write',
+    'records:read',
     'machines:write',
     'customers:write',
     'reports:read',

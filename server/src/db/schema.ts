@@ -7,7 +7,15 @@ import {
   real,
   sqliteTable,
   text,
+  uniqueIndex,
 } from 'drizzle-orm/sqlite-core';
+import type {
+  AcceptanceLevel,
+  ContactPerson,
+  MachineSide,
+  PlaneLayout,
+  StoredSensitivity,
+} from '@counterpoise/api';
 
 /**
  * Facts about this installation that belong to no feature: when the demo data was seeded, and by which
@@ -193,4 +201,167 @@ export const mailMessages = sqliteTable(
     receivedAt: integer('received_at', { mode: 'timestamp_ms' }).notNull(),
   },
   (table) => [index('mail_messages_organisation_id_idx').on(table.organisationId)],
+);
+
+/**
+ * What every record of the shop (customer, machine family, machine) carries: its version, which grows
+ * with every change so that a change made on an older version is refused (the API's ETag), and when it
+ * was made, last changed and archived. Records are archived, never deleted, so that a job years later
+ * still names its machine.
+ */
+const recordLifecycle = () => ({
+  version: integer('version').notNull(),
+  createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull(),
+  updatedAt: integer('updated_at', { mode: 'timestamp_ms' }).notNull(),
+  archivedAt: integer('archived_at', { mode: 'timestamp_ms' }),
+});
+
+/**
+ * The shop's customers. The contact persons are a JSON column rather than a table of their own: they
+ * are only ever read and written with their customer, so one row keeps one version per customer.
+ * `name_key` (the name in lower case) is the sort order people expect; `search_text` holds the lower-cased
+ * name, e-mail, phone, site address and contact names that a search looks in.
+ */
+export const customers = sqliteTable(
+  'customers',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    organisationId: integer('organisation_id')
+      .notNull()
+      .references(() => organisations.id),
+    name: text('name').notNull(),
+    email: text('email'),
+    phone: text('phone'),
+    siteAddress: text('site_address'),
+    notes: text('notes'),
+    contacts: text('contacts', { mode: 'json' }).$type<ContactPerson[]>().notNull(),
+    nameKey: text('name_key').notNull(),
+    searchText: text('search_text').notNull(),
+    ...recordLifecycle(),
+  },
+  (table) => [
+    index('customers_organisation_name_idx').on(table.organisationId, table.nameKey),
+    index('customers_organisation_updated_idx').on(table.organisationId, table.updatedAt),
+    index('customers_organisation_created_idx').on(table.organisationId, table.createdAt),
+    check('customers_version_positive', sql`${table.version} > 0`),
+  ],
+);
+
+/**
+ * Kinds of machine the shop balances often (a model of mulcher drum, a flail mower rotor), with what
+ * holds for all of them: speed, planes, correction radii, inspection limits, acceptance and the stored
+ * sensitivities. The structured parts are JSON columns: they are read and written whole, and their
+ * shape is the zod schema's.
+ */
+export const machineFamilies = sqliteTable(
+  'machine_families',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    organisationId: integer('organisation_id')
+      .notNull()
+      .references(() => organisations.id),
+    name: text('name').notNull(),
+    rotorType: text('rotor_type', {
+      enum: ['fixed-tooth-drum', 'flail', 'fan', 'pulley', 'other'],
+    }).notNull(),
+    nominalSpeedRpm: real('nominal_speed_rpm').notNull(),
+    planeCount: integer('plane_count').notNull(),
+    correctionRadiiMm: text('correction_radii_mm', { mode: 'json' }).$type<number[]>().notNull(),
+    inspectionLimits: text('inspection_limits', { mode: 'json' })
+      .$type<{ bearingEndPlayMm: number; shaftRunoutMm: number }>()
+      .notNull(),
+    acceptance: text('acceptance', { mode: 'json' }).$type<AcceptanceLevel>().notNull(),
+    sensitivities: text('sensitivities', { mode: 'json' }).$type<StoredSensitivity[]>().notNull(),
+    notes: text('notes'),
+    nameKey: text('name_key').notNull(),
+    ...recordLifecycle(),
+  },
+  (table) => [
+    index('machine_families_organisation_name_idx').on(table.organisationId, table.nameKey),
+    index('machine_families_organisation_rotor_type_idx').on(table.organisationId, table.rotorType),
+    index('machine_families_organisation_updated_idx').on(table.organisationId, table.updatedAt),
+    check('machine_families_plane_count', sql`${table.planeCount} IN (1, 2)`),
+    check('machine_families_version_positive', sql`${table.version} > 0`),
+  ],
+);
+
+/**
+ * One machine of a customer: what identifies it on site (make, model, serial number, hours) and what a
+ * balancing job needs of it (planes with their allowed positions and blocked sectors, sensor sides,
+ * rotation, stock weights, its own acceptance). `make_key` and `serial_key` are the lower-cased sort
+ * orders; `search_text` holds the lower-cased serial number, make and model (the customer's name is
+ * searched in its own table, so that a renamed customer is found at once).
+ */
+export const machines = sqliteTable(
+  'machines',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    organisationId: integer('organisation_id')
+      .notNull()
+      .references(() => organisations.id),
+    customerId: integer('customer_id')
+      .notNull()
+      .references(() => customers.id),
+    familyId: integer('family_id').references(() => machineFamilies.id),
+    make: text('make'),
+    model: text('model'),
+    serialNumber: text('serial_number'),
+    hours: real('hours'),
+    rotorMassKg: real('rotor_mass_kg'),
+    operatingSpeedRpm: real('operating_speed_rpm'),
+    sensorSides: text('sensor_sides', { mode: 'json' }).$type<MachineSide[]>().notNull(),
+    rotationSeenFromLeft: text('rotation_seen_from_left', {
+      enum: ['clockwise', 'counterClockwise'],
+    }).notNull(),
+    planes: text('planes', { mode: 'json' }).$type<PlaneLayout[]>().notNull(),
+    stockWeightsGrams: text('stock_weights_grams', { mode: 'json' }).$type<number[]>().notNull(),
+    acceptance: text('acceptance', { mode: 'json' }).$type<AcceptanceLevel>(),
+    notes: text('notes'),
+    makeKey: text('make_key'),
+    serialKey: text('serial_key'),
+    searchText: text('search_text').notNull(),
+    ...recordLifecycle(),
+  },
+  (table) => [
+    index('machines_organisation_serial_idx').on(table.organisationId, table.serialKey),
+    index('machines_organisation_make_idx').on(table.organisationId, table.makeKey),
+    index('machines_organisation_updated_idx').on(table.organisationId, table.updatedAt),
+    index('machines_customer_id_idx').on(table.customerId),
+    index('machines_family_id_idx').on(table.familyId),
+    check('machines_version_positive', sql`${table.version} > 0`),
+  ],
+);
+
+/**
+ * The change log of the shop's records: one row per version of a record, saying who made it, when, what
+ * kind of change it was, and each field's value before and after (a JSON array). A warranty question
+ * months later is answered from here. The unique index makes two rows for one version impossible.
+ */
+export const recordChanges = sqliteTable(
+  'record_changes',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    organisationId: integer('organisation_id')
+      .notNull()
+      .references(() => organisations.id),
+    entityKind: text('entity_kind', { enum: ['customer', 'machine-family', 'machine'] }).notNull(),
+    entityId: integer('entity_id').notNull(),
+    version: integer('version').notNull(),
+    action: text('action', { enum: ['created', 'updated', 'archived', 'restored'] }).notNull(),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id),
+    at: integer('at', { mode: 'timestamp_ms' }).notNull(),
+    fields: text('fields', { mode: 'json' })
+      .$type<{ field: string; before: unknown; after: unknown }[]>()
+      .notNull(),
+  },
+  (table) => [
+    uniqueIndex('record_changes_entity_version_idx').on(
+      table.organisationId,
+      table.entityKind,
+      table.entityId,
+      table.version,
+    ),
+  ],
 );
