@@ -24,7 +24,21 @@ import type { Mailer } from './mail/mailer';
 import { outboxRegistry, outboxRouter } from './mail/outbox.router';
 import { peopleRegistry, peopleRouter } from './people/people.router';
 import { PeopleService } from './people/people.service';
-import { requirePermission } from './auth/require-user';
+import { requirePermission, requireUser } from './auth/require-user';
+import { ACCESS_TOKEN_SECURITY, SIGNED_IN_RESPONSES } from './auth/auth.openapi';
+import { can, type Permission, ROLES } from '@counterpoise/api';
+import type { AccessRule } from './http/route';
+import { ChangeLog } from './records/change-log';
+import type { RecordAccess } from './records/record-routes';
+import { CustomersRepo } from './customers/customers.repo';
+import { customersRegistry, customersRouter } from './customers/customers.router';
+import { CustomersService } from './customers/customers.service';
+import { MachineFamiliesRepo } from './machine-families/machine-families.repo';
+import { machineFamiliesRegistry, machineFamiliesRouter } from './machine-families/machine-families.router';
+import { MachineFamiliesService } from './machine-families/machine-families.service';
+import { MachinesRepo } from './machines/machines.repo';
+import { machinesRegistry, machinesRouter } from './machines/machines.router';
+import { MachinesService } from './machines/machines.service';
 import { buildOpenApiDocument, openApiRouter } from './openapi/openapi';
 import { UsageLog } from './usage/usage-log';
 import { documentedPaths } from './usage/usage.recorder';
@@ -96,7 +110,33 @@ export const OPENAPI_REGISTRIES = [
   keysRegistry,
   usageRegistry,
   calcRegistry,
+  customersRegistry,
+  machineFamiliesRegistry,
+  machinesRegistry,
 ];
+
+/**
+ * The access rule of a route for signed-in people whose role holds `permission`: the guard, and what
+ * the OpenAPI document says of it (the roles are read from the permission table, so they cannot drift).
+ */
+function signedInAccess(auth: AuthService, permission: Permission): AccessRule {
+  const roles = ROLES.filter((role) => can(role, permission));
+  return {
+    guard: [requireUser(auth), requirePermission(permission)],
+    security: ACCESS_TOKEN_SECURITY,
+    responses: SIGNED_IN_RESPONSES,
+    describe: `Signed-in people whose role holds \`${permission}\` (${roles.join(', ')}).`,
+  };
+}
+
+/** Who may read, write and archive one kind of the shop's records. */
+function recordAccess(auth: AuthService, write: Permission): Readonly<Record<RecordAccess, AccessRule>> {
+  return {
+    read: signedInAccess(auth, 'records:read'),
+    write: signedInAccess(auth, write),
+    archive: signedInAccess(auth, 'records:archive'),
+  };
+}
 
 /**
  * Builds the Express app: the API under `/api`, its OpenAPI document and Swagger UI, and the workbench
@@ -169,6 +209,26 @@ export function createApp(deps: AppDeps): Express {
     keysRouter({ auth, keys, clock, defaultLimitPerMinute: accounts.defaultKeyLimitPerMinute ?? 600 }),
   );
   signedIn.use(outboxRouter({ auth, database: deps.database }));
+  // The shop's records, each change written to one change log.
+  const recordChanges = new ChangeLog(deps.database.orm);
+  signedIn.use(
+    customersRouter({
+      access: recordAccess(auth, 'customers:write'),
+      customers: new CustomersService(new CustomersRepo(deps.database.orm), recordChanges, clock),
+    }),
+  );
+  signedIn.use(
+    machineFamiliesRouter({
+      access: recordAccess(auth, 'families:write'),
+      families: new MachineFamiliesService(new MachineFamiliesRepo(deps.database.orm), recordChanges, clock),
+    }),
+  );
+  signedIn.use(
+    machinesRouter({
+      access: recordAccess(auth, 'machines:write'),
+      machines: new MachinesService(new MachinesRepo(deps.database.orm), recordChanges, clock),
+    }),
+  );
   app.use('/api/v1', signedIn);
 
   // The usage report, and the key check of every other `/api/v1` path: a keyed request that no route

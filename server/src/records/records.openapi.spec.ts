@@ -1,0 +1,151 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type * as z from 'zod';
+import {
+  CreateCustomerSchema,
+  CreateMachineFamilySchema,
+  CreateMachineSchema,
+  CustomerListQuerySchema,
+  CustomerPageSchema,
+  CustomerSchema,
+  MachineFamilyPageSchema,
+  MachineFamilySchema,
+  MachinePageSchema,
+  MachineSchema,
+  RecordHistorySchema,
+  UpdateCustomerSchema,
+  UpdateMachineFamilySchema,
+  UpdateMachineSchema,
+} from '@counterpoise/api';
+import { createApp, OPENAPI_REGISTRIES } from '../app';
+import { customersRegistry } from '../customers/customers.router';
+import { machineFamiliesRegistry } from '../machine-families/machine-families.router';
+import { machinesRegistry } from '../machines/machines.router';
+import { buildOpenApiDocument, type OpenApiDocument } from '../openapi/openapi';
+import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
+
+let temporary: TemporaryDatabase;
+let document: OpenApiDocument;
+beforeAll(() => {
+  temporary = openTemporaryDatabase();
+  // Two apps, as tests build many: the routes are documented once all the same.
+  createApp({ database: temporary.database });
+  createApp({ database: temporary.database });
+  document = buildOpenApiDocument(OPENAPI_REGISTRIES, '0.0.0');
+});
+afterAll(() => temporary.dispose());
+
+interface Operation {
+  description?: string;
+  security?: unknown;
+  requestBody?: { content: Record<string, { example?: unknown }> };
+  responses: Record<
+    string,
+    {
+      headers?: Record<string, unknown>;
+      content?: Record<string, { example?: unknown; schema?: { $ref?: string } }>;
+    }
+  >;
+}
+const operation = (method: string, path: string) =>
+  (document.paths?.[path] as Record<string, Operation> | undefined)?.[method];
+
+const KINDS: [string, z.ZodType, z.ZodType, z.ZodType, z.ZodType][] = [
+  ['/api/v1/customers', CreateCustomerSchema, UpdateCustomerSchema, CustomerSchema, CustomerPageSchema],
+  [
+    '/api/v1/machine-families',
+    CreateMachineFamilySchema,
+    UpdateMachineFamilySchema,
+    MachineFamilySchema,
+    MachineFamilyPageSchema,
+  ],
+  ['/api/v1/machines', CreateMachineSchema, UpdateMachineSchema, MachineSchema, MachinePageSchema],
+];
+
+describe('the OpenAPI document of the records', () => {
+  it.each(KINDS)(
+    'documents every route of %s with examples its schemas accept',
+    (path, create, update, record, page) => {
+      const one = `${path}/{id}`;
+      const expectParses = (schema: z.ZodType, example: unknown) =>
+        expect(schema.safeParse(example).error).toBeUndefined();
+      expectParses(page, operation('get', path)!.responses['200']!.content!['application/json']!.example);
+      expectParses(create, operation('post', path)!.requestBody!.content['application/json']!.example);
+      expectParses(record, operation('post', path)!.responses['201']!.content!['application/json']!.example);
+      expectParses(record, operation('get', one)!.responses['200']!.content!['application/json']!.example);
+      expectParses(update, operation('patch', one)!.requestBody!.content['application/json']!.example);
+      for (const [method, route] of [
+        ['patch', one],
+        ['post', `${one}/archive`],
+        ['post', `${one}/restore`],
+      ] as const) {
+        const documented = operation(method, route)!;
+        expectParses(record, documented.responses['200']!.content!['application/json']!.example);
+        expect(Object.keys(documented.responses).sort()).toEqual([
+          '200',
+          '400',
+          '401',
+          '403',
+          '404',
+          '412',
+          '428',
+        ]);
+        expect(documented.responses['200']!.headers).toHaveProperty('ETag');
+        expect(documented.responses['412']!.headers).toHaveProperty('ETag');
+        expect(documented.description).toContain('If-Match');
+      }
+      expectParses(
+        RecordHistorySchema,
+        operation('get', `${one}/history`)!.responses['200']!.content!['application/json']!.example,
+      );
+      expect(operation('post', path)!.responses['201']!.headers).toHaveProperty('Location');
+      expect(operation('get', path)!.security).toEqual([{ AccessToken: [] }]);
+    },
+  );
+
+  it('shows the stored record in the 412 answer', () => {
+    const schemas = document.components?.schemas as Record<
+      string,
+      { properties?: Record<string, { $ref?: string }> }
+    >;
+    expect(schemas['CustomerChangedMeanwhile']?.properties?.['current']?.$ref).toBe(
+      '#/components/schemas/Customer',
+    );
+    expect(schemas['MachineChangedMeanwhile']?.properties?.['current']?.$ref).toBe(
+      '#/components/schemas/Machine',
+    );
+    expect(schemas['MachineFamilyChangedMeanwhile']?.properties?.['current']?.$ref).toBe(
+      '#/components/schemas/MachineFamily',
+    );
+  });
+
+  it('says who may call each route, from the permission table', () => {
+    expect(operation('get', '/api/v1/customers')!.description).toContain(
+      '`records:read` (owner, manager, technician, viewer)',
+    );
+    expect(operation('post', '/api/v1/machine-families')!.description).toContain(
+      '`families:write` (owner, manager)',
+    );
+    expect(operation('post', '/api/v1/machines/{id}/archive')!.description).toContain(
+      '`records:archive` (owner, manager)',
+    );
+  });
+
+  it('documents each route once, however many apps are built', () => {
+    for (const registry of [customersRegistry, machineFamiliesRegistry, machinesRegistry]) {
+      expect(registry.definitions.filter((definition) => definition.type === 'route')).toHaveLength(7);
+    }
+  });
+
+  it('documents the paging parameters as the integers they are', () => {
+    const parameters = (
+      document.paths?.['/api/v1/customers'] as { get: { parameters: { name: string; schema: unknown }[] } }
+    ).get.parameters;
+    expect(parameters.find((parameter) => parameter.name === 'pageSize')?.schema).toEqual({
+      type: 'integer',
+      minimum: 1,
+      maximum: 100,
+      default: 25,
+    });
+    expect(CustomerListQuerySchema.parse({ pageSize: '10' }).pageSize).toBe(10);
+  });
+});
