@@ -1,5 +1,8 @@
 import { seedDemoAccounts } from '../auth/accounts.seed';
+import { seedDemoCustomers } from '../customers/customers.seed';
 import { seedDemoApiKey } from '../keys/keys.seed';
+import { seedDemoMachineFamilies } from '../machine-families/machine-families.seed';
+import { seedDemoMachines } from '../machines/machines.seed';
 import type { DemoSeeder } from './seed';
 
 /**
@@ -7,4 +10,10 @@ import type { DemoSeeder } from './seed';
  * feature that owns demo data appends its seeder here; `seedDemoData` runs them once, in one
  * transaction.
  */
-export const DEMO_SEEDERS: readonly DemoSeeder[] = [seedDemoAccounts, seedDemoApiKey];
+export const DEMO_SEEDERS: readonly DemoSeeder[] = [
+  seedDemoAccounts,
+  seedDemoApiKey,
+  seedDemoCustomers,
+  seedDemoMachineFamilies,
+  seedDemoMachines,
+];
