@@ -1,6 +1,7 @@
 import type { Routes } from '@angular/router';
 import { provideCounterpoise } from '@counterpoise/ng/engine';
 import { requirePermission, requireSignedOut, requireSignIn } from './auth/auth.guards';
+import { confirmLeavingUnsaved } from './records/unsaved-changes';
 
 export const routes: Routes = [
   {
@@ -49,6 +50,100 @@ export const routes: Routes = [
     title: 'Your account · Counterpoise',
     canActivate: [requireSignIn],
     loadComponent: () => import('./auth/account-page').then((m) => m.AccountPage),
+  },
+  {
+    path: 'customers',
+    canActivate: [requirePermission('records:read')],
+    children: [
+      {
+        path: '',
+        title: 'Customers · Counterpoise',
+        loadComponent: () => import('./customers/customers-page').then((m) => m.CustomersPage),
+      },
+      {
+        path: 'new',
+        title: 'Add a customer · Counterpoise',
+        canActivate: [requirePermission('customers:write')],
+        canDeactivate: [confirmLeavingUnsaved],
+        loadComponent: () => import('./customers/customer-form-page').then((m) => m.CustomerFormPage),
+      },
+      {
+        path: ':id',
+        title: 'Customer · Counterpoise',
+        loadComponent: () => import('./customers/customer-page').then((m) => m.CustomerPage),
+      },
+      {
+        path: ':id/edit',
+        title: 'Edit the customer · Counterpoise',
+        canActivate: [requirePermission('customers:write')],
+        canDeactivate: [confirmLeavingUnsaved],
+        loadComponent: () => import('./customers/customer-form-page').then((m) => m.CustomerFormPage),
+      },
+    ],
+  },
+  {
+    path: 'machines',
+    canActivate: [requirePermission('records:read')],
+    children: [
+      {
+        path: '',
+        title: 'Machines · Counterpoise',
+        loadComponent: () => import('./machines/machines-page').then((m) => m.MachinesPage),
+      },
+      {
+        path: 'new',
+        title: 'Add a machine · Counterpoise',
+        canActivate: [requirePermission('machines:write')],
+        canDeactivate: [confirmLeavingUnsaved],
+        loadComponent: () => import('./machines/machine-form-page').then((m) => m.MachineFormPage),
+      },
+      {
+        path: ':id',
+        title: 'Machine · Counterpoise',
+        loadComponent: () => import('./machines/machine-page').then((m) => m.MachinePage),
+      },
+      {
+        path: ':id/edit',
+        title: 'Edit the machine · Counterpoise',
+        canActivate: [requirePermission('machines:write')],
+        canDeactivate: [confirmLeavingUnsaved],
+        loadComponent: () => import('./machines/machine-form-page').then((m) => m.MachineFormPage),
+      },
+    ],
+  },
+  {
+    path: 'machine-families',
+    canActivate: [requirePermission('records:read')],
+    children: [
+      {
+        path: '',
+        title: 'Machine families · Counterpoise',
+        loadComponent: () =>
+          import('./machine-families/machine-families-page').then((m) => m.MachineFamiliesPage),
+      },
+      {
+        path: 'new',
+        title: 'Add a machine family · Counterpoise',
+        canActivate: [requirePermission('families:write')],
+        canDeactivate: [confirmLeavingUnsaved],
+        loadComponent: () =>
+          import('./machine-families/machine-family-form-page').then((m) => m.MachineFamilyFormPage),
+      },
+      {
+        path: ':id',
+        title: 'Machine family · Counterpoise',
+        loadComponent: () =>
+          import('./machine-families/machine-family-page').then((m) => m.MachineFamilyPage),
+      },
+      {
+        path: ':id/edit',
+        title: 'Edit the machine family · Counterpoise',
+        canActivate: [requirePermission('families:write')],
+        canDeactivate: [confirmLeavingUnsaved],
+        loadComponent: () =>
+          import('./machine-families/machine-family-form-page').then((m) => m.MachineFamilyFormPage),
+      },
+    ],
   },
   {
     path: 'people',

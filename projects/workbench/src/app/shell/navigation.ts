@@ -18,6 +18,9 @@ export interface NavigationItem {
 export const NAVIGATION: readonly NavigationItem[] = [
   { label: 'Home', icon: 'home', link: '/' },
   { label: 'Safety', icon: 'health_and_safety', link: '/safety' },
+  { label: 'Customers', icon: 'storefront', link: '/customers', permission: 'records:read' },
+  { label: 'Machines', icon: 'agriculture', link: '/machines', permission: 'records:read' },
+  { label: 'Machine families', icon: 'category', link: '/machine-families', permission: 'records:read' },
   { label: 'Widgets', icon: 'widgets', link: '/widgets' },
   { label: 'People', icon: 'group', link: '/people', permission: 'people:read' },
   { label: 'API keys', icon: 'key', link: '/keys', permission: 'keys:manage' },
