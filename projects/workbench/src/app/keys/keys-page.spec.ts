@@ -208,7 +208,7 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     let dialog = await createKey(overlays, ' ', '0');
     let [name, limit] = await dialog.getAllHarnesses(MatFormFieldHarness);
     expect(await name?.getTextErrors()).toEqual(['Give the key a name that says who or what uses it.']);
-    expect(await limit?.getTextErrors()).toEqual(['The limit is at least 1 request per minute.']);
+    expect(await limit?.getTextErrors()).toEqual(['The limit is at least 1 calculation per minute.']);
     http.expectNone(KEYS_URLS.list);
 
     dialog = await createKey(overlays, 'Dealer portal', '60');
