@@ -67,6 +67,8 @@ export interface AppDeps {
    * over HTTPS themselves carry it.
    */
   readonly secureTransport?: boolean;
+  /** Express's `trust proxy`: which proxies in front may say who the client is (none by default). */
+  readonly trustProxy?: boolean | number | string;
   /** Sign-in, people and e-mail; tests leave out what they do not need. */
   readonly accounts?: AccountsDeps;
 }
@@ -83,9 +85,9 @@ export interface AccountsDeps {
   readonly publicUrl?: string;
   /** Where invitations and reset links go; without one, sending fails with a clear error. */
   readonly mailer?: Mailer;
-  /** Requests per minute of a key created without a limit. */
+  /** Calculations per minute of a key created without a limit. */
   readonly defaultKeyLimitPerMinute?: number;
-  /** Requests per minute of a signed-in person on the calculator routes. */
+  /** Calculations per minute of a signed-in person on the calculator routes. */
   readonly userCalcLimitPerMinute?: number;
   /** Per-client-address limits of sign-in, resets and invitations; `DEFAULT_CLIENT_LIMITS` otherwise. */
   readonly clientLimits?: Partial<ClientLimits>;
@@ -153,6 +155,8 @@ export function createApp(deps: AppDeps): Express {
   // every body. The workbench's files keep theirs (express.static sets its own).
   app.set('etag', false);
   app.set('query parser', 'simple');
+  // The client's address counts sign-in and reset attempts: read it through the proxies configured only.
+  app.set('trust proxy', deps.trustProxy ?? false);
   app.use(securityHeaders({ secureTransport: deps.secureTransport ?? false }));
 
   const accounts = deps.accounts ?? {};

@@ -43,6 +43,16 @@ describe('loadConfig', () => {
     expect(() => loadConfig({ API_KEY_DEFAULT_LIMIT: '0' })).toThrow(/API_KEY_DEFAULT_LIMIT/);
   });
 
+  it('believes no proxy about the client unless TRUST_PROXY names them', () => {
+    expect(loadConfig({}).TRUST_PROXY).toBe(false);
+    expect(loadConfig({ TRUST_PROXY: 'false' }).TRUST_PROXY).toBe(false);
+    expect(loadConfig({ TRUST_PROXY: '1' }).TRUST_PROXY).toBe(1);
+    expect(loadConfig({ TRUST_PROXY: 'loopback, 10.0.0.0/8' }).TRUST_PROXY).toBe('loopback, 10.0.0.0/8');
+    expect(loadConfig({ TRUST_PROXY: 'fd00::/8' }).TRUST_PROXY).toBe('fd00::/8');
+    expect(() => loadConfig({ TRUST_PROXY: 'yes' })).toThrow(/TRUST_PROXY: "yes" is not a proxy address/);
+    expect(() => loadConfig({ TRUST_PROXY: '10.0.0.0/40' })).toThrow(/TRUST_PROXY/);
+  });
+
   it('seeds no demo data in production unless SEED_DEMO asks for it', () => {
     expect(loadConfig({ NODE_ENV: 'production' }).SEED_DEMO).toBe(false);
     expect(loadConfig({ NODE_ENV: 'production', SEED_DEMO: 'true' }).SEED_DEMO).toBe(true);

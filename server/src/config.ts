@@ -1,3 +1,4 @@
+import { isIP } from 'node:net';
 import * as z from 'zod';
 import { MAX_LIMIT_PER_MINUTE } from '@counterpoise/api';
 
@@ -29,6 +30,37 @@ const origins = z
       }
     }
     return list.map((origin) => origin.toLowerCase());
+  });
+
+/**
+ * Which proxies in front of the server to believe about the client's address (`X-Forwarded-For`), as
+ * Express's `trust proxy` takes it: unset or `false` for none (the server is reached directly), a number
+ * of proxy hops, or a comma-separated list of addresses, subnets and the names `loopback`, `linklocal`,
+ * `uniquelocal`. The per-client limits of sign-in and resets count by that address: behind a proxy that
+ * is not trusted, every client shares the proxy's address and so its allowance.
+ */
+const trustProxy = z
+  .string()
+  .trim()
+  .optional()
+  .transform((text, context): false | number | string => {
+    if (text === undefined || text === '' || text === 'false') return false;
+    if (/^\d{1,2}$/.test(text)) return Number(text);
+    const names = new Set(['loopback', 'linklocal', 'uniquelocal']);
+    for (const entry of text.split(',').map((part) => part.trim())) {
+      const [address, bits, ...rest] = entry.split('/');
+      const version = isIP(address ?? '');
+      const bitsOk =
+        bits === undefined || (/^\d{1,3}$/.test(bits) && Number(bits) <= (version === 6 ? 128 : 32));
+      if (!names.has(entry) && (version === 0 || !bitsOk || rest.length > 0)) {
+        context.issues.push({
+          code: 'custom',
+          input: entry,
+          message: `"${entry}" is not a proxy address; write a number of hops, addresses or subnets (10.0.0.0/8), or loopback`,
+        });
+      }
+    }
+    return text;
   });
 
 const flag = z
@@ -68,6 +100,8 @@ const ConfigSchema = z.object({
     .url({ protocol: /^https?$/, error: 'Write the workbench address, e.g. http://shop-server:4300' })
     .default('http://localhost:4300')
     .transform((url) => url.replace(/\/+$/, '')),
+  /** Which proxies to believe about the client's address (see `trustProxy`). */
+  TRUST_PROXY: trustProxy,
   /** Mark the refresh cookie `Secure` (only sent over HTTPS). Off by default: shops serve plain HTTP. */
   COOKIE_SECURE: flag.default(false),
   /**

@@ -12,6 +12,7 @@ import { DEMO_SEEDED_KEY, seedDemoData } from './db/seed';
 import { DEMO_SEEDERS } from './db/demo-seeders';
 import { DEMO_API_KEY_FILE } from './keys/keys.seed';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from './auth/accounts.seed';
+import { BackgroundWork } from './auth/background-work';
 import { loadSigningKey } from './auth/tokens';
 import { type Mailer, smtpMailer } from './mail/mailer';
 import { type SmtpCapture, startSmtpCapture } from './mail/smtp-capture';
@@ -51,6 +52,8 @@ async function main(): Promise<void> {
 
   // The rows are written in a thread of their own, so that a burst of requests never waits on SQLite.
   const usageLog = new UsageLog(database, { inWorker: true });
+  // Work that routes start after answering (reset e-mails), awaited at shutdown before the database closes.
+  const background = new BackgroundWork((message, error) => console.error(message, error));
   const app = createApp({
     database,
     clock: systemClock,
@@ -60,12 +63,14 @@ async function main(): Promise<void> {
     corsOrigins: config.CORS_ORIGINS,
     // Behind HTTPS (the cookie is Secure), browsers are told to keep to HTTPS too.
     secureTransport: config.COOKIE_SECURE,
+    trustProxy: config.TRUST_PROXY,
     accounts: {
       signingKey: loadSigningKey(config.AUTH_SIGNING_KEY, dataDir),
       passwordHashCost: config.PASSWORD_HASH_COST,
       secureCookie: config.COOKIE_SECURE,
       publicUrl: config.PUBLIC_URL,
       mailer,
+      background,
       defaultKeyLimitPerMinute: config.API_KEY_DEFAULT_LIMIT,
       userCalcLimitPerMinute: config.USER_CALC_LIMIT,
     },
@@ -117,8 +122,11 @@ async function main(): Promise<void> {
         database.sqlite.close();
         process.exit(code);
       };
-      if (capture) void capture.close().then(finish, finish);
-      else finish();
+      // Reset e-mails go out after their answer: let those under way reach the mail server first.
+      void background
+        .settled()
+        .then(() => capture?.close())
+        .then(finish, finish);
     });
     server.closeIdleConnections();
     setTimeout(() => {
