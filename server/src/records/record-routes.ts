@@ -1,9 +1,8 @@
 import { OpenAPIRegistry, type ResponseConfig } from '@asteasolutions/zod-to-openapi';
-import { RecordHistorySchema } from '@counterpoise/api';
+import { PROBLEM_MEDIA_TYPE, type RecordHistory, RecordHistorySchema } from '@counterpoise/api';
 import type { Response } from 'express';
 import type * as z from 'zod';
 import { IdParamSchema } from '../http/params';
-import { PROBLEM_MEDIA_TYPE } from '@counterpoise/api';
 import type { RouteTable } from '../http/route';
 import type { Actor } from './change-log';
 import { answerChangedMeanwhile, etagOf, ifMatchVersions, requireIfMatch } from './versions';
@@ -25,7 +24,7 @@ export interface RecordRoutesService<Rec, Page, Create, Update, Query> {
   update(actor: Actor, id: number, versions: readonly number[], change: Update): Rec;
   archive(actor: Actor, id: number, versions: readonly number[]): Rec;
   restore(actor: Actor, id: number, versions: readonly number[]): Rec;
-  history(actor: Actor, id: number): z.output<typeof RecordHistorySchema>;
+  history(actor: Actor, id: number): RecordHistory;
 }
 
 /**
