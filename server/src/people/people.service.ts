@@ -6,7 +6,10 @@ import {
   type InvitationPreviewSchema,
   type InvitationSchema,
   type InviteRequestSchema,
+  invitableRoles,
   MANAGER_INVITABLE_ROLES,
+  mayChangeRole,
+  mayChangeStatus,
   type PeopleSchema,
   type UpdatePersonSchema,
   type User,
@@ -60,10 +63,11 @@ export class PeopleService {
    * `/accept-invitation` that works for 7 days.
    */
   async invite(actor: UserRecord, request: z.output<typeof InviteRequestSchema>): Promise<Invitation> {
-    if (!can(actor.role, 'people:manage') && !MANAGER_INVITABLE_ROLES.includes(request.role)) {
+    const invitable = invitableRoles(actor.role);
+    if (!invitable.includes(request.role)) {
       throw refuse(403, 'Forbidden', AUTH_PROBLEM_CODES.forbidden, {
         path: 'role',
-        message: `A ${actor.role} may invite ${MANAGER_INVITABLE_ROLES.join(' or ')} only.`,
+        message: `A ${actor.role} may invite ${invitable.join(' or ')} only.`,
       });
     }
     if (this.repo.emailTaken(request.email)) {
@@ -220,7 +224,11 @@ export class PeopleService {
           message: 'Your account was deactivated meanwhile.',
         });
       }
-      if (!can(current.role, 'people:manage')) {
+      // The shared rules decide, as the workbench does when it offers the change; the messages say why.
+      const allowed =
+        (change.role === undefined || mayChangeRole(current, person)) &&
+        (change.status === undefined || mayChangeStatus(current, person));
+      if (!allowed) {
         if (!can(current.role, 'people:invite')) {
           throw refuse(403, 'Forbidden', AUTH_PROBLEM_CODES.forbidden, {
             path: field,
@@ -233,12 +241,10 @@ export class PeopleService {
             message: 'Only an owner changes roles.',
           });
         }
-        if (!MANAGER_INVITABLE_ROLES.includes(person.role)) {
-          throw refuse(403, 'Forbidden', AUTH_PROBLEM_CODES.forbidden, {
-            path: 'status',
-            message: `A ${current.role} changes the status of ${MANAGER_INVITABLE_ROLES.join(' and ')} people only.`,
-          });
-        }
+        throw refuse(403, 'Forbidden', AUTH_PROBLEM_CODES.forbidden, {
+          path: 'status',
+          message: `A ${current.role} changes the status of ${MANAGER_INVITABLE_ROLES.join(' and ')} people only.`,
+        });
       }
       this.repo.updateUser(actor.organisationId, id, {
         ...(change.role === undefined ? {} : { role: change.role }),
