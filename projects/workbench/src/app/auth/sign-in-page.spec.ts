@@ -122,6 +122,31 @@ describe('SignInPage', () => {
     expect(element.querySelector('[role=alert]')?.textContent).toContain('Wait 8 seconds, then try again.');
   });
 
+  it.each([
+    [
+      'CLIENT_THROTTLED',
+      429,
+      { 'Retry-After': '600' },
+      'Too many failed sign-ins from this network. Wait 10 minutes',
+    ],
+    ['PASSWORD_CHECKS_BUSY', 429, { 'Retry-After': '1' }, 'The server is checking many sign-ins just now.'],
+    ['CROSS_SITE_REQUEST', 403, {}, 'sent from another site’s page and was refused'],
+    ['ACCOUNT_DEACTIVATED', 403, {}, 'This account is deactivated.'],
+  ] as const)('tells a %s refusal apart by its code', async (code, status, headers, expected) => {
+    const { email, password, submit, element, harness } = await open();
+    await email.setValue('marit@example.com');
+    await password.setValue('not quite the right one');
+    await submit.click();
+    http
+      .expectOne(AUTH_URLS.signIn)
+      .flush(
+        { type: 'about:blank', title: 'Refused', status, code },
+        { status, statusText: 'Refused', headers },
+      );
+    await harness.fixture.whenStable();
+    expect(element.querySelector('[role=alert]')?.textContent).toContain(expected);
+  });
+
   it('shows the server’s message on the field it concerns', async () => {
     const { email, password, submit, fields, harness } = await open();
     await email.setValue('marit@example.com');

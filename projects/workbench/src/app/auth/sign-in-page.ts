@@ -7,7 +7,8 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { Router, RouterLink } from '@angular/router';
-import { formErrorOf } from '../shell/server-errors';
+import type { ACCOUNTS_PROBLEM_CODES } from '@counterpoise/api';
+import { formErrorOf, problemOf } from '../shell/server-errors';
 import { errorMessage, requiredWith } from '../shell/validators';
 import { safeReturnUrl } from './auth.guards';
 import { AuthSession } from './auth-session';
@@ -69,20 +70,36 @@ export class SignInPage {
   }
 }
 
-/** Our words for the refusals particular to signing in; null for the others. */
+/** The stable `code` of an accounts problem. */
+type AccountsCode = (typeof ACCOUNTS_PROBLEM_CODES)[keyof typeof ACCOUNTS_PROBLEM_CODES];
+
+/** "Wait 12 seconds", "Wait 3 minutes", or "Wait a few minutes" without a `Retry-After`. */
+function waitFor(error: HttpErrorResponse): string {
+  const seconds = Number(error.headers.get('Retry-After'));
+  if (!(seconds > 0)) return 'Wait a few minutes';
+  if (seconds < 120) return `Wait ${seconds} ${seconds === 1 ? 'second' : 'seconds'}`;
+  return `Wait ${Math.ceil(seconds / 60)} minutes`;
+}
+
+/** Our words for the refusals particular to signing in, told apart by their `code`; null for the others. */
 function signInRefusal(error: unknown): string | null {
   if (!(error instanceof HttpErrorResponse)) return null;
+  const code = problemOf(error)?.code as AccountsCode | undefined;
   switch (error.status) {
     case 401:
       return 'This e-mail address and password do not match an account. Check both, or set a new password.';
     case 403:
-      return 'This account is deactivated. An owner or a manager of your shop can reactivate it.';
-    case 429: {
-      const seconds = Number(error.headers.get('Retry-After'));
-      return seconds > 0
-        ? `Too many attempts with this address. Wait ${seconds} ${seconds === 1 ? 'second' : 'seconds'}, then try again.`
-        : 'Too many attempts with this address. Wait a few minutes, then try again.';
-    }
+      return code === 'CROSS_SITE_REQUEST'
+        ? 'This sign-in was sent from another site’s page and was refused. Open the workbench at its own address and sign in there.'
+        : 'This account is deactivated. An owner or a manager of your shop can reactivate it.';
+    case 429:
+      if (code === 'PASSWORD_CHECKS_BUSY') {
+        return 'The server is checking many sign-ins just now. Try again in a moment.';
+      }
+      if (code === 'CLIENT_THROTTLED') {
+        return `Too many failed sign-ins from this network. ${waitFor(error)}, then try again.`;
+      }
+      return `Too many attempts with this address. ${waitFor(error)}, then try again.`;
     default:
       return null;
   }
