@@ -116,6 +116,6 @@ function validLimit(control: AbstractControl<string>): ValidationErrors | null {
   const typed = control.value.trim();
   if (typed === '') return null;
   if (!/^\d+$/.test(typed))
-    return { number: 'Enter a whole number of requests per minute, or leave it empty.' };
+    return { number: 'Enter a whole number of calculations per minute, or leave it empty.' };
   return schemaError(LimitPerMinuteSchema, Number(typed));
 }

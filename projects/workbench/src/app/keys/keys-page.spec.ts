@@ -140,7 +140,7 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     const { loader } = await render({ keys: [PORTAL] });
     const cells = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
     expect(cells['summary']?.text[0]).toContain('Dealer portal');
-    expect(cells['summary']?.text[0]).toContain('600 requests a minute');
+    expect(cells['summary']?.text[0]).toContain('600 calculations a minute');
   });
 
   it('says when there are no keys yet', async () => {
