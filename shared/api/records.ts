@@ -5,8 +5,7 @@ import { ProblemSchema } from './problem';
 /*
  * The shop's records: customers, machine families and machines. One source for the server's validation,
  * the OpenAPI document and the workbench's types. Lengths and bounds are the rules both sides enforce.
- * The routes, permissions, versions (ETag / If-Match) and search rules: docs/records.md (the contract,
- * CONTRACT_PLACEHOLDER).
+ * The routes, permissions, versions (ETag / If-Match) and search rules: docs/records.md.
  */
 
 // Common pieces
