@@ -1,6 +1,6 @@
 import type { Role } from '@counterpoise/api';
 import type { DemoSeeder } from '../db/seed';
-import { AccountsRepo } from './accounts.repo';
+import { AccountsRepo } from '../accounts/accounts.repo';
 import { hashPasswordSync } from './passwords';
 
 /** The invented organisation of the demo scenario: a service shop for forestry and mowing machines. */

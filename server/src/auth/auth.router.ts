@@ -13,7 +13,6 @@ import { requireJsonBody } from '../http/problem';
 import { validateBody } from '../http/validate';
 import {
   ACCESS_TOKEN_SECURITY,
-  authRegistry,
   INVALID_BODY_RESPONSE,
   jsonBody,
   jsonResponse,
@@ -21,7 +20,8 @@ import {
   REFRESH_COOKIE_SCHEME,
   SET_COOKIE_HEADER,
   SIGNED_IN_RESPONSES,
-} from './auth.openapi';
+} from '../openapi/responses';
+import { authRegistry } from './auth.openapi';
 import { type ClientLimits, clientLimiter, defaultLimitInWords } from './client-limits';
 import {
   type AuthService,
@@ -38,7 +38,7 @@ import {
   PASSWORD_RESET_EXAMPLE,
   SESSION_EXAMPLE,
   SIGN_IN_EXAMPLE,
-} from './examples';
+} from './auth.examples';
 import { cookieOf, requireUser } from './require-user';
 import { refuseCrossSite, requireSameOrigin } from './same-origin';
 import { retryAfterHeader } from './too-many-requests';

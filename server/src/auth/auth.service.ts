@@ -11,7 +11,7 @@ import type { Clock } from '../clock';
 import { HttpProblem } from '../http/problem';
 import type { Mailer } from '../mail/mailer';
 import { composeMail } from '../mail/mailer';
-import type { AccountsRepo, SignInFailurePolicy, UserRecord } from './accounts.repo';
+import type { AccountsRepo, SignInFailurePolicy, UserRecord } from '../accounts/accounts.repo';
 import { BackgroundWork } from './background-work';
 import { HashGate, HashGateFull } from './hash-gate';
 import { decoyHash, hashPassword, passwordWeakness, type ScryptCost, verifyPassword } from './passwords';

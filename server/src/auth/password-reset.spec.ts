@@ -9,7 +9,7 @@ import type { Clock } from '../clock';
 import type { OutgoingMail } from '../mail/mailer';
 import { createTestOrganisation, type TestOrganisation } from '../testing/accounts';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
-import { AccountsRepo } from './accounts.repo';
+import { AccountsRepo } from '../accounts/accounts.repo';
 import { PASSWORD_RESET_MAIL_INTERVAL_MS, PASSWORD_RESET_TTL_MS } from './auth.service';
 import { type GuardedApp, guardedApp, MemoryMailer, NO_CLIENT_LIMITS } from './testing/guarded-app';
 import { generateSecret } from './tokens';

@@ -2,7 +2,7 @@ import type { IncomingHttpHeaders } from 'node:http';
 import type { RequestHandler } from 'express';
 import { can, type Permission } from '@counterpoise/api';
 import { HttpProblem } from '../http/problem';
-import type { UserRecord } from './accounts.repo';
+import type { UserRecord } from '../accounts/accounts.repo';
 import { AUTH_PROBLEM_CODES, type AuthService } from './auth.service';
 
 declare global {

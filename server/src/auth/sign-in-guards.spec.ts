@@ -9,7 +9,7 @@ import { ProblemSchema } from '@counterpoise/api';
 import type { Clock } from '../clock';
 import { createTestOrganisation, TEST_PASSWORD, type TestOrganisation } from '../testing/accounts';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
-import { AccountsRepo } from './accounts.repo';
+import { AccountsRepo } from '../accounts/accounts.repo';
 import { LOCK_AFTER, SLOW_DOWN_AFTER } from './auth.service';
 import { HashGate, type HashGateLimits } from './hash-gate';
 import { type GuardedApp, guardedApp, NO_CLIENT_LIMITS } from './testing/guarded-app';

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import BetterSqlite3 from 'better-sqlite3';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { AccountsRepo } from '../auth/accounts.repo';
+import { AccountsRepo } from '../accounts/accounts.repo';
 import { type Database, migrateDatabase, openDatabase } from './database';
 
 const modeOf = (path: string) => statSync(path).mode & 0o777;

@@ -7,7 +7,8 @@ import { buildOpenApiDocument } from '../openapi/openapi';
 import { servedRoutes } from '../openapi/served-routes';
 import { IdParamSchema } from './params';
 import { HttpProblem, problemHandler } from './problem';
-import { problemResponse, RouteTable, toExpressPath } from './route';
+import { problemResponse } from '../openapi/responses';
+import { RouteTable, toExpressPath } from './route';
 
 const Body = z.object({ name: z.string().min(1, { error: 'Enter a name.' }) });
 const Answer = z.object({ id: z.number(), name: z.string() });

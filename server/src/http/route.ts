@@ -1,7 +1,7 @@
 import type { OpenAPIRegistry, ResponseConfig, RouteConfig } from '@asteasolutions/zod-to-openapi';
 import express, { type Request, type RequestHandler, type Response, Router } from 'express';
 import type * as z from 'zod';
-import { PROBLEM_MEDIA_TYPE, ProblemSchema } from '@counterpoise/api';
+import { problemResponse } from '../openapi/responses';
 import { validateParams } from './params';
 import { requireJsonBody } from './problem';
 import { validateBody, validateQuery } from './validate';
@@ -85,15 +85,6 @@ export interface RouteDeclaration<
    * leaves `res.headersSent` true.
    */
   readonly handle: (input: RouteInput<Out<P>, Out<Q>, Out<B>>) => AnswerOf<R> | Promise<AnswerOf<R>>;
-}
-
-/** A problem answer for a route's `responses`. */
-export function problemResponse(description: string, headers?: ResponseConfig['headers']): ResponseConfig {
-  return {
-    description,
-    ...(headers ? { headers } : {}),
-    content: { [PROBLEM_MEDIA_TYPE]: { schema: ProblemSchema } },
-  };
 }
 
 /** The 400 of every route that takes input. */

@@ -6,7 +6,7 @@
 import { systemClock } from '../clock';
 import { ConfigError, loadConfig } from '../config';
 import { migrateDatabase, openDatabase } from '../db/database';
-import { AccountsRepo } from '../auth/accounts.repo';
+import { AccountsRepo } from '../accounts/accounts.repo';
 import { ApiKeysRepo } from './keys.repo';
 import { ApiKeyService } from './keys.service';
 import { runApiKeyCommand } from './api-key.command';

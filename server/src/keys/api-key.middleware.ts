@@ -3,7 +3,7 @@ import type { RequestHandler, Response } from 'express';
 import { API_KEY_HEADER, KEY_PROBLEM_CODES } from '@counterpoise/api';
 import { HttpProblem } from '../http/problem';
 import { looksLikeJwt } from '../auth/tokens';
-import type { UserRecord } from '../auth/accounts.repo';
+import type { UserRecord } from '../accounts/accounts.repo';
 import { API_KEY_SCHEME_PREFIX, type ApiKeyService } from './keys.service';
 
 /** What identifies a signed-in person from their access token (the accounts' AuthService). */

@@ -14,10 +14,10 @@ import {
   jsonResponse,
   problemResponse,
   SIGNED_IN_RESPONSES,
-} from '../auth/auth.openapi';
+} from '../openapi/responses';
 import { accountsJson } from '../auth/auth.router';
 import type { AuthService } from '../auth/auth.service';
-import { API_KEY_LIST_EXAMPLE, CREATED_API_KEY_EXAMPLE } from '../auth/examples';
+import { API_KEY_LIST_EXAMPLE, CREATED_API_KEY_EXAMPLE } from './keys.examples';
 import { requirePermission, requireUser } from '../auth/require-user';
 import type { Clock } from '../clock';
 import { IdParamSchema, validateParams } from '../http/params';

@@ -1,6 +1,6 @@
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { AccountsRepo } from '../auth/accounts.repo';
+import { AccountsRepo } from '../accounts/accounts.repo';
 import { DEMO_ORGANISATION } from '../auth/accounts.seed';
 import type { DemoSeeder } from '../db/seed';
 import { ApiKeysRepo } from './keys.repo';

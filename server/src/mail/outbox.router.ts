@@ -1,9 +1,9 @@
 import { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { OutboxSchema } from '@counterpoise/api';
 import { Router } from 'express';
-import { ACCESS_TOKEN_SECURITY, jsonResponse, SIGNED_IN_RESPONSES } from '../auth/auth.openapi';
+import { ACCESS_TOKEN_SECURITY, jsonResponse, SIGNED_IN_RESPONSES } from '../openapi/responses';
 import type { AuthService } from '../auth/auth.service';
-import { OUTBOX_EXAMPLE } from '../auth/examples';
+import { OUTBOX_EXAMPLE } from './outbox.examples';
 import { requirePermission, requireUser } from '../auth/require-user';
 import { MailRepo, OUTBOX_LIMIT } from './mail.repo';
 import type { Database } from '../db/database';

@@ -19,7 +19,7 @@ import {
   problemResponse,
   SET_COOKIE_HEADER,
   SIGNED_IN_RESPONSES,
-} from '../auth/auth.openapi';
+} from '../openapi/responses';
 import {
   accountsJson,
   CROSS_SITE_RESPONSE,
@@ -29,16 +29,15 @@ import {
 } from '../auth/auth.router';
 import type { AuthService } from '../auth/auth.service';
 import { type ClientLimits, clientLimiter, defaultLimitInWords } from '../auth/client-limits';
+import { SESSION_EXAMPLE, USER_EXAMPLE } from '../auth/auth.examples';
 import {
   ACCEPT_INVITATION_EXAMPLE,
   INVITATION_EXAMPLE,
   INVITATION_PREVIEW_EXAMPLE,
   INVITE_EXAMPLE,
   PEOPLE_EXAMPLE,
-  SESSION_EXAMPLE,
   UPDATE_PERSON_EXAMPLE,
-  USER_EXAMPLE,
-} from '../auth/examples';
+} from './people.examples';
 import { requirePermission, requireUser } from '../auth/require-user';
 import { refuseCrossSite } from '../auth/same-origin';
 import { retryAfterHeader } from '../auth/too-many-requests';

@@ -14,7 +14,7 @@ import {
   type UpdatePersonSchema,
   type User,
 } from '@counterpoise/api';
-import type { AccountsRepo, InvitationRecord, UserRecord } from '../auth/accounts.repo';
+import type { AccountsRepo, InvitationRecord, UserRecord } from '../accounts/accounts.repo';
 import { AUTH_PROBLEM_CODES, type AuthService, type IssuedSession, toUser } from '../auth/auth.service';
 import { generateSecret, hashSecret } from '../auth/tokens';
 import type { Clock } from '../clock';

@@ -12,7 +12,7 @@ import {
   type TestOrganisation,
 } from '../testing/accounts';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
-import { AccountsRepo } from '../auth/accounts.repo';
+import { AccountsRepo } from '../accounts/accounts.repo';
 import { AuthService } from '../auth/auth.service';
 import { HttpProblem } from '../http/problem';
 import { INVITATION_TTL_MS, PeopleService } from './people.service';

@@ -4,7 +4,7 @@
  * password is read from standard input (`--password-stdin`), never from the command line.
  */
 import { readFileSync } from 'node:fs';
-import { AccountsRepo } from '../auth/accounts.repo';
+import { AccountsRepo } from '../accounts/accounts.repo';
 import { systemClock } from '../clock';
 import { ConfigError, loadConfig } from '../config';
 import { migrateDatabase, openDatabase } from '../db/database';

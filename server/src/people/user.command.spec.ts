@@ -1,6 +1,6 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { HIDDEN_CHARACTERS } from '@counterpoise/api';
-import { AccountsRepo } from '../auth/accounts.repo';
+import { AccountsRepo } from '../accounts/accounts.repo';
 import { hashPasswordSync } from '../auth/passwords';
 import { EXIT } from '../keys/api-key.command';
 import { TEST_HASH_COST } from '../testing/accounts';

@@ -8,7 +8,7 @@ import {
   PersonNameSchema,
   RoleSchema,
 } from '@counterpoise/api';
-import type { AccountsRepo } from '../auth/accounts.repo';
+import type { AccountsRepo } from '../accounts/accounts.repo';
 import { hashPasswordSync, passwordWeakness, type ScryptCost } from '../auth/passwords';
 import { type CommandOutput, EXIT } from '../keys/api-key.command';
 

@@ -1,4 +1,4 @@
-import { AccountsRepo } from '../auth/accounts.repo';
+import { AccountsRepo } from '../accounts/accounts.repo';
 import { DEMO_ORGANISATION } from '../auth/accounts.seed';
 import type { Database } from '../db/database';
 import type { Actor } from './change-log';

@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CustomerSchema, MachineFamilySchema, MachineSchema } from '@counterpoise/api';
-import { AccountsRepo } from '../auth/accounts.repo';
+import { AccountsRepo } from '../accounts/accounts.repo';
 import { DEMO_ORGANISATION } from '../auth/accounts.seed';
 import { CustomersRepo } from '../customers/customers.repo';
 import { CustomersService } from '../customers/customers.service';

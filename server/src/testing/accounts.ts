@@ -3,7 +3,7 @@ import type { Express } from 'express';
 import request from 'supertest';
 import { ROLES, type Role } from '@counterpoise/api';
 import { createApp } from '../app';
-import { AccountsRepo, type UserRecord } from '../auth/accounts.repo';
+import { AccountsRepo, type UserRecord } from '../accounts/accounts.repo';
 import { hashPasswordSync } from '../auth/passwords';
 import type { Clock } from '../clock';
 import type { Database } from '../db/database';

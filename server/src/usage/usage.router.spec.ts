@@ -4,7 +4,7 @@ import { ProblemSchema, UsageReportSchema } from '@counterpoise/api';
 import { createApp, OPENAPI_REGISTRIES } from '../app';
 import type { Clock } from '../clock';
 import { createTestKey } from '../keys/testing/test-keys';
-import { ACCESS_TOKEN_SCHEME, REFRESH_COOKIE_SCHEME } from '../auth/auth.openapi';
+import { ACCESS_TOKEN_SCHEME, REFRESH_COOKIE_SCHEME } from '../openapi/responses';
 import { API_KEY_BEARER_SCHEME, API_KEY_HEADER_SCHEME } from '../keys/keys.openapi';
 import { buildOpenApiDocument } from '../openapi/openapi';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';

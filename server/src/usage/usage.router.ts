@@ -10,7 +10,7 @@ import {
 import { Router } from 'express';
 import type { Clock } from '../clock';
 import { validateQuery } from '../http/validate';
-import { ACCESS_TOKEN_SCHEME } from '../auth/auth.openapi';
+import { ACCESS_TOKEN_SCHEME } from '../openapi/responses';
 import { requirePermission } from '../auth/require-user';
 import { API_KEY_SECURITY, KEYED_ROUTE_RESPONSES, RATE_LIMIT_HEADERS } from '../keys/keys.openapi';
 import type { UsageRepo } from './usage.repo';

@@ -1,7 +1,12 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
 import { AccountsRepo } from './accounts.repo';
-import { FORGET_FAILURES_MS, LOCK_AFTER, SIGN_IN_FAILURE_POLICY, waitAfterFailures } from './auth.service';
+import {
+  FORGET_FAILURES_MS,
+  LOCK_AFTER,
+  SIGN_IN_FAILURE_POLICY,
+  waitAfterFailures,
+} from '../auth/auth.service';
 
 let temporary: TemporaryDatabase;
 let repo: AccountsRepo;
