@@ -11,12 +11,12 @@ import {
 } from '@angular/core';
 import { ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
+import { MAT_FORM_FIELD_DEFAULT_OPTIONS, MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
-import { RecordForm } from '../records/record-form';
+import { FORM_FIELD_OPTIONS, RecordForm } from '../records/record-form';
 import { idFromRoute } from '../records/record-page';
 import { RECORD_RULES } from '../records/record-rules';
 import type { HoldsUnsavedInput } from '../records/unsaved-changes';
@@ -49,6 +49,8 @@ import { CustomersApi } from './customers.api';
   templateUrl: './customer-form-page.html',
   styleUrl: './customer-form-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  // Messages under a field take the room they need, so that two lines never run into the next field.
+  providers: [{ provide: MAT_FORM_FIELD_DEFAULT_OPTIONS, useValue: FORM_FIELD_OPTIONS }],
   host: { '(window:beforeunload)': 'warnBeforeUnload($event)' },
 })
 export class CustomerFormPage implements OnInit, HoldsUnsavedInput {

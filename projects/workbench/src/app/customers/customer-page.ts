@@ -63,7 +63,7 @@ export class CustomerPage {
   );
   protected readonly fields = CUSTOMER_FIELDS;
   protected readonly httpErrorMessage = httpErrorMessage;
-  protected readonly machineColumns = ['serialNumber', 'makeModel', 'familyName'];
+  protected readonly machineColumns = ['serialNumber', 'machine'];
 
   protected asMachine(row: Machine): Machine {
     return row;

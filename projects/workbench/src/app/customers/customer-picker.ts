@@ -122,8 +122,8 @@ export class CustomerPicker implements OnInit {
   readonly hint = input<string | null>(null);
   /** Whether a customer must be chosen (marks the label). */
   readonly required = input(false);
-  /** `dynamic` in a filter bar, so that the field takes no room for messages it does not have. */
-  readonly subscriptSizing = input<'fixed' | 'dynamic'>('fixed');
+  /** `dynamic` (the default) lets hints and messages take the lines they need; `fixed` keeps one line for them. */
+  readonly subscriptSizing = input<'fixed' | 'dynamic'>('dynamic');
 
   private readonly api = inject(CustomersApi);
   private readonly destroyRef = inject(DestroyRef);

@@ -16,7 +16,7 @@ import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { map } from 'rxjs';
 import { AuthSession } from '../auth/auth-session';
-import { apiListQuery, listQuery, PAGE_SIZES } from '../records/list-query';
+import { apiListQuery, ARCHIVED_NOUNS, listCount, listQuery, PAGE_SIZES } from '../records/list-query';
 import { pagedList } from '../records/paged-list';
 import type { ArchivedFilter } from '../records/records-api';
 import { searchBox } from '../records/search-box';
@@ -25,13 +25,6 @@ import { type Customer, CustomersApi, type CustomerSortField } from './customers
 
 /** Below this width the e-mail address and phone move under the name, so that the table fits a phone. */
 const WIDE_TABLE = '(min-width: 720px)';
-
-/** What the archived filter's choices are called. */
-const ARCHIVED_NOUNS: Readonly<Record<ArchivedFilter, string>> = {
-  false: 'in use',
-  true: 'archived',
-  all: 'in all',
-};
 
 /**
  * The shop's customers: searched, filtered, sorted and paged by the server, with the query kept in the
@@ -87,6 +80,10 @@ export class CustomersPage {
   protected readonly pageSizes = PAGE_SIZES;
   protected readonly httpErrorMessage = httpErrorMessage;
   protected readonly archivedNoun = computed(() => ARCHIVED_NOUNS[this.state().archived]);
+
+  protected countSentence(total: number): string {
+    return listCount(total, ['customer', 'customers'], this.state());
+  }
 
   protected sortBy(sort: Sort): void {
     this.query.change({

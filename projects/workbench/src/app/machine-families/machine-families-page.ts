@@ -16,7 +16,7 @@ import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { map } from 'rxjs';
 import { AuthSession } from '../auth/auth-session';
-import { apiListQuery, listQuery, PAGE_SIZES } from '../records/list-query';
+import { apiListQuery, ARCHIVED_NOUNS, listCount, listQuery, PAGE_SIZES } from '../records/list-query';
 import { pagedList } from '../records/paged-list';
 import { formatNumber, ROTOR_TYPE_LABELS } from '../records/record-labels';
 import type { ArchivedFilter } from '../records/records-api';
@@ -26,12 +26,6 @@ import { MachineFamiliesApi, type MachineFamily, type MachineFamilySortField } f
 
 /** Below this width the speed and planes move under the name, so that the table fits a phone. */
 const WIDE_TABLE = '(min-width: 720px)';
-
-const ARCHIVED_NOUNS: Readonly<Record<ArchivedFilter, string>> = {
-  false: 'in use',
-  true: 'archived',
-  all: 'in all',
-};
 
 /**
  * The shop's machine families (a model range whose rotors answer a weight alike): searched, sorted and paged
@@ -92,6 +86,10 @@ export class MachineFamiliesPage {
   protected readonly formatNumber = formatNumber;
   protected readonly httpErrorMessage = httpErrorMessage;
   protected readonly archivedNoun = computed(() => ARCHIVED_NOUNS[this.state().archived]);
+
+  protected countSentence(total: number): string {
+    return listCount(total, ['family', 'families'], this.state());
+  }
 
   protected sortBy(sort: Sort): void {
     this.query.change({

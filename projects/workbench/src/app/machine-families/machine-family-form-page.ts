@@ -15,7 +15,7 @@ import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { MatFormFieldModule } from '@angular/material/form-field';
+import { MAT_FORM_FIELD_DEFAULT_OPTIONS, MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
@@ -23,7 +23,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
 import type { AmplitudeUnit, MachineSide, RotorType } from '@counterpoise/api';
 import { AcceptanceFields } from '../records/acceptance-fields';
-import { RecordForm } from '../records/record-form';
+import { FORM_FIELD_OPTIONS, RecordForm } from '../records/record-form';
 import { AMPLITUDE_UNIT_LABELS, planeName, ROTOR_TYPE_LABELS, SIDE_LABELS } from '../records/record-labels';
 import { idFromRoute } from '../records/record-page';
 import type { HoldsUnsavedInput } from '../records/unsaved-changes';
@@ -68,6 +68,8 @@ const MAX_SENSITIVITIES = 4;
   templateUrl: './machine-family-form-page.html',
   styleUrl: './machine-family-form-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  // Messages under a field take the room they need, so that two lines never run into the next field.
+  providers: [{ provide: MAT_FORM_FIELD_DEFAULT_OPTIONS, useValue: FORM_FIELD_OPTIONS }],
   host: { '(window:beforeunload)': 'warnBeforeUnload($event)' },
 })
 export class MachineFamilyFormPage implements OnInit, HoldsUnsavedInput {

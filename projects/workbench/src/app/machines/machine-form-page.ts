@@ -15,7 +15,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { type MatChipInputEvent, MatChipsModule } from '@angular/material/chips';
-import { MatFormFieldModule } from '@angular/material/form-field';
+import { MAT_FORM_FIELD_DEFAULT_OPTIONS, MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
@@ -26,7 +26,7 @@ import { CustomerPicker } from '../customers/customer-picker';
 import { CustomersApi } from '../customers/customers.api';
 import { MachineFamiliesApi, type MachineFamily } from '../machine-families/machine-families.api';
 import { AcceptanceFields, setAcceptance } from '../records/acceptance-fields';
-import { RecordForm } from '../records/record-form';
+import { FORM_FIELD_OPTIONS, RecordForm } from '../records/record-form';
 import {
   describeAcceptance,
   formatNumber,
@@ -80,6 +80,8 @@ const FAMILIES_OFFERED = 100;
   templateUrl: './machine-form-page.html',
   styleUrl: './machine-form-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  // Messages under a field take the room they need, so that two lines never run into the next field.
+  providers: [{ provide: MAT_FORM_FIELD_DEFAULT_OPTIONS, useValue: FORM_FIELD_OPTIONS }],
   host: { '(window:beforeunload)': 'warnBeforeUnload($event)' },
 })
 export class MachineFormPage implements OnInit, HoldsUnsavedInput {

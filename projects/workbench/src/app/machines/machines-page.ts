@@ -20,7 +20,7 @@ import { AuthSession } from '../auth/auth-session';
 import { type CustomerChoice, CustomerPicker, isCustomerRef } from '../customers/customer-picker';
 import { CustomersApi } from '../customers/customers.api';
 import { MachineFamiliesApi } from '../machine-families/machine-families.api';
-import { apiListQuery, listQuery, PAGE_SIZES } from '../records/list-query';
+import { apiListQuery, ARCHIVED_NOUNS, listCount, listQuery, PAGE_SIZES } from '../records/list-query';
 import { pagedList } from '../records/paged-list';
 import type { ArchivedFilter } from '../records/records-api';
 import { searchBox } from '../records/search-box';
@@ -29,12 +29,6 @@ import { type Machine, MachinesApi, type MachineSortField } from './machines.api
 
 /** Below this width the customer and family move under the serial number, so that the table fits a phone. */
 const WIDE_TABLE = '(min-width: 720px)';
-
-const ARCHIVED_NOUNS: Readonly<Record<ArchivedFilter, string>> = {
-  false: 'in use',
-  true: 'archived',
-  all: 'in all',
-};
 
 /** The families the filter offers. */
 const FAMILIES_OFFERED = 100;
@@ -112,6 +106,10 @@ export class MachinesPage {
   protected readonly pageSizes = PAGE_SIZES;
   protected readonly httpErrorMessage = httpErrorMessage;
   protected readonly archivedNoun = computed(() => ARCHIVED_NOUNS[this.state().archived]);
+
+  protected countSentence(total: number): string {
+    return listCount(total, ['machine', 'machines'], this.state());
+  }
   protected readonly filtered = computed(
     () => Object.keys(this.state().filters).length > 0 || this.state().q !== '',
   );

@@ -162,7 +162,7 @@ export function acceptanceValue(group: AcceptanceGroup): AcceptanceLevel | null 
           </mat-form-field>
         }
         @case ('balance-grade') {
-          <mat-form-field appearance="outline">
+          <mat-form-field appearance="outline" class="whole-row">
             <mat-label>Balance grade</mat-label>
             <mat-select formControlName="grade">
               @for (grade of grades; track grade.grade) {
@@ -211,8 +211,13 @@ export function acceptanceValue(group: AcceptanceGroup): AcceptanceLevel | null 
       gap: 0 16px;
     }
     .kind,
+    .whole-row,
     .guidance {
       grid-column: 1 / -1;
+    }
+    mat-form-field {
+      width: 100%;
+      margin-bottom: 16px;
     }
     .guidance {
       display: flex;

@@ -1,6 +1,6 @@
 import { convertToParamMap } from '@angular/router';
 import { describe, expect, it } from 'vitest';
-import { apiListQuery, listQueryParams, type ListQueryOptions, readListQuery } from './list-query';
+import { apiListQuery, listCount, listQueryParams, type ListQueryOptions, readListQuery } from './list-query';
 
 const OPTIONS: ListQueryOptions<'serialNumber' | 'customerName'> = {
   sortFields: ['serialNumber', 'customerName'],
@@ -84,5 +84,19 @@ describe('list query in the address', () => {
       customerId: 7,
     });
     expect(apiListQuery({ ...state, q: '' })).not.toHaveProperty('q');
+  });
+
+  it('counts what the query found in a sentence', () => {
+    const nouns = ['machine', 'machines'] as const;
+    expect(listCount(12, nouns, { archived: 'false', q: '', filters: {} })).toBe('12 machines in use.');
+    expect(listCount(1, nouns, { archived: 'false', q: 'TM225', filters: {} })).toBe(
+      '1 machine in use matches “TM225”.',
+    );
+    expect(listCount(0, nouns, { archived: 'all', q: 'TM225', filters: { customerId: 7 } })).toBe(
+      '0 machines in all match “TM225” and the filters.',
+    );
+    expect(listCount(3, nouns, { archived: 'true', q: '', filters: { familyId: 4 } })).toBe(
+      '3 machines archived match the filters.',
+    );
   });
 });

@@ -33,6 +33,30 @@ export interface ListQueryState<S extends string> {
 
 const ARCHIVED: readonly ArchivedFilter[] = ['false', 'true', 'all'];
 
+/** How a list's count names the records its archived filter shows. */
+export const ARCHIVED_NOUNS: Readonly<Record<ArchivedFilter, string>> = {
+  false: 'in use',
+  true: 'archived',
+  all: 'in all',
+};
+
+/**
+ * The sentence above a list: how many records the query found, "12 customers in use.", "1 machine in use
+ * matches “TM225” and the filters."
+ */
+export function listCount(
+  total: number,
+  nouns: readonly [singular: string, plural: string],
+  state: Pick<ListQueryState<string>, 'archived' | 'q' | 'filters'>,
+): string {
+  const counted = `${total} ${total === 1 ? nouns[0] : nouns[1]} ${ARCHIVED_NOUNS[state.archived]}`;
+  const verb = total === 1 ? 'matches' : 'match';
+  const filtered = Object.keys(state.filters).length > 0;
+  if (state.q) return `${counted} ${verb} “${state.q}”${filtered ? ' and the filters' : ''}.`;
+  if (filtered) return `${counted} ${verb} the filters.`;
+  return `${counted}.`;
+}
+
 function positiveWhole(text: string | null, max: number): number | null {
   if (text === null || !/^\d+$/.test(text)) return null;
   const value = Number(text);

@@ -1,5 +1,6 @@
 import { afterNextRender, ElementRef, inject, Injector, signal } from '@angular/core';
 import type { AbstractControl } from '@angular/forms';
+import type { MatFormFieldDefaultOptions } from '@angular/material/form-field';
 import { MatDialog } from '@angular/material/dialog';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router } from '@angular/router';
@@ -7,6 +8,15 @@ import { formErrorOf, httpErrorMessage } from '../shell/server-errors';
 import { changedFields, type FieldDescriptions } from './record-fields';
 import type { RecordsApi, StoredRecord, Versioned } from './records-api';
 import { updateMindingOthers } from './update-minding-others';
+
+/**
+ * How the records' forms draw their fields: outlined, and with hints and messages taking the lines they need
+ * (the fields are spaced by the form's styles), so that a two-line message never covers the next label.
+ */
+export const FORM_FIELD_OPTIONS: MatFormFieldDefaultOptions = {
+  appearance: 'outline',
+  subscriptSizing: 'dynamic',
+};
 
 /** What a record's form page tells the helper about its record and its form. */
 export interface RecordFormOptions<T extends StoredRecord, C extends object, U> {
