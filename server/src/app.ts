@@ -4,7 +4,7 @@ import express, { type Express, Router } from 'express';
 import { randomBytes } from 'node:crypto';
 import { AccountsRepo } from './accounts/accounts.repo';
 import { authRegistry } from './auth/auth.openapi';
-import { authRouter } from './auth/auth.router';
+import { authRoutes } from './auth/auth.router';
 import { AuthService } from './auth/auth.service';
 import type { BackgroundWork } from './auth/background-work';
 import type { ClientLimits } from './auth/client-limits';
@@ -16,33 +16,34 @@ import { apiNotFound, problemHandler } from './http/problem';
 import { CALC_BASE_PATH, calcRegistry, calcRouter } from './calc/calc.router';
 import { securityHeaders } from './http/security-headers';
 import { keyedMiddleware, keyedV1Router } from './http/v1';
-import { keysRegistry } from './keys/keys.openapi';
+import { API_KEY_SECURITY, KEYED_ROUTE_RESPONSES, keysRegistry } from './keys/keys.openapi';
 import { ApiKeysRepo } from './keys/keys.repo';
-import { keyRoutesRegistry, keysRouter } from './keys/keys.router';
+import { keysRoutes } from './keys/keys.router';
 import { ApiKeyService } from './keys/keys.service';
 import type { Mailer } from './mail/mailer';
-import { outboxRegistry, outboxRouter } from './mail/outbox.router';
-import { peopleRegistry, peopleRouter } from './people/people.router';
+import { outboxRoutes } from './mail/outbox.router';
+import { peopleRoutes } from './people/people.router';
 import { PeopleService } from './people/people.service';
 import { requirePermission, requireUser } from './auth/require-user';
-import { ACCESS_TOKEN_SECURITY, SIGNED_IN_RESPONSES } from './openapi/responses';
+import { ACCESS_TOKEN_SCHEME, ACCESS_TOKEN_SECURITY, SIGNED_IN_RESPONSES } from './openapi/responses';
 import { can, type Permission, ROLES } from '@counterpoise/api';
-import type { AccessRule } from './http/route';
+import type { AccessRule, FeatureRoutes } from './http/route';
 import { ChangeLog } from './records/change-log';
 import type { RecordAccess } from './records/record-routes';
 import { CustomersRepo } from './customers/customers.repo';
-import { customersRegistry, customersRouter } from './customers/customers.router';
+import { customersRouter } from './customers/customers.router';
 import { CustomersService } from './customers/customers.service';
 import { MachineFamiliesRepo } from './machine-families/machine-families.repo';
-import { machineFamiliesRegistry, machineFamiliesRouter } from './machine-families/machine-families.router';
+import { machineFamiliesRouter } from './machine-families/machine-families.router';
 import { MachineFamiliesService } from './machine-families/machine-families.service';
 import { MachinesRepo } from './machines/machines.repo';
-import { machinesRegistry, machinesRouter } from './machines/machines.router';
+import { machinesRouter } from './machines/machines.router';
 import { MachinesService } from './machines/machines.service';
 import { buildOpenApiDocument, openApiRouter } from './openapi/openapi';
 import { UsageLog } from './usage/usage-log';
 import { documentedPaths } from './usage/usage.recorder';
-import { usageRegistry } from './usage/usage.router';
+import { UsageRepo } from './usage/usage.repo';
+import { usageRoutes } from './usage/usage.router';
 import { VERSION } from './version';
 
 /** What the app is built from; tests pass a temporary database and a fixed clock. */
@@ -102,34 +103,24 @@ const NO_MAILER: Mailer = {
   send: () => Promise.reject(new Error('No mail transport is configured for this app.')),
 };
 
-/** Every feature's OpenAPI registry, in the order of the document. */
-export const OPENAPI_REGISTRIES = [
-  healthRegistry,
-  authRegistry,
-  peopleRegistry,
-  keyRoutesRegistry,
-  outboxRegistry,
-  keysRegistry,
-  usageRegistry,
-  calcRegistry,
-  customersRegistry,
-  machineFamiliesRegistry,
-  machinesRegistry,
-];
-
 /**
- * The access rule of a route for signed-in people whose role holds `permission`: the guard, and what
- * the OpenAPI document says of it (the roles are read from the permission table, so they cannot drift).
+ * The access rule of a route for signed-in people whose role holds one of `permissions`: the guard, and
+ * what the OpenAPI document says of it (the roles are read from the permission table, so they cannot
+ * drift).
  */
-function signedInAccess(auth: AuthService, permission: Permission): AccessRule {
-  const roles = ROLES.filter((role) => can(role, permission));
+function signedInAccess(auth: AuthService, ...permissions: [Permission, ...Permission[]]): AccessRule {
+  const roles = ROLES.filter((role) => permissions.some((permission) => can(role, permission)));
+  const held = permissions.map((permission) => `\`${permission}\``).join(' or ');
   return {
-    guard: [requireUser(auth), requirePermission(permission)],
+    guard: [requireUser(auth), requirePermission(...permissions)],
     security: ACCESS_TOKEN_SECURITY,
     responses: SIGNED_IN_RESPONSES,
-    describe: `Signed-in people whose role holds \`${permission}\` (${roles.join(', ')}).`,
+    describe: `Signed-in people whose role holds ${held} (${roles.join(', ')}).`,
   };
 }
+
+/** The route of an invitation link: anyone may call it, the link's token is the credential. */
+const INVITATION_LINK: AccessRule = { guard: [] };
 
 /** Who may read, write and archive one kind of the shop's records. */
 function recordAccess(auth: AuthService, write: Permission): Readonly<Record<RecordAccess, AccessRule>> {
@@ -179,14 +170,83 @@ export function createApp(deps: AppDeps): Express {
     },
   );
   const keys = new ApiKeyService(new ApiKeysRepo(deps.database.orm));
+  const clientLimits = accounts.clientLimits ?? {};
+
+  // The workbench's routes, for signed-in people (and the public session routes): accounts first.
+  const accountsFeatures: FeatureRoutes[] = [
+    authRoutes(auth, { clientLimits }),
+    peopleRoutes({
+      auth,
+      people: new PeopleService(accountsRepo, auth, clock, mailer),
+      access: {
+        read: signedInAccess(auth, 'people:read'),
+        invite: signedInAccess(auth, 'people:invite'),
+        // Owners hold people:manage; managers reach the service's narrower rule through people:invite.
+        manage: signedInAccess(auth, 'people:manage', 'people:invite'),
+        link: INVITATION_LINK,
+      },
+      clientLimits,
+    }),
+    keysRoutes({
+      keys,
+      clock,
+      defaultLimitPerMinute: accounts.defaultKeyLimitPerMinute ?? 600,
+      access: { manage: signedInAccess(auth, 'keys:manage') },
+    }),
+    outboxRoutes({ database: deps.database, access: { read: signedInAccess(auth, 'outbox:read') } }),
+  ];
+  // The shop's records, each change written to one change log.
+  const recordChanges = new ChangeLog(deps.database.orm);
+  const recordFeatures: FeatureRoutes[] = [
+    customersRouter({
+      access: recordAccess(auth, 'customers:write'),
+      customers: new CustomersService(new CustomersRepo(deps.database.orm), recordChanges, clock),
+    }),
+    machineFamiliesRouter({
+      access: recordAccess(auth, 'families:write'),
+      families: new MachineFamiliesService(new MachineFamiliesRepo(deps.database.orm), recordChanges, clock),
+    }),
+    machinesRouter({
+      access: recordAccess(auth, 'machines:write'),
+      machines: new MachinesService(new MachinesRepo(deps.database.orm), recordChanges, clock),
+    }),
+  ];
+  // The usage report sits behind the keyed chain, which has checked the key or the access token; its
+  // guard is the chain's permission check.
+  const usage = usageRoutes({
+    repo: new UsageRepo(deps.database.orm),
+    clock,
+    access: {
+      report: {
+        guard: [requirePermission('usage:read')],
+        security: [...API_KEY_SECURITY, { [ACCESS_TOKEN_SCHEME]: [] }],
+        responses: KEYED_ROUTE_RESPONSES,
+      },
+    },
+  });
+
+  // The document of what this app built, in the order of the reference: built once, before the keyed
+  // chain, whose usage recorder labels rows with its paths.
+  const openApiDocument = buildOpenApiDocument(
+    [
+      healthRegistry,
+      authRegistry,
+      ...accountsFeatures.map((feature) => feature.registry),
+      keysRegistry,
+      usage.registry,
+      calcRegistry,
+      ...recordFeatures.map((feature) => feature.registry),
+    ],
+    version,
+  );
+  app.locals.openApiDocument = openApiDocument;
 
   const usageLog = deps.usageLog ?? new UsageLog(deps.database, { log });
   const keyedDeps = {
-    database: deps.database,
     clock,
     usage: usageLog,
     corsOrigins: deps.corsOrigins ?? [],
-    documentedPaths: documentedPaths(OPENAPI_REGISTRIES),
+    documentedPaths: documentedPaths(openApiDocument),
     keys,
     tokens: auth,
     ...(accounts.userCalcLimitPerMinute === undefined
@@ -201,47 +261,19 @@ export function createApp(deps: AppDeps): Express {
   // every path under it (404 for a route it does not have), so nothing falls through to be logged twice.
   app.use(CALC_BASE_PATH, keyed, requirePermission('calc:use'), calcRouter({ usage: usageLog, clock }));
 
-  // The workbench's routes, for signed-in people (and the public session routes). Mounted ahead of
-  // the other keyed routes; a path they do not answer falls through to them.
+  // The signed-in routes, mounted ahead of the other keyed routes; a path they do not answer falls
+  // through to them.
   const signedIn = Router();
-  const clientLimits = accounts.clientLimits ?? {};
-  signedIn.use(authRouter(auth, { clientLimits }));
-  signedIn.use(
-    peopleRouter({ auth, people: new PeopleService(accountsRepo, auth, clock, mailer), clientLimits }),
-  );
-  signedIn.use(
-    keysRouter({ auth, keys, clock, defaultLimitPerMinute: accounts.defaultKeyLimitPerMinute ?? 600 }),
-  );
-  signedIn.use(outboxRouter({ auth, database: deps.database }));
-  // The shop's records, each change written to one change log.
-  const recordChanges = new ChangeLog(deps.database.orm);
-  signedIn.use(
-    customersRouter({
-      access: recordAccess(auth, 'customers:write'),
-      customers: new CustomersService(new CustomersRepo(deps.database.orm), recordChanges, clock),
-    }),
-  );
-  signedIn.use(
-    machineFamiliesRouter({
-      access: recordAccess(auth, 'families:write'),
-      families: new MachineFamiliesService(new MachineFamiliesRepo(deps.database.orm), recordChanges, clock),
-    }),
-  );
-  signedIn.use(
-    machinesRouter({
-      access: recordAccess(auth, 'machines:write'),
-      machines: new MachinesService(new MachinesRepo(deps.database.orm), recordChanges, clock),
-    }),
-  );
+  for (const feature of [...accountsFeatures, ...recordFeatures]) signedIn.use(feature.router);
   app.use('/api/v1', signedIn);
 
   // The usage report, and the key check of every other `/api/v1` path: a keyed request that no route
   // answers is still a logged request of its key, and then a 404 below.
-  app.use('/api/v1', keyedV1Router({ ...keyedDeps, chain: keyed }));
+  app.use('/api/v1', keyedV1Router({ ...keyedDeps, chain: keyed, routes: [usage.router] }));
 
   const api = Router();
   api.use(healthRouter({ database: deps.database, clock, version }));
-  api.use(openApiRouter(buildOpenApiDocument(OPENAPI_REGISTRIES, version)));
+  api.use(openApiRouter(openApiDocument));
   api.use(apiNotFound);
   app.use('/api', api);
 

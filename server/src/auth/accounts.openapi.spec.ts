@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type * as z from 'zod';
 import {
   AcceptInvitationSchema,
@@ -18,11 +18,18 @@ import {
   UpdatePersonSchema,
   UserSchema,
 } from '@counterpoise/api';
-import { OPENAPI_REGISTRIES } from '../app';
-import { buildOpenApiDocument } from '../openapi/openapi';
+import { createApp } from '../app';
+import type { OpenApiDocument } from '../openapi/openapi';
+import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
 import { passwordWeakness } from './passwords';
 
-const document = buildOpenApiDocument(OPENAPI_REGISTRIES, '0.0.0');
+let temporary: TemporaryDatabase;
+let document: OpenApiDocument;
+beforeAll(() => {
+  temporary = openTemporaryDatabase();
+  document = createApp({ database: temporary.database }).locals.openApiDocument!;
+});
+afterAll(() => temporary.dispose());
 
 /** Every accounts route of the contract, with the schemas of its example request and answer. */
 const ROUTES: [string, string, z.ZodType | null, string, z.ZodType | null][] = [

@@ -4,6 +4,15 @@
  * organisation, on the reserved `.test` domain.
  */
 
+import type {
+  MeSchema,
+  PasswordResetConfirmSchema,
+  PasswordResetRequestSchema,
+  SessionSchema,
+  SignInRequestSchema,
+} from '@counterpoise/api';
+import type * as z from 'zod';
+
 /** The demo organisation of the examples. */
 export const ORGANISATION = { id: 1, name: 'Ridgeline Rotor Service' };
 
@@ -17,12 +26,12 @@ export const USER_EXAMPLE = {
   createdAt: '2026-05-04T08:00:00.000Z',
 } as const;
 
-export const SIGN_IN_EXAMPLE = {
+export const SIGN_IN_EXAMPLE: z.input<typeof SignInRequestSchema> = {
   email: 'technician@ridgeline-rotor.test',
   password: 'gravel road under the maple',
 };
 
-export const SESSION_EXAMPLE = {
+export const SESSION_EXAMPLE: z.input<typeof SessionSchema> = {
   accessToken:
     'eyJhbGciOiJIUzI1NiIsInR5cCI6IkpXVCJ9.eyJvcmciOjEsInJvbGUiOiJ0ZWNobmljaWFuIiwic3ViIjoiMyJ9.' +
     'c2lnbmF0dXJlLW9mLXRoZS1leGFtcGxl',
@@ -40,11 +49,16 @@ export const SESSION_EXAMPLE = {
   ],
 };
 
-export const ME_EXAMPLE = { user: USER_EXAMPLE, permissions: SESSION_EXAMPLE.permissions };
+export const ME_EXAMPLE: z.input<typeof MeSchema> = {
+  user: USER_EXAMPLE,
+  permissions: SESSION_EXAMPLE.permissions,
+};
 
-export const PASSWORD_RESET_EXAMPLE = { email: 'technician@ridgeline-rotor.test' };
+export const PASSWORD_RESET_EXAMPLE: z.input<typeof PasswordResetRequestSchema> = {
+  email: 'technician@ridgeline-rotor.test',
+};
 
-export const PASSWORD_RESET_CONFIRM_EXAMPLE = {
+export const PASSWORD_RESET_CONFIRM_EXAMPLE: z.input<typeof PasswordResetConfirmSchema> = {
   token: 'q8W1mZk3r5T7v9X0b2N4c6M8a0S2d4F6g8H0j2K4l6P',
   password: 'a kettle of copper rivets',
 };

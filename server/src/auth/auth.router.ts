@@ -1,5 +1,5 @@
 import type { ResponseConfig } from '@asteasolutions/zod-to-openapi';
-import express, { type Response, Router } from 'express';
+import type { Response } from 'express';
 import {
   MeSchema,
   PasswordResetConfirmSchema,
@@ -8,20 +8,14 @@ import {
   SessionSchema,
   SignInRequestSchema,
 } from '@counterpoise/api';
-import type * as z from 'zod';
-import { requireJsonBody } from '../http/problem';
-import { validateBody } from '../http/validate';
+import { type AccessRule, type FeatureRoutes, RouteTable } from '../http/route';
 import {
   ACCESS_TOKEN_SECURITY,
-  INVALID_BODY_RESPONSE,
-  jsonBody,
-  jsonResponse,
   problemResponse,
   REFRESH_COOKIE_SCHEME,
   SET_COOKIE_HEADER,
   SIGNED_IN_RESPONSES,
 } from '../openapi/responses';
-import { authRegistry } from './auth.openapi';
 import { type ClientLimits, clientLimiter, defaultLimitInWords } from './client-limits';
 import {
   type AuthService,
@@ -46,9 +40,6 @@ import { retryAfterHeader } from './too-many-requests';
 /** Where the refresh cookie is sent: the session routes only, never the rest of the API. */
 export const REFRESH_COOKIE_PATH = '/api/v1/auth';
 
-/** The body parser of the accounts routes: small JSON bodies only. */
-export const accountsJson = [requireJsonBody, express.json({ limit: '16kb', type: () => true })];
-
 /** Sends a session: the body, the refresh cookie, and no caching anywhere. */
 export function sendSession(res: Response, issued: IssuedSession, secure: boolean, status = 200): void {
   res.cookie(REFRESH_COOKIE, issued.refreshToken, {
@@ -65,10 +56,14 @@ function clearRefreshCookie(res: Response, secure: boolean): void {
   res.clearCookie(REFRESH_COOKIE, { httpOnly: true, sameSite: 'strict', secure, path: REFRESH_COOKIE_PATH });
 }
 
-const SESSION_RESPONSE = {
-  ...jsonResponse('Signed in: the access token and the person.', SessionSchema, SESSION_EXAMPLE),
+/** The answer of the routes that sign in: the session, and the refresh cookie. */
+const SESSION_ANSWER = {
+  status: 200,
+  description: 'Signed in: the access token and the person.',
+  schema: SessionSchema,
+  example: SESSION_EXAMPLE,
   headers: SET_COOKIE_HEADER,
-};
+} as const;
 
 /** The `Retry-After` of every 429 of the accounts routes. */
 export const RETRY_AFTER_HEADER = {
@@ -93,132 +88,6 @@ function clientThrottledResponse(what: string): ResponseConfig {
 export const PASSWORD_CHECKS_BUSY =
   'the server is checking too many passwords at once (`PASSWORD_CHECKS_BUSY`)';
 
-authRegistry.registerPath({
-  method: 'post',
-  path: '/api/v1/auth/sign-in',
-  tags: ['Accounts'],
-  summary: 'Sign in with an e-mail address and a password',
-  description:
-    'Answers a short-lived access token (10 minutes) and sets the refresh cookie. After 5 failed ' +
-    'attempts in a row with one address, each further attempt must wait (1, 2, 4, 8, 16 s: 429 with ' +
-    '`Retry-After`); after 10, the address is locked for 15 minutes. Each attempt counts as a failure ' +
-    'until its password proves right, so attempts sent at once are all counted. Known and unknown ' +
-    'addresses are answered alike. Failed attempts are also limited per client address ' +
-    `(${defaultLimitInWords('signIn')} by default).`,
-  request: jsonBody(SignInRequestSchema, SIGN_IN_EXAMPLE),
-  responses: {
-    200: SESSION_RESPONSE,
-    400: INVALID_BODY_RESPONSE,
-    401: problemResponse('The address or the password is not right (`code`: `INVALID_CREDENTIALS`).'),
-    403: problemResponse(
-      'The account is deactivated (`code`: `ACCOUNT_DEACTIVATED`), or the request came from a page of ' +
-        'another site (`CROSS_SITE_REQUEST`).',
-    ),
-    429: problemResponse(
-      'Too many failures with this address (`code`: `SIGN_IN_THROTTLED`, `SIGN_IN_LOCKED`), too many ' +
-        `failed sign-ins from this client address (\`CLIENT_THROTTLED\`), or ${PASSWORD_CHECKS_BUSY}.`,
-      RETRY_AFTER_HEADER,
-    ),
-  },
-});
-
-authRegistry.registerPath({
-  method: 'post',
-  path: '/api/v1/auth/refresh',
-  tags: ['Accounts'],
-  summary: 'Renew the access token with the refresh cookie',
-  description:
-    'Replaces the refresh cookie with a new one and answers a new access token. A refresh token works ' +
-    'once: presenting one that was already replaced ends every session that descends from the same ' +
-    'sign-in (`code`: `REFRESH_REUSED`). Within ' +
-    `${REFRESH_GRACE_MS / 1000} seconds of its replacement, while its successor is unused, it answers ` +
-    'that same successor again with a fresh access token (two tabs refreshing at once).',
-  security: [{ [REFRESH_COOKIE_SCHEME]: [] }],
-  responses: {
-    200: SESSION_RESPONSE,
-    401: problemResponse(
-      'No cookie, or a refresh token that is unknown, expired, revoked or reused (`code`: `REFRESH_INVALID`, `REFRESH_REUSED`).',
-    ),
-    403: CROSS_SITE_RESPONSE,
-  },
-});
-
-authRegistry.registerPath({
-  method: 'post',
-  path: '/api/v1/auth/sign-out',
-  tags: ['Accounts'],
-  summary: 'Sign out',
-  description:
-    'Revokes the session of the refresh cookie and clears the cookie (when one was sent). Taken only ' +
-    'from a page of this server: the request must carry an `Origin` of this server or ' +
-    '`Sec-Fetch-Site: same-origin` (browsers send them with every fetch), and no body or a JSON one.',
-  security: [{ [REFRESH_COOKIE_SCHEME]: [] }],
-  responses: {
-    204: { description: 'Signed out.', headers: SET_COOKIE_HEADER },
-    403: problemResponse(
-      'Not sent by a page of this server: no such `Origin` nor `Sec-Fetch-Site` (`code`: `CROSS_SITE_REQUEST`).',
-    ),
-    415: problemResponse('A body that is not JSON.'),
-  },
-});
-
-authRegistry.registerPath({
-  method: 'post',
-  path: '/api/v1/auth/password-reset',
-  tags: ['Accounts'],
-  summary: 'Ask for a password-reset link by e-mail',
-  description:
-    'Answers 202 at once, before the address is looked up, so the answer tells nothing of it. Then, ' +
-    'when an active account has this address, sends it a link to `/reset-password` that works once, ' +
-    'within the hour, and ends every older link; at most one e-mail per address in ' +
-    `${PASSWORD_RESET_MAIL_INTERVAL_MS / 60_000} minutes (later requests are answered alike and send ` +
-    'nothing). Limited per client address ' +
-    `(${defaultLimitInWords('passwordReset')} by default).`,
-  request: jsonBody(PasswordResetRequestSchema, PASSWORD_RESET_EXAMPLE),
-  responses: {
-    202: { description: 'Taken in hand.' },
-    400: INVALID_BODY_RESPONSE,
-    403: CROSS_SITE_RESPONSE,
-    429: clientThrottledResponse('requests for a reset e-mail'),
-  },
-});
-
-authRegistry.registerPath({
-  method: 'post',
-  path: '/api/v1/auth/password-reset/confirm',
-  tags: ['Accounts'],
-  summary: 'Choose a new password with a reset link',
-  description:
-    'Sets the password, spends the link with every other open link of the person, and ends every ' +
-    'session of the person. Passwords follow NIST SP 800-63B: 15 to 128 characters of any kind, not ' +
-    'one of the most common ones. Limited per client address ' +
-    `(${defaultLimitInWords('passwordResetConfirm')} by default).`,
-  request: jsonBody(PasswordResetConfirmSchema, PASSWORD_RESET_CONFIRM_EXAMPLE),
-  responses: {
-    204: { description: 'The password is changed; sign in with it.' },
-    400: problemResponse(
-      'The password breaks a rule (`code`: `WEAK_PASSWORD`, `errors` on `password`), or the link is not valid, expired or spent (`code`: `LINK_INVALID`, `errors` on `token`).',
-    ),
-    403: CROSS_SITE_RESPONSE,
-    429: problemResponse(
-      `Too many new passwords from this client address (\`code\`: \`CLIENT_THROTTLED\`), or ${PASSWORD_CHECKS_BUSY}.`,
-      RETRY_AFTER_HEADER,
-    ),
-  },
-});
-
-authRegistry.registerPath({
-  method: 'get',
-  path: '/api/v1/me',
-  tags: ['Accounts'],
-  summary: 'The signed-in person and what their role allows',
-  security: ACCESS_TOKEN_SECURITY,
-  responses: {
-    200: jsonResponse('The person and their permissions.', MeSchema, ME_EXAMPLE),
-    401: SIGNED_IN_RESPONSES[401],
-  },
-});
-
 /** What the session routes are built with besides the service. */
 export interface AuthRouterOptions {
   /** The per-client limits; the defaults of `DEFAULT_CLIENT_LIMITS` for those left out. */
@@ -226,77 +95,187 @@ export interface AuthRouterOptions {
 }
 
 /**
+ * Who may call a session route: anyone (`public`: the password or the reset link is the credential),
+ * the holder of the refresh cookie (`refresh`), or a signed-in person of any role (`signedIn`). The
+ * rules are the feature's own: sign-in is what gives a role, so no permission of the app's table applies.
+ */
+type AuthAccess = 'public' | 'refresh' | 'signedIn';
+
+/**
  * The session routes (`/auth/…`) and `/me`, mounted on `/api/v1`. They need no role: signing in is
  * how one gets one, and `/me` answers any signed-in person about themselves. Every `/auth` POST refuses
  * what a page of another site sends; sign-out takes only what a page of this server sends.
  */
-export function authRouter(auth: AuthService, options: AuthRouterOptions = {}): Router {
-  const router = Router();
+export function authRoutes(auth: AuthService, options: AuthRouterOptions = {}): FeatureRoutes {
   const secure = auth.settings.secureCookie;
   const notCrossSite = refuseCrossSite(auth.settings.publicUrl);
   const limits = options.clientLimits;
-
-  router.post(
-    '/auth/sign-in',
-    notCrossSite,
-    clientLimiter('signIn', limits),
-    ...accountsJson,
-    validateBody(SignInRequestSchema),
-    async (_req, res) => {
-      const { email, password } = res.locals.body as z.output<typeof SignInRequestSchema>;
-      sendSession(res, await auth.signIn(email, password), secure);
+  const access: Record<AuthAccess, AccessRule> = {
+    public: { guard: [] },
+    refresh: { guard: [], security: [{ [REFRESH_COOKIE_SCHEME]: [] }] },
+    signedIn: {
+      guard: [requireUser(auth)],
+      security: ACCESS_TOKEN_SECURITY,
+      responses: { 401: SIGNED_IN_RESPONSES[401] },
     },
-  );
+  };
+  const table = new RouteTable({ basePath: '/api/v1', tag: 'Accounts', access });
 
-  router.post('/auth/refresh', notCrossSite, async (req, res) => {
-    try {
-      sendSession(res, await auth.refresh(cookieOf(req.headers, REFRESH_COOKIE)), secure);
-    } catch (error) {
-      clearRefreshCookie(res, secure);
-      throw error;
-    }
-  });
+  table
+    .add<undefined, undefined, typeof SignInRequestSchema, typeof SessionSchema>({
+      method: 'post',
+      path: '/auth/sign-in',
+      summary: 'Sign in with an e-mail address and a password',
+      description:
+        'Answers a short-lived access token (10 minutes) and sets the refresh cookie. After 5 failed ' +
+        'attempts in a row with one address, each further attempt must wait (1, 2, 4, 8, 16 s: 429 with ' +
+        '`Retry-After`); after 10, the address is locked for 15 minutes. Each attempt counts as a failure ' +
+        'until its password proves right, so attempts sent at once are all counted. Known and unknown ' +
+        'addresses are answered alike. Failed attempts are also limited per client address ' +
+        `(${defaultLimitInWords('signIn')} by default).`,
+      access: 'public',
+      before: [notCrossSite, clientLimiter('signIn', limits)],
+      body: SignInRequestSchema,
+      bodyExample: SIGN_IN_EXAMPLE,
+      answer: SESSION_ANSWER,
+      problems: {
+        401: 'The address or the password is not right (`code`: `INVALID_CREDENTIALS`).',
+        403:
+          'The account is deactivated (`code`: `ACCOUNT_DEACTIVATED`), or the request came from a page of ' +
+          'another site (`CROSS_SITE_REQUEST`).',
+        429: problemResponse(
+          'Too many failures with this address (`code`: `SIGN_IN_THROTTLED`, `SIGN_IN_LOCKED`), too many ' +
+            `failed sign-ins from this client address (\`CLIENT_THROTTLED\`), or ${PASSWORD_CHECKS_BUSY}.`,
+          RETRY_AFTER_HEADER,
+        ),
+      },
+      handle: async ({ body, res }) => {
+        sendSession(res, await auth.signIn(body.email, body.password), secure);
+        return undefined;
+      },
+    })
+    .add<undefined, undefined, undefined, typeof SessionSchema>({
+      method: 'post',
+      path: '/auth/refresh',
+      summary: 'Renew the access token with the refresh cookie',
+      description:
+        'Replaces the refresh cookie with a new one and answers a new access token. A refresh token works ' +
+        'once: presenting one that was already replaced ends every session that descends from the same ' +
+        'sign-in (`code`: `REFRESH_REUSED`). Within ' +
+        `${REFRESH_GRACE_MS / 1000} seconds of its replacement, while its successor is unused, it answers ` +
+        'that same successor again with a fresh access token (two tabs refreshing at once).',
+      access: 'refresh',
+      before: [notCrossSite],
+      answer: SESSION_ANSWER,
+      problems: {
+        401: 'No cookie, or a refresh token that is unknown, expired, revoked or reused (`code`: `REFRESH_INVALID`, `REFRESH_REUSED`).',
+        403: CROSS_SITE_RESPONSE,
+      },
+      handle: async ({ req, res }) => {
+        try {
+          sendSession(res, await auth.refresh(cookieOf(req.headers, REFRESH_COOKIE)), secure);
+        } catch (error) {
+          clearRefreshCookie(res, secure);
+          throw error;
+        }
+        return undefined;
+      },
+    })
+    .add({
+      method: 'post',
+      path: '/auth/sign-out',
+      summary: 'Sign out',
+      description:
+        'Revokes the session of the refresh cookie and clears the cookie (when one was sent). Taken only ' +
+        'from a page of this server: the request must carry an `Origin` of this server or ' +
+        '`Sec-Fetch-Site: same-origin` (browsers send them with every fetch), and no body or a JSON one.',
+      access: 'refresh',
+      before: [requireSameOrigin(auth.settings.publicUrl)],
+      answer: { status: 204, description: 'Signed out.', headers: SET_COOKIE_HEADER },
+      problems: {
+        403: 'Not sent by a page of this server: no such `Origin` nor `Sec-Fetch-Site` (`code`: `CROSS_SITE_REQUEST`).',
+        415: 'A body that is not JSON.',
+      },
+      handle: ({ req, res }) => {
+        const token = cookieOf(req.headers, REFRESH_COOKIE);
+        if (token !== undefined) {
+          auth.signOut(token);
+          clearRefreshCookie(res, secure);
+        }
+        return undefined;
+      },
+    })
+    .add<undefined, undefined, typeof PasswordResetRequestSchema>({
+      method: 'post',
+      path: '/auth/password-reset',
+      summary: 'Ask for a password-reset link by e-mail',
+      description:
+        'Answers 202 at once, before the address is looked up, so the answer tells nothing of it. Then, ' +
+        'when an active account has this address, sends it a link to `/reset-password` that works once, ' +
+        'within the hour, and ends every older link; at most one e-mail per address in ' +
+        `${PASSWORD_RESET_MAIL_INTERVAL_MS / 60_000} minutes (later requests are answered alike and send ` +
+        'nothing). Limited per client address ' +
+        `(${defaultLimitInWords('passwordReset')} by default).`,
+      access: 'public',
+      before: [notCrossSite, clientLimiter('passwordReset', limits)],
+      body: PasswordResetRequestSchema,
+      bodyExample: PASSWORD_RESET_EXAMPLE,
+      answer: { status: 202, description: 'Taken in hand.' },
+      problems: {
+        403: CROSS_SITE_RESPONSE,
+        429: clientThrottledResponse('requests for a reset e-mail'),
+      },
+      handle: ({ body }) => {
+        auth.requestPasswordReset(body.email);
+        return undefined;
+      },
+    })
+    .add<undefined, undefined, typeof PasswordResetConfirmSchema>({
+      method: 'post',
+      path: '/auth/password-reset/confirm',
+      summary: 'Choose a new password with a reset link',
+      description:
+        'Sets the password, spends the link with every other open link of the person, and ends every ' +
+        'session of the person. Passwords follow NIST SP 800-63B: 15 to 128 characters of any kind, not ' +
+        'one of the most common ones. Limited per client address ' +
+        `(${defaultLimitInWords('passwordResetConfirm')} by default).`,
+      access: 'public',
+      before: [notCrossSite, clientLimiter('passwordResetConfirm', limits)],
+      body: PasswordResetConfirmSchema,
+      bodyExample: PASSWORD_RESET_CONFIRM_EXAMPLE,
+      answer: { status: 204, description: 'The password is changed; sign in with it.' },
+      problems: {
+        400: 'The password breaks a rule (`code`: `WEAK_PASSWORD`, `errors` on `password`), or the link is not valid, expired or spent (`code`: `LINK_INVALID`, `errors` on `token`).',
+        403: CROSS_SITE_RESPONSE,
+        429: problemResponse(
+          `Too many new passwords from this client address (\`code\`: \`CLIENT_THROTTLED\`), or ${PASSWORD_CHECKS_BUSY}.`,
+          RETRY_AFTER_HEADER,
+        ),
+      },
+      handle: async ({ body }) => {
+        await auth.confirmPasswordReset(body.token, body.password);
+        return undefined;
+      },
+    })
+    .add<undefined, undefined, undefined, typeof MeSchema>({
+      method: 'get',
+      path: '/me',
+      summary: 'The signed-in person and what their role allows',
+      access: 'signedIn',
+      answer: {
+        status: 200,
+        description: 'The person and their permissions.',
+        schema: MeSchema,
+        example: ME_EXAMPLE,
+      },
+      handle: ({ res }) => {
+        const user = res.locals.user;
+        if (user === undefined) throw new Error('/me runs behind requireUser.');
+        res.set('Cache-Control', 'no-store');
+        return { user: toUser(user), permissions: permissionsOf(user) };
+      },
+    });
 
-  router.post('/auth/sign-out', requireSameOrigin(auth.settings.publicUrl), (req, res) => {
-    const token = cookieOf(req.headers, REFRESH_COOKIE);
-    if (token !== undefined) {
-      auth.signOut(token);
-      clearRefreshCookie(res, secure);
-    }
-    res.status(204).end();
-  });
-
-  router.post(
-    '/auth/password-reset',
-    notCrossSite,
-    clientLimiter('passwordReset', limits),
-    ...accountsJson,
-    validateBody(PasswordResetRequestSchema),
-    (_req, res) => {
-      const { email } = res.locals.body as z.output<typeof PasswordResetRequestSchema>;
-      auth.requestPasswordReset(email);
-      res.status(202).end();
-    },
-  );
-
-  router.post(
-    '/auth/password-reset/confirm',
-    notCrossSite,
-    clientLimiter('passwordResetConfirm', limits),
-    ...accountsJson,
-    validateBody(PasswordResetConfirmSchema),
-    async (_req, res) => {
-      const { token, password } = res.locals.body as z.output<typeof PasswordResetConfirmSchema>;
-      await auth.confirmPasswordReset(token, password);
-      res.status(204).end();
-    },
-  );
-
-  router.get('/me', requireUser(auth), (_req, res) => {
-    const user = res.locals.user!;
-    res.set('Cache-Control', 'no-store').json({ user: toUser(user), permissions: permissionsOf(user) });
-  });
-
-  router.use(retryAfterHeader);
-  return router;
+  table.router.use(retryAfterHeader);
+  return table;
 }

@@ -1,9 +1,9 @@
 import { CALC_ROUTE_NAMES, CALC_ROUTES } from '@counterpoise/api';
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { createApp, OPENAPI_REGISTRIES } from '../app';
+import { createApp } from '../app';
+import type { OpenApiDocument } from '../openapi/openapi';
 import { createTestKey, revokeTestKey } from '../keys/testing/test-keys';
-import { buildOpenApiDocument } from '../openapi/openapi';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
 import { UsageLog } from '../usage/usage-log';
 
@@ -111,7 +111,10 @@ describe('the calculator behind API keys', () => {
 });
 
 describe('the OpenAPI document of the calculator', () => {
-  const document = buildOpenApiDocument(OPENAPI_REGISTRIES, '0.0.0');
+  let document: OpenApiDocument;
+  beforeEach(() => {
+    document = createApp({ database: temporary.database }).locals.openApiDocument!;
+  });
 
   it('documents every calculator route and the batch, keyed, with an example request and answer', () => {
     for (const name of [...CALC_ROUTE_NAMES, 'batch']) {

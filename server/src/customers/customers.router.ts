@@ -1,4 +1,3 @@
-import { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import {
   changedMeanwhileProblemSchema,
   CreateCustomerSchema,
@@ -7,14 +6,8 @@ import {
   CustomerSchema,
   UpdateCustomerSchema,
 } from '@counterpoise/api';
-import type { Router } from 'express';
-import { type AccessRule, RouteTable } from '../http/route';
-import {
-  addRecordRoutes,
-  type RecordAccess,
-  RECORDS_BASE_PATH,
-  registryToDocumentIn,
-} from '../records/record-routes';
+import { type AccessRule, type FeatureRoutes, RouteTable } from '../http/route';
+import { addRecordRoutes, type RecordAccess, RECORDS_BASE_PATH } from '../records/record-routes';
 import {
   CREATE_CUSTOMER_EXAMPLE,
   CUSTOMER_EXAMPLE,
@@ -23,9 +16,6 @@ import {
   UPDATE_CUSTOMER_EXAMPLE,
 } from './customers.examples';
 import type { CustomersService } from './customers.service';
-
-/** The OpenAPI registry of the customer routes. */
-export const customersRegistry = new OpenAPIRegistry();
 
 /** The 412 answer of a change to a customer: the problem and the customer as stored. */
 const CustomerChangedMeanwhileSchema = changedMeanwhileProblemSchema(
@@ -37,10 +27,9 @@ const CustomerChangedMeanwhileSchema = changedMeanwhileProblemSchema(
 export function customersRouter(deps: {
   access: Readonly<Record<RecordAccess, AccessRule>>;
   customers: CustomersService;
-}): Router {
+}): FeatureRoutes {
   const table = new RouteTable({
     basePath: RECORDS_BASE_PATH,
-    registry: registryToDocumentIn(customersRegistry),
     tag: 'Customers',
     access: deps.access,
   });
@@ -66,5 +55,5 @@ export function customersRouter(deps: {
     searches: 'customers by name, e-mail address, phone number, site address or a contact’s name',
     service: deps.customers,
   });
-  return table.router;
+  return table;
 }

@@ -139,6 +139,89 @@ describe('RouteTable', () => {
     ]);
   });
 
+  it('validates and documents the request headers a route declares', async () => {
+    const table = new RouteTable({ basePath: '/api/v1', tag: 'Things', access: { open: { guard: [] } } });
+    const Headers = z.object({
+      'if-match': z
+        .string()
+        .regex(/^"\d+"$/, { error: 'Send a quoted version.' })
+        .optional(),
+    });
+    table.add<undefined, undefined, undefined, typeof Answer, typeof Headers>({
+      method: 'post',
+      path: '/things/{id}/archive',
+      summary: 'Archive a thing',
+      access: 'open',
+      headers: Headers,
+      answer: { status: 200, description: 'Archived.', schema: Answer },
+      handle: ({ headers }) => ({ id: 1, name: headers['if-match'] ?? 'none' }),
+    });
+    const app = express();
+    app.use('/api/v1', table.router);
+    app.use(problemHandler(() => undefined));
+    const sent = await request(app).post('/api/v1/things/1/archive').set('If-Match', '"3"').expect(200);
+    expect(sent.body).toEqual({ id: 1, name: '"3"' });
+    await request(app).post('/api/v1/things/1/archive').expect(200, { id: 1, name: 'none' });
+    const wrong = await request(app).post('/api/v1/things/1/archive').set('If-Match', 'W/3').expect(400);
+    expect(wrong.body.errors).toEqual([{ path: 'if-match', message: 'Send a quoted version.' }]);
+    const document = buildOpenApiDocument([table.registry], '0.0.0');
+    const operation = (
+      document.paths?.['/api/v1/things/{id}/archive'] as Record<string, Record<string, unknown>>
+    )['post']!;
+    expect(operation['parameters']).toContainEqual(
+      expect.objectContaining({ name: 'if-match', in: 'header', required: false }),
+    );
+    expect(Object.keys(operation['responses'] as object).sort()).toEqual(['200', '400']);
+  });
+
+  it('leaves the answer to a handler that writes it itself, and fails one that answers nothing', async () => {
+    const table = new RouteTable({ basePath: '/api/v1', tag: 'Things', access: { open: { guard: [] } } });
+    table
+      .add<undefined, undefined, undefined, typeof Answer>({
+        method: 'post',
+        path: '/sessions',
+        summary: 'Open a session',
+        access: 'open',
+        answer: { status: 200, description: 'Opened.', schema: Answer },
+        handle: ({ res }) => {
+          res.cookie('session', 'abc', { httpOnly: true }).status(201).json({ id: 7, name: 'Session' });
+          return undefined;
+        },
+      })
+      .add<undefined, undefined, undefined, typeof Answer>({
+        method: 'get',
+        path: '/sessions',
+        summary: 'Forget to answer',
+        access: 'open',
+        answer: { status: 200, description: 'The sessions.', schema: Answer },
+        handle: () => undefined,
+      });
+    const app = express();
+    app.use('/api/v1', table.router);
+    app.use(problemHandler(() => undefined));
+    const written = await request(app).post('/api/v1/sessions').expect(201);
+    expect(written.headers['set-cookie']?.[0]).toMatch(/^session=abc; .*HttpOnly/);
+    expect(written.body).toEqual({ id: 7, name: 'Session' });
+    const forgotten = await request(app).get('/api/v1/sessions').expect(500);
+    expect(forgotten.headers['content-type']).toContain('application/problem+json');
+  });
+
+  it('documents in a registry of its own unless given one', () => {
+    const table = new RouteTable({ basePath: '/api/v1', tag: 'Things', access: { open: { guard: [] } } });
+    const other = new RouteTable({ basePath: '/api/v1', tag: 'Things', access: { open: { guard: [] } } });
+    table.add({
+      method: 'delete',
+      path: '/things/{id}',
+      summary: 'Forget a thing',
+      access: 'open',
+      params: IdParamSchema,
+      answer: { status: 204, description: 'Forgotten.' },
+      handle: () => undefined,
+    });
+    expect(table.registry.definitions).toHaveLength(1);
+    expect(other.registry.definitions).toHaveLength(0);
+  });
+
   it('writes OpenAPI path parameters the way Express reads them', () => {
     expect(toExpressPath('/customers/{id}/contacts/{contactId}')).toBe('/customers/:id/contacts/:contactId');
   });

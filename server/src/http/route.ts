@@ -1,10 +1,10 @@
-import type { OpenAPIRegistry, ResponseConfig, RouteConfig } from '@asteasolutions/zod-to-openapi';
+import { OpenAPIRegistry, type ResponseConfig, type RouteConfig } from '@asteasolutions/zod-to-openapi';
 import express, { type Request, type RequestHandler, type Response, Router } from 'express';
 import type * as z from 'zod';
 import { problemResponse } from '../openapi/responses';
 import { validateParams } from './params';
 import { requireJsonBody } from './problem';
-import { validateBody, validateQuery } from './validate';
+import { validateBody, validateHeaders, validateQuery } from './validate';
 
 /** The HTTP methods a route may take. */
 export type RouteMethod = 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -37,10 +37,12 @@ export interface RouteAnswer<S extends z.ZodType | undefined> {
 }
 
 /** What a handler receives: the parsed, typed parts of the request and the signed-in person, if any. */
-export interface RouteInput<P, Q, B> {
+export interface RouteInput<P, Q, B, H = undefined> {
   readonly params: P;
   readonly query: Q;
   readonly body: B;
+  /** The request headers the route declares, parsed. */
+  readonly headers: H;
   readonly req: Request;
   readonly res: Response;
 }
@@ -59,6 +61,7 @@ export interface RouteDeclaration<
   Q extends z.ZodType | undefined,
   B extends z.ZodType | undefined,
   R extends z.ZodType | undefined,
+  H extends z.ZodType | undefined = undefined,
 > {
   readonly method: RouteMethod;
   /** The path below the table's base, OpenAPI style: `/customers/{id}`. */
@@ -69,6 +72,11 @@ export interface RouteDeclaration<
   readonly access: A;
   readonly params?: P;
   readonly query?: Q;
+  /**
+   * The request headers the route reads (`If-Match`): a zod object of lower-case header names, checked
+   * before `before` runs and documented as header parameters.
+   */
+  readonly headers?: H;
   readonly body?: B;
   /** An example of the body that the body schema accepts. */
   readonly bodyExample?: B extends z.ZodType ? z.input<B> : never;
@@ -81,10 +89,13 @@ export interface RouteDeclaration<
   readonly before?: readonly RequestHandler[];
   /**
    * Answers the request. What it returns is sent with the answer's status as JSON (or an empty body
-   * for 202 and 204); a handler that wrote the answer itself (a cookie, a stream) returns nothing and
-   * leaves `res.headersSent` true.
+   * for 202 and 204); a handler that wrote the answer itself (a session with its cookie) returns
+   * nothing and leaves `res.headersSent` true. One that does neither for a route with a body is a bug,
+   * and fails the request with a 500 rather than send an empty 200.
    */
-  readonly handle: (input: RouteInput<Out<P>, Out<Q>, Out<B>>) => AnswerOf<R> | Promise<AnswerOf<R>>;
+  readonly handle: (
+    input: RouteInput<Out<P>, Out<Q>, Out<B>, Out<H>>,
+  ) => AnswerOf<R> | undefined | Promise<AnswerOf<R> | undefined>;
 }
 
 /** The 400 of every route that takes input. */
@@ -98,24 +109,40 @@ export function toExpressPath(openApiPath: string): string {
 }
 
 /**
+ * What a feature's router factory hands the app: the router to mount and the registry of the routes
+ * it declared, which the app merges into its own OpenAPI document.
+ */
+export interface FeatureRoutes {
+  readonly router: Router;
+  readonly registry: OpenAPIRegistry;
+}
+
+/**
  * The routes of one feature: each is declared once with `add`, which mounts it on `router` and
  * registers it in `registry` under `basePath`. The access rules are given by the app, so that a
- * feature names who may call a route without constructing any other feature's objects.
+ * feature names who may call a route without constructing any other feature's objects. Each table
+ * documents in a registry of its own (unless given one), so that every app's document holds the routes
+ * that app built, once.
  */
-export class RouteTable<A extends string> {
+export class RouteTable<A extends string> implements FeatureRoutes {
   /** The Express router to mount at `basePath`. */
   readonly router = Router();
+  /** The OpenAPI registry the table's routes are documented in. */
+  readonly registry: OpenAPIRegistry;
 
   constructor(
     private readonly options: {
       /** Where the router is mounted, as the OpenAPI document writes it (`/api/v1`). */
       readonly basePath: string;
-      readonly registry: OpenAPIRegistry;
+      /** Where to document the routes; a new registry of the table's own when absent. */
+      readonly registry?: OpenAPIRegistry;
       /** The OpenAPI tag of every route of the table. */
       readonly tag: string;
       readonly access: Readonly<Record<A, AccessRule>>;
     },
-  ) {}
+  ) {
+    this.registry = options.registry ?? new OpenAPIRegistry();
+  }
 
   /** Declares one route: mounts it and documents it. */
   add<
@@ -123,13 +150,15 @@ export class RouteTable<A extends string> {
     Q extends z.ZodType | undefined = undefined,
     B extends z.ZodType | undefined = undefined,
     R extends z.ZodType | undefined = undefined,
-  >(route: RouteDeclaration<A, P, Q, B, R>): this {
+    H extends z.ZodType | undefined = undefined,
+  >(route: RouteDeclaration<A, P, Q, B, R, H>): this {
     const access = this.options.access[route.access];
     this.register(route, access);
     const handlers: RequestHandler[] = [
       ...access.guard,
       ...(route.params ? [validateParams(route.params)] : []),
       ...(route.query ? [validateQuery(route.query)] : []),
+      ...(route.headers ? [validateHeaders(route.headers)] : []),
       ...(route.before ?? []),
       ...(route.body
         ? [
@@ -143,12 +172,14 @@ export class RouteTable<A extends string> {
           params: res.locals.params as Out<P>,
           query: res.locals.query as Out<Q>,
           body: res.locals.body as Out<B>,
+          headers: res.locals.headers as Out<H>,
           req,
           res,
         });
         if (res.headersSent) return;
         res.status(route.answer.status);
         if (route.answer.schema === undefined) res.end();
+        else if (answer === undefined) throw new Error(`${route.method} ${route.path} answered nothing.`);
         else res.json(answer);
       },
     ];
@@ -159,6 +190,7 @@ export class RouteTable<A extends string> {
   private register(
     route: RouteDeclaration<
       A,
+      z.ZodType | undefined,
       z.ZodType | undefined,
       z.ZodType | undefined,
       z.ZodType | undefined,
@@ -184,12 +216,12 @@ export class RouteTable<A extends string> {
       },
       ...access.responses,
     };
-    if (route.params || route.query || route.body) responses[400] = INVALID_INPUT;
+    if (route.params || route.query || route.headers || route.body) responses[400] = INVALID_INPUT;
     for (const [status, problem] of Object.entries(route.problems ?? {})) {
       responses[Number(status)] = typeof problem === 'string' ? problemResponse(problem) : problem;
     }
     const description = [access.describe, route.description].filter(Boolean).join(' ');
-    this.options.registry.registerPath({
+    this.registry.registerPath({
       method: route.method,
       path: `${this.options.basePath}${route.path}`,
       tags: [this.options.tag],
@@ -199,6 +231,7 @@ export class RouteTable<A extends string> {
       request: {
         ...(route.params ? { params: route.params as RouteParameter } : {}),
         ...(route.query ? { query: route.query as RouteParameter } : {}),
+        ...(route.headers ? { headers: route.headers as RouteParameter } : {}),
         ...(route.body
           ? {
               body: {

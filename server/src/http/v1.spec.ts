@@ -3,6 +3,8 @@ import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { createApp } from '../app';
 import type { Clock } from '../clock';
+import { ApiKeysRepo } from '../keys/keys.repo';
+import { ApiKeyService } from '../keys/keys.service';
 import { createTestKey } from '../keys/testing/test-keys';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
 import { UsageLog } from '../usage/usage-log';
@@ -86,7 +88,7 @@ describe('routes mounted on the keyed chain', () => {
   /** An app like createApp's, with stand-ins for the calculator's routes on the chain. */
   function appWithRoutes(sink: UsageSink) {
     const v1 = keyedV1Router({
-      database: temporary.database,
+      keys: new ApiKeyService(new ApiKeysRepo(temporary.database.orm)),
       clock,
       usage: sink,
       corsOrigins: [],

@@ -2,26 +2,24 @@ import cors from 'cors';
 import { type RequestHandler, Router } from 'express';
 import { API_KEY_HEADER } from '@counterpoise/api';
 import type { Clock } from '../clock';
-import type { Database } from '../db/database';
 import { type AccessTokenCheck, requireApiKey } from '../keys/api-key.middleware';
 import { apiKeyRateLimit } from '../keys/api-key.rate-limit';
-import { ApiKeysRepo } from '../keys/keys.repo';
-import { ApiKeyService } from '../keys/keys.service';
-import { UsageRepo } from '../usage/usage.repo';
+import type { ApiKeyService } from '../keys/keys.service';
 import { recordUsage } from '../usage/usage.recorder';
-import { usageRouter } from '../usage/usage.router';
 import type { UsageSink } from './keyed-request';
 
 /** What the keyed `/api/v1` chain is built from. */
 export interface KeyedV1Deps {
-  readonly database: Database;
   readonly clock: Clock;
   /** Where each keyed request's row goes; the calculator routes log batch items to the same sink. */
   readonly usage: UsageSink;
   /** Web origins whose pages may call the API; none means no cross-origin access. */
   readonly corsOrigins: readonly string[];
-  /** The key service to share with the workbench's key routes, so that a revocation there counts at once. */
-  readonly keys?: ApiKeyService;
+  /**
+   * The key service, built by the app and shared with the workbench's key routes, so that a revocation
+   * there counts at once.
+   */
+  readonly keys: ApiKeyService;
   /** Accepts signed-in people's access tokens beside API keys. */
   readonly tokens?: AccessTokenCheck;
   /** Calculations per minute of a signed-in person on these routes (a batch of n counts n). */
@@ -66,10 +64,9 @@ function corsFor(origins: readonly string[]): RequestHandler {
  * requests without a valid key have no key to log against and are not recorded.
  */
 export function keyedMiddleware(deps: KeyedV1Deps): RequestHandler[] {
-  const keys = deps.keys ?? new ApiKeyService(new ApiKeysRepo(deps.database.orm));
   return [
     ...(deps.corsOrigins.length > 0 ? [corsFor(deps.corsOrigins)] : []),
-    requireApiKey(keys, deps.tokens),
+    requireApiKey(deps.keys, deps.tokens),
     recordUsage(deps.usage, deps.clock, deps.documentedPaths),
     apiKeyRateLimit(
       deps.userLimitPerMinute === undefined ? {} : { userLimitPerMinute: deps.userLimitPerMinute },
@@ -79,14 +76,15 @@ export function keyedMiddleware(deps: KeyedV1Deps): RequestHandler[] {
 
 /**
  * The `/api/v1` router of the keyed routes that are not the calculator: the keyed middleware (`chain`,
- * or a new one), then the usage report. Routes mounted on the returned router afterwards pass through the
- * same chain and find the key on `res.locals.apiKey`; a path none answers is still a logged request of
- * its key, and falls through to the 404.
+ * or a new one), then `routes` (the usage report, which the app builds). Routes mounted on the returned
+ * router afterwards pass through the same chain and find the key on `res.locals.apiKey`; a path none
+ * answers is still a logged request of its key, and falls through to the 404.
  */
-export function keyedV1Router(deps: KeyedV1Deps & { readonly chain?: RequestHandler[] }): Router {
+export function keyedV1Router(
+  deps: KeyedV1Deps & { readonly chain?: RequestHandler[]; readonly routes?: readonly Router[] },
+): Router {
   const router = Router();
   router.use(deps.chain ?? keyedMiddleware(deps));
-  // Mounted at its path, so that other requests skip it without entering it.
-  router.use('/usage', usageRouter({ repo: new UsageRepo(deps.database.orm), clock: deps.clock }));
+  for (const routes of deps.routes ?? []) router.use(routes);
   return router;
 }

@@ -11,6 +11,8 @@ declare global {
       body?: unknown;
       /** The query string as the route's schema parsed it. */
       query?: unknown;
+      /** The request headers the route declares, as its schema parsed them. */
+      headers?: unknown;
     }
   }
 }
@@ -40,6 +42,22 @@ export function validateQuery(schema: z.ZodType): RequestHandler {
       return;
     }
     res.locals.query = parsed.data;
+    next();
+  };
+}
+
+/**
+ * The same for the request headers a route declares (a zod object of lower-case names, as Node gives
+ * them), kept in `res.locals.headers`. Headers the schema does not name are left alone.
+ */
+export function validateHeaders(schema: z.ZodType): RequestHandler {
+  return (req, res, next) => {
+    const parsed = schema.safeParse(req.headers);
+    if (!parsed.success) {
+      next(HttpProblem.from(invalidRequestProblem(parsed.error)));
+      return;
+    }
+    res.locals.headers = parsed.data;
     next();
   };
 }

@@ -1,4 +1,3 @@
-import { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import {
   changedMeanwhileProblemSchema,
   CreateMachineFamilySchema,
@@ -7,14 +6,8 @@ import {
   MachineFamilySchema,
   UpdateMachineFamilySchema,
 } from '@counterpoise/api';
-import type { Router } from 'express';
-import { type AccessRule, RouteTable } from '../http/route';
-import {
-  addRecordRoutes,
-  type RecordAccess,
-  RECORDS_BASE_PATH,
-  registryToDocumentIn,
-} from '../records/record-routes';
+import { type AccessRule, type FeatureRoutes, RouteTable } from '../http/route';
+import { addRecordRoutes, type RecordAccess, RECORDS_BASE_PATH } from '../records/record-routes';
 import {
   CREATE_MACHINE_FAMILY_EXAMPLE,
   MACHINE_FAMILY_EXAMPLE,
@@ -23,9 +16,6 @@ import {
   UPDATE_MACHINE_FAMILY_EXAMPLE,
 } from './machine-families.examples';
 import type { MachineFamiliesService } from './machine-families.service';
-
-/** The OpenAPI registry of the machine family routes. */
-export const machineFamiliesRegistry = new OpenAPIRegistry();
 
 /** The 412 answer of a change to a family: the problem and the family as stored. */
 const MachineFamilyChangedMeanwhileSchema = changedMeanwhileProblemSchema(
@@ -37,10 +27,9 @@ const MachineFamilyChangedMeanwhileSchema = changedMeanwhileProblemSchema(
 export function machineFamiliesRouter(deps: {
   access: Readonly<Record<RecordAccess, AccessRule>>;
   families: MachineFamiliesService;
-}): Router {
+}): FeatureRoutes {
   const table = new RouteTable({
     basePath: RECORDS_BASE_PATH,
-    registry: registryToDocumentIn(machineFamiliesRegistry),
     tag: 'Machine families',
     access: deps.access,
   });
@@ -70,5 +59,5 @@ export function machineFamiliesRouter(deps: {
       '`planeCount`, `code` `PLANES_DO_NOT_MATCH`).',
     service: deps.families,
   });
-  return table.router;
+  return table;
 }

@@ -1,4 +1,3 @@
-import { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import {
   changedMeanwhileProblemSchema,
   CreateMachineSchema,
@@ -7,14 +6,8 @@ import {
   MachineSchema,
   UpdateMachineSchema,
 } from '@counterpoise/api';
-import type { Router } from 'express';
-import { type AccessRule, RouteTable } from '../http/route';
-import {
-  addRecordRoutes,
-  type RecordAccess,
-  RECORDS_BASE_PATH,
-  registryToDocumentIn,
-} from '../records/record-routes';
+import { type AccessRule, type FeatureRoutes, RouteTable } from '../http/route';
+import { addRecordRoutes, type RecordAccess, RECORDS_BASE_PATH } from '../records/record-routes';
 import {
   CREATE_MACHINE_EXAMPLE,
   MACHINE_EXAMPLE,
@@ -24,9 +17,6 @@ import {
 } from './machines.examples';
 import type { MachinesService } from './machines.service';
 
-/** The OpenAPI registry of the machine routes. */
-export const machinesRegistry = new OpenAPIRegistry();
-
 /** The 412 answer of a change to a machine: the problem and the machine as stored. */
 const MachineChangedMeanwhileSchema = changedMeanwhileProblemSchema(MachineSchema, 'MachineChangedMeanwhile');
 
@@ -34,10 +24,9 @@ const MachineChangedMeanwhileSchema = changedMeanwhileProblemSchema(MachineSchem
 export function machinesRouter(deps: {
   access: Readonly<Record<RecordAccess, AccessRule>>;
   machines: MachinesService;
-}): Router {
+}): FeatureRoutes {
   const table = new RouteTable({
     basePath: RECORDS_BASE_PATH,
-    registry: registryToDocumentIn(machinesRegistry),
     tag: 'Machines',
     access: deps.access,
   });
@@ -68,5 +57,5 @@ export function machinesRouter(deps: {
       'two-plane machine has sensors left and right, a one-plane machine on the left.',
     service: deps.machines,
   });
-  return table.router;
+  return table;
 }

@@ -1,9 +1,8 @@
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { HealthSchema } from '@counterpoise/api';
-import { createApp, OPENAPI_REGISTRIES } from '../app';
+import { createApp } from '../app';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
-import { buildOpenApiDocument } from './openapi';
 
 let temporary: TemporaryDatabase;
 beforeEach(() => (temporary = openTemporaryDatabase()));
@@ -20,7 +19,7 @@ describe('the OpenAPI document', () => {
   });
 
   it('carries schema examples that the schemas themselves accept', () => {
-    const document = buildOpenApiDocument(OPENAPI_REGISTRIES, '0.0.0');
+    const document = createApp({ database: temporary.database }).locals.openApiDocument!;
     const health = document.components?.schemas?.['Health'] as { example?: unknown } | undefined;
     expect(health?.example).toBeDefined();
     expect(HealthSchema.safeParse(health?.example).success).toBe(true);

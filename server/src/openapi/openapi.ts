@@ -5,6 +5,19 @@ import swaggerUi from 'swagger-ui-express';
 /** The OpenAPI 3.1 document built from every feature's registry. */
 export type OpenApiDocument = ReturnType<OpenApiGeneratorV31['generateDocument']>;
 
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    interface Locals {
+      /**
+       * On `app.locals`: the OpenAPI document of the routes this app built, as `/api/openapi.json`
+       * serves it. Tests read the document of the app they built here.
+       */
+      openApiDocument?: OpenApiDocument;
+    }
+  }
+}
+
 /**
  * Merges the registries of every feature (each router registers its paths beside its routes) into one
  * OpenAPI 3.1 document.

@@ -4,15 +4,25 @@
  * organisation, on the reserved `.test` domain.
  */
 
+import type {
+  AcceptInvitationSchema,
+  InvitationPreviewSchema,
+  InvitationSchema,
+  InviteRequestSchema,
+  PeopleSchema,
+  UpdatePersonSchema,
+} from '@counterpoise/api';
+import type * as z from 'zod';
+
 import { ORGANISATION, USER_EXAMPLE } from '../auth/auth.examples';
 
-export const INVITE_EXAMPLE = {
+export const INVITE_EXAMPLE: z.input<typeof InviteRequestSchema> = {
   email: 'new.technician@ridgeline-rotor.test',
   role: 'technician',
   name: 'Ines Halloway',
 };
 
-export const INVITATION_EXAMPLE = {
+export const INVITATION_EXAMPLE: z.input<typeof InvitationSchema> = {
   id: 4,
   email: 'new.technician@ridgeline-rotor.test',
   role: 'technician',
@@ -21,18 +31,21 @@ export const INVITATION_EXAMPLE = {
   acceptedAt: null,
 };
 
-export const INVITATION_PREVIEW_EXAMPLE = {
+export const INVITATION_PREVIEW_EXAMPLE: z.input<typeof InvitationPreviewSchema> = {
   email: 'new.technician@ridgeline-rotor.test',
   role: 'technician',
   organisationName: ORGANISATION.name,
   expiresAt: '2026-05-11T08:00:00.000Z',
 };
 
-export const ACCEPT_INVITATION_EXAMPLE = {
+export const ACCEPT_INVITATION_EXAMPLE: z.input<typeof AcceptInvitationSchema> = {
   name: 'Ines Halloway',
   password: 'three herons over the weir',
 };
 
-export const PEOPLE_EXAMPLE = { people: [USER_EXAMPLE], invitations: [INVITATION_EXAMPLE] };
+export const PEOPLE_EXAMPLE: z.input<typeof PeopleSchema> = {
+  people: [USER_EXAMPLE],
+  invitations: [INVITATION_EXAMPLE],
+};
 
-export const UPDATE_PERSON_EXAMPLE = { status: 'deactivated' };
+export const UPDATE_PERSON_EXAMPLE: z.input<typeof UpdatePersonSchema> = { status: 'deactivated' };

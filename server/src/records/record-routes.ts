@@ -1,7 +1,7 @@
-import { OpenAPIRegistry, type ResponseConfig } from '@asteasolutions/zod-to-openapi';
+import type { ResponseConfig } from '@asteasolutions/zod-to-openapi';
 import { PROBLEM_MEDIA_TYPE, type RecordHistory, RecordHistorySchema } from '@counterpoise/api';
 import type { Response } from 'express';
-import type * as z from 'zod';
+import * as z from 'zod';
 import { IdParamSchema } from '../http/params';
 import type { RouteTable } from '../http/route';
 import type { Actor } from './change-log';
@@ -74,6 +74,14 @@ const ETAG_HEADER: ResponseConfig['headers'] = {
     schema: { type: 'string', example: '"3"' },
   },
 };
+
+/** The `If-Match` of a change, documented as a header parameter; `requireIfMatch` reads and checks it. */
+const IF_MATCH_HEADERS = z.object({
+  'if-match': z
+    .string()
+    .optional()
+    .meta({ description: 'The ETag of the version the change is made on (`"3"`).', example: '"3"' }),
+});
 
 const IF_MATCH_RULE =
   'Send the record’s ETag in `If-Match` (`If-Match: "3"`): without it the answer is 428; when the record ' +
@@ -177,7 +185,7 @@ export function addRecordRoutes<
       problems: { 404: notFound },
       handle: ({ params, res }) => withEtag(res, service.get(actorOf(res), params.id)),
     })
-    .add<typeof IdParamSchema, undefined, z.ZodType<Update>, z.ZodType>({
+    .add<typeof IdParamSchema, undefined, z.ZodType<Update>, z.ZodType, typeof IF_MATCH_HEADERS>({
       method: 'patch',
       path: one,
       summary: `Change a ${noun}`,
@@ -186,6 +194,7 @@ export function addRecordRoutes<
         `a field that may be empty. ${IF_MATCH_RULE} A change that changes nothing keeps the version.${rules}`,
       access: 'write',
       params: IdParamSchema,
+      headers: IF_MATCH_HEADERS,
       before: [requireIfMatch],
       body: schemas.update,
       bodyExample: examples.update,
@@ -201,13 +210,14 @@ export function addRecordRoutes<
       handle: ({ params, body, res }) =>
         withEtag(res, service.update(actorOf(res), params.id, ifMatchVersions(res.locals), body)),
     })
-    .add<typeof IdParamSchema, undefined, undefined, z.ZodType>({
+    .add<typeof IdParamSchema, undefined, undefined, z.ZodType, typeof IF_MATCH_HEADERS>({
       method: 'post',
       path: `${one}/archive`,
       summary: `Archive a ${noun}`,
       description: `Takes the ${noun} out of the lists in use; nothing is deleted, and it can be restored. ${IF_MATCH_RULE}`,
       access: 'archive',
       params: IdParamSchema,
+      headers: IF_MATCH_HEADERS,
       before: [requireIfMatch],
       answer: {
         status: 200,
@@ -220,13 +230,14 @@ export function addRecordRoutes<
       handle: ({ params, res }) =>
         withEtag(res, service.archive(actorOf(res), params.id, ifMatchVersions(res.locals))),
     })
-    .add<typeof IdParamSchema, undefined, undefined, z.ZodType>({
+    .add<typeof IdParamSchema, undefined, undefined, z.ZodType, typeof IF_MATCH_HEADERS>({
       method: 'post',
       path: `${one}/restore`,
       summary: `Restore an archived ${noun}`,
       description: `Puts the ${noun} back in use. ${IF_MATCH_RULE}`,
       access: 'archive',
       params: IdParamSchema,
+      headers: IF_MATCH_HEADERS,
       before: [requireIfMatch],
       answer: {
         status: 200,
@@ -258,16 +269,4 @@ export function addRecordRoutes<
 
   // The 412 answer carries the stored record, which the app's problem handler would leave out.
   table.router.use(answerChangedMeanwhile);
-}
-
-/**
- * The registry a feature's table documents its routes in: the feature's own the first time an app is
- * built, a throwaway one after. Every app declares the same routes from the same code, so the first
- * declaration documents them all; tests that build many apps then leave one entry per route in the
- * document's registries rather than one per app.
- */
-export function registryToDocumentIn(registry: OpenAPIRegistry): OpenAPIRegistry {
-  return registry.definitions.some((definition) => definition.type === 'route')
-    ? new OpenAPIRegistry()
-    : registry;
 }

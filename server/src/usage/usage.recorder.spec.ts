@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { CALC_ROUTE_NAMES, CALC_ROUTES } from '@counterpoise/api';
-import { createApp, OPENAPI_REGISTRIES } from '../app';
+import { createApp } from '../app';
 import { createTestKey } from '../keys/testing/test-keys';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
 import { UsageLog } from './usage-log';
@@ -66,7 +66,7 @@ describe('the route a usage row names', () => {
 
 describe('documentedPaths', () => {
   it('holds every keyed route of the OpenAPI document, in lower case', () => {
-    const paths = documentedPaths(OPENAPI_REGISTRIES);
+    const paths = documentedPaths(app().locals.openApiDocument!);
     for (const name of [...CALC_ROUTE_NAMES, 'batch']) expect(paths).toContain(`/api/v1/calc/${name}`);
     expect(paths).toContain('/api/v1/usage');
     for (const path of paths) expect(path).toBe(path.toLowerCase());

@@ -1,20 +1,16 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import type { Request, RequestHandler, Response } from 'express';
 import type { Clock } from '../clock';
 import type { UsageSink } from '../http/keyed-request';
 import { normaliseRoutePath, unknownRouteLabel } from '../http/route-path';
+import type { OpenApiDocument } from '../openapi/openapi';
 
 /**
- * The paths of every route the registries document, in the spelling of `normaliseRoutePath`: the
- * routes a usage row may name. Built once, when the app is.
+ * The paths of every route the app's OpenAPI document holds, in the spelling of `normaliseRoutePath`:
+ * the routes a usage row may name. Built once, when the app is.
  */
-export function documentedPaths(registries: readonly OpenAPIRegistry[]): ReadonlySet<string> {
+export function documentedPaths(document: OpenApiDocument): ReadonlySet<string> {
   const paths = new Set<string>();
-  for (const registry of registries) {
-    for (const definition of registry.definitions) {
-      if (definition.type === 'route') paths.add(normaliseRoutePath(definition.route.path));
-    }
-  }
+  for (const path of Object.keys(document.paths ?? {})) paths.add(normaliseRoutePath(path));
   return paths;
 }
 

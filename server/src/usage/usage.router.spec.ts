@@ -1,12 +1,12 @@
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { ProblemSchema, UsageReportSchema } from '@counterpoise/api';
-import { createApp, OPENAPI_REGISTRIES } from '../app';
+import { createApp } from '../app';
+import type { OpenApiDocument } from '../openapi/openapi';
 import type { Clock } from '../clock';
 import { createTestKey } from '../keys/testing/test-keys';
 import { ACCESS_TOKEN_SCHEME, REFRESH_COOKIE_SCHEME } from '../openapi/responses';
 import { API_KEY_BEARER_SCHEME, API_KEY_HEADER_SCHEME } from '../keys/keys.openapi';
-import { buildOpenApiDocument } from '../openapi/openapi';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
 import { UsageLog } from './usage-log';
 
@@ -190,7 +190,10 @@ describe('GET /api/v1/usage', () => {
 });
 
 describe('the OpenAPI document', () => {
-  const document = buildOpenApiDocument(OPENAPI_REGISTRIES, '0.0.0');
+  let document: OpenApiDocument;
+  beforeEach(() => {
+    document = createApp({ database: temporary.database }).locals.openApiDocument!;
+  });
 
   it('documents the usage route with the key’s security schemes and its refusals', () => {
     const operation = document.paths?.['/api/v1/usage']?.get;
