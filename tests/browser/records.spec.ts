@@ -49,7 +49,10 @@ afterAll(async () => {
 async function navigateTo(label: string): Promise<void> {
   const menu = page.getByRole('button', { name: 'Open the navigation' });
   if (await menu.isVisible()) await menu.click();
-  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: label, exact: true }).click();
+  await page
+    .getByRole('navigation', { name: 'Main' })
+    .getByRole('link', { name: label, exact: true })
+    .click();
 }
 
 async function signInAsTechnician(): Promise<void> {
