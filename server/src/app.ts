@@ -11,7 +11,7 @@ import type { ClientLimits } from './auth/client-limits';
 import type { HashGate } from './auth/hash-gate';
 import { type Clock, systemClock } from './clock';
 import type { Database } from './db/database';
-import { healthRegistry, healthRouter } from './health/health.router';
+import { healthRoutes } from './health/health.router';
 import { apiNotFound, problemHandler } from './http/problem';
 import { CALC_BASE_PATH, calcRegistry, calcRouter } from './calc/calc.router';
 import { securityHeaders } from './http/security-headers';
@@ -225,11 +225,13 @@ export function createApp(deps: AppDeps): Express {
     },
   });
 
+  const health = healthRoutes({ database: deps.database, clock, version });
+
   // The document of what this app built, in the order of the reference: built once, before the keyed
   // chain, whose usage recorder labels rows with its paths.
   const openApiDocument = buildOpenApiDocument(
     [
-      healthRegistry,
+      health.registry,
       authRegistry,
       ...accountsFeatures.map((feature) => feature.registry),
       keysRegistry,
@@ -272,7 +274,7 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api/v1', keyedV1Router({ ...keyedDeps, chain: keyed, routes: [usage.router] }));
 
   const api = Router();
-  api.use(healthRouter({ database: deps.database, clock, version }));
+  api.use(health.router);
   api.use(openApiRouter(openApiDocument));
   api.use(apiNotFound);
   app.use('/api', api);

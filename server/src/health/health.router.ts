@@ -1,27 +1,7 @@
-import { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { type Health, HealthSchema } from '@counterpoise/api';
-import { Router } from 'express';
 import type { Clock } from '../clock';
 import { appliedMigrationCount, type Database } from '../db/database';
-
-export const healthRegistry = new OpenAPIRegistry();
-
-healthRegistry.registerPath({
-  method: 'get',
-  path: '/api/health',
-  tags: ['Server'],
-  summary: 'Whether the server and its database work',
-  description:
-    'Answers 200 while the database answers a query, 503 when it does not. Needs no credentials, so ' +
-    'that load balancers and the workbench can ask it.',
-  responses: {
-    200: { description: 'Working.', content: { 'application/json': { schema: HealthSchema } } },
-    503: {
-      description: 'The database does not answer.',
-      content: { 'application/json': { schema: HealthSchema } },
-    },
-  },
-});
+import { type FeatureRoutes, RouteTable } from '../http/route';
 
 /** Reads the state of the database; never throws. */
 export function checkHealth(database: Database, version: string, uptimeSeconds: number): Health {
@@ -47,17 +27,37 @@ export function checkHealth(database: Database, version: string, uptimeSeconds: 
   }
 }
 
-/** `GET /health`. */
-export function healthRouter(deps: { database: Database; clock: Clock; version: string }): Router {
+/**
+ * `GET /health`, mounted on `/api`. It needs no credentials, so that load balancers and the workbench
+ * can ask it; it writes its own answer, since its status (200 or 503) follows the database's state.
+ */
+export function healthRoutes(deps: { database: Database; clock: Clock; version: string }): FeatureRoutes {
   const startedAt = deps.clock.now().getTime();
-  const router = Router();
-  router.get('/health', (_req, res) => {
-    const uptimeSeconds = Math.max(0, (deps.clock.now().getTime() - startedAt) / 1000);
-    const health = checkHealth(deps.database, deps.version, uptimeSeconds);
-    res
-      .status(health.status === 'ok' ? 200 : 503)
-      .set('Cache-Control', 'no-store')
-      .json(health);
+  const table = new RouteTable({ basePath: '/api', tag: 'Server', access: { public: { guard: [] } } });
+  table.add<undefined, undefined, undefined, typeof HealthSchema>({
+    method: 'get',
+    path: '/health',
+    summary: 'Whether the server and its database work',
+    description:
+      'Answers 200 while the database answers a query, 503 when it does not. Needs no credentials, so ' +
+      'that load balancers and the workbench can ask it.',
+    access: 'public',
+    answer: { status: 200, description: 'Working.', schema: HealthSchema },
+    problems: {
+      503: {
+        description: 'The database does not answer.',
+        content: { 'application/json': { schema: HealthSchema } },
+      },
+    },
+    handle: ({ res }) => {
+      const uptimeSeconds = Math.max(0, (deps.clock.now().getTime() - startedAt) / 1000);
+      const health = checkHealth(deps.database, deps.version, uptimeSeconds);
+      res
+        .status(health.status === 'ok' ? 200 : 503)
+        .set('Cache-Control', 'no-store')
+        .json(health);
+      return undefined;
+    },
   });
-  return router;
+  return table;
 }
