@@ -2,29 +2,21 @@ import { BreakpointObserver } from '@angular/cdk/layout';
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, DestroyRef, effect, inject } from '@angular/core';
 import { rxResource, takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
-import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { FormControl } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule, type PageEvent } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSelectModule } from '@angular/material/select';
-import { MatSortModule, type Sort } from '@angular/material/sort';
+import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { map } from 'rxjs';
 import { AuthSession } from '../auth/auth-session';
+import { recordList } from '../records/record-list';
+import { RecordListFilters, RecordListFrame } from '../records/record-list-frame';
 import { type CustomerChoice, CustomerPicker, isCustomerRef } from '../customers/customer-picker';
 import { CustomersApi } from '../customers/customers.api';
 import { MachineFamiliesApi } from '../machine-families/machine-families.api';
-import { apiListQuery, ARCHIVED_NOUNS, listCount, listQuery, PAGE_SIZES } from '../records/list-query';
-import { pagedList } from '../records/paged-list';
-import type { ArchivedFilter } from '../records/records-api';
-import { searchBox } from '../records/search-box';
-import { httpErrorMessage } from '../shell/server-errors';
 import { type Machine, MachinesApi, type MachineSortField } from './machines.api';
 
 /** Below this width the customer and family move under the serial number, so that the table fits a phone. */
@@ -44,17 +36,13 @@ const FAMILIES_OFFERED = 100;
     CustomerPicker,
     DatePipe,
     MatButtonModule,
-    MatButtonToggleModule,
     MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
-    MatPaginatorModule,
-    MatProgressBarModule,
-    MatProgressSpinnerModule,
     MatSelectModule,
     MatSortModule,
     MatTableModule,
-    ReactiveFormsModule,
+    RecordListFilters,
+    RecordListFrame,
     RouterLink,
   ],
   templateUrl: './machines-page.html',
@@ -67,20 +55,14 @@ export class MachinesPage {
   private readonly customersApi = inject(CustomersApi);
   private readonly familiesApi = inject(MachineFamiliesApi);
 
-  protected readonly query = listQuery<MachineSortField>({
+  protected readonly records = recordList<Machine, MachineSortField>({
     sortFields: ['serialNumber', 'customerName', 'make', 'updatedAt'],
     idFilters: ['customerId', 'familyId'],
+    load: (query) => this.api.list(query),
+    nouns: ['machine', 'machines'],
   });
-  protected readonly state = this.query.state;
-  protected readonly list = pagedList(
-    () => apiListQuery(this.state()),
-    (query) => this.api.list(query),
-  );
-  protected readonly search = searchBox(
-    computed(() => this.state().q),
-    (q) => this.query.change({ q }, { replaceUrl: true }),
-  );
-  protected readonly rows = computed<readonly Machine[]>(() => this.list.page()?.items ?? []);
+  protected readonly query = this.records.query;
+  protected readonly state = this.records.state;
 
   /** The customer filter: the customer chosen, or text while finding one. */
   protected readonly customerFilter = new FormControl<CustomerChoice>(null);
@@ -103,13 +85,7 @@ export class MachinesPage {
       ? ['serialNumber', 'makeModel', 'customerName', 'familyName', 'updatedAt']
       : ['serialNumber', 'customerName'],
   );
-  protected readonly pageSizes = PAGE_SIZES;
-  protected readonly httpErrorMessage = httpErrorMessage;
-  protected readonly archivedNoun = computed(() => ARCHIVED_NOUNS[this.state().archived]);
 
-  protected countSentence(total: number): string {
-    return listCount(total, ['machine', 'machines'], this.state());
-  }
   protected readonly filtered = computed(
     () => Object.keys(this.state().filters).length > 0 || this.state().q !== '',
   );
@@ -149,21 +125,6 @@ export class MachinesPage {
     this.query.change({ filters });
   }
 
-  protected sortBy(sort: Sort): void {
-    this.query.change({
-      sort: sort.active as MachineSortField,
-      order: sort.direction === 'desc' ? 'desc' : 'asc',
-    });
-  }
-
-  protected showArchived(archived: ArchivedFilter): void {
-    this.query.change({ archived });
-  }
-
-  protected turnPage(event: PageEvent): void {
-    this.query.change({ page: event.pageIndex + 1, pageSize: event.pageSize });
-  }
-
   // The table's row templates are untyped; this gives their rows a type again.
   protected asMachine(row: Machine): Machine {
     return row;
@@ -172,6 +133,4 @@ export class MachinesPage {
   protected makeModel(machine: Machine): string {
     return [machine.make, machine.model].filter(Boolean).join(' ');
   }
-
-  protected readonly trackById = (_index: number, machine: Machine): number => machine.id;
 }
