@@ -12,15 +12,13 @@ import {
   sortOrder,
 } from '../records/list-query';
 import type { RecordStore } from '../records/versioned-records';
+import { type RecordValues, VersionedTable } from '../records/versioned-table';
 
 /** A customer as stored, with how many machines in use they have. */
 export type CustomerRow = typeof customers.$inferSelect & { readonly machineCount: number };
 
 /** The columns a create or a change writes: the fields and the keys derived from them. */
-export type CustomerValues = Pick<
-  typeof customers.$inferInsert,
-  'name' | 'email' | 'phone' | 'siteAddress' | 'notes' | 'contacts' | 'nameKey' | 'searchText'
->;
+export type CustomerValues = RecordValues<typeof customers>;
 
 /**
  * How many machines in use a customer has. The machines table is read here (never written) so that a
@@ -38,11 +36,12 @@ const SORT_KEYS = {
 } as const;
 
 /** The customers table, always read and written within one organisation. */
-export class CustomersRepo implements RecordStore<CustomerRow, CustomerValues> {
-  constructor(private readonly orm: Orm) {}
-
-  transaction<T>(work: () => T): T {
-    return this.orm.transaction(() => work(), { behavior: 'immediate' });
+export class CustomersRepo
+  extends VersionedTable<typeof customers>
+  implements RecordStore<CustomerRow, CustomerValues>
+{
+  constructor(orm: Orm) {
+    super(orm, customers);
   }
 
   find(organisationId: number, id: number): CustomerRow | undefined {
@@ -51,34 +50,6 @@ export class CustomersRepo implements RecordStore<CustomerRow, CustomerValues> {
       .from(customers)
       .where(and(eq(customers.id, id), eq(customers.organisationId, organisationId)))
       .get();
-  }
-
-  insert(organisationId: number, values: CustomerValues, at: Date): number {
-    return this.orm
-      .insert(customers)
-      .values({ ...values, organisationId, version: 1, createdAt: at, updatedAt: at, archivedAt: null })
-      .returning({ id: customers.id })
-      .get().id;
-  }
-
-  writeAtVersion(
-    organisationId: number,
-    id: number,
-    version: number,
-    values: CustomerValues,
-    at: Date,
-  ): boolean {
-    return this.updateAtVersion(organisationId, id, version, { ...values, updatedAt: at });
-  }
-
-  setArchivedAt(
-    organisationId: number,
-    id: number,
-    version: number,
-    archivedAt: Date | null,
-    at: Date,
-  ): boolean {
-    return this.updateAtVersion(organisationId, id, version, { archivedAt, updatedAt: at });
   }
 
   /** One page of the organisation's customers that match the query, and how many match in all. */
@@ -102,27 +73,5 @@ export class CustomersRepo implements RecordStore<CustomerRow, CustomerValues> {
       .all();
     const total = this.orm.select({ total: countAll }).from(customers).where(where).get()?.total ?? 0;
     return { rows, total };
-  }
-
-  /** Writes `set` and the next version, only where the stored version is still `version`. */
-  private updateAtVersion(
-    organisationId: number,
-    id: number,
-    version: number,
-    set: Partial<typeof customers.$inferInsert>,
-  ): boolean {
-    return (
-      this.orm
-        .update(customers)
-        .set({ ...set, version: sql`${customers.version} + 1` })
-        .where(
-          and(
-            eq(customers.id, id),
-            eq(customers.organisationId, organisationId),
-            eq(customers.version, version),
-          ),
-        )
-        .run().changes === 1
-    );
   }
 }

@@ -12,15 +12,13 @@ import {
   sortOrder,
 } from '../records/list-query';
 import type { RecordStore } from '../records/versioned-records';
+import { type RecordValues, VersionedTable } from '../records/versioned-table';
 
 /** A machine family as stored, with how many machines in use belong to it. */
 export type MachineFamilyRow = typeof machineFamilies.$inferSelect & { readonly machineCount: number };
 
 /** The columns a create or a change writes: the fields and the sort key derived from the name. */
-export type MachineFamilyValues = Omit<
-  typeof machineFamilies.$inferInsert,
-  'id' | 'organisationId' | 'version' | 'createdAt' | 'updatedAt' | 'archivedAt'
->;
+export type MachineFamilyValues = RecordValues<typeof machineFamilies>;
 
 /**
  * How many machines in use belong to a family. The machines table is read here (never written) so
@@ -38,11 +36,12 @@ const SORT_KEYS = {
 } as const;
 
 /** The machine families table, always read and written within one organisation. */
-export class MachineFamiliesRepo implements RecordStore<MachineFamilyRow, MachineFamilyValues> {
-  constructor(private readonly orm: Orm) {}
-
-  transaction<T>(work: () => T): T {
-    return this.orm.transaction(() => work(), { behavior: 'immediate' });
+export class MachineFamiliesRepo
+  extends VersionedTable<typeof machineFamilies>
+  implements RecordStore<MachineFamilyRow, MachineFamilyValues>
+{
+  constructor(orm: Orm) {
+    super(orm, machineFamilies);
   }
 
   find(organisationId: number, id: number): MachineFamilyRow | undefined {
@@ -51,34 +50,6 @@ export class MachineFamiliesRepo implements RecordStore<MachineFamilyRow, Machin
       .from(machineFamilies)
       .where(and(eq(machineFamilies.id, id), eq(machineFamilies.organisationId, organisationId)))
       .get();
-  }
-
-  insert(organisationId: number, values: MachineFamilyValues, at: Date): number {
-    return this.orm
-      .insert(machineFamilies)
-      .values({ ...values, organisationId, version: 1, createdAt: at, updatedAt: at, archivedAt: null })
-      .returning({ id: machineFamilies.id })
-      .get().id;
-  }
-
-  writeAtVersion(
-    organisationId: number,
-    id: number,
-    version: number,
-    values: MachineFamilyValues,
-    at: Date,
-  ): boolean {
-    return this.updateAtVersion(organisationId, id, version, { ...values, updatedAt: at });
-  }
-
-  setArchivedAt(
-    organisationId: number,
-    id: number,
-    version: number,
-    archivedAt: Date | null,
-    at: Date,
-  ): boolean {
-    return this.updateAtVersion(organisationId, id, version, { archivedAt, updatedAt: at });
   }
 
   /**
@@ -122,27 +93,5 @@ export class MachineFamiliesRepo implements RecordStore<MachineFamilyRow, Machin
       .all();
     const total = this.orm.select({ total: countAll }).from(machineFamilies).where(where).get()?.total ?? 0;
     return { rows, total };
-  }
-
-  /** Writes `set` and the next version, only where the stored version is still `version`. */
-  private updateAtVersion(
-    organisationId: number,
-    id: number,
-    version: number,
-    set: Partial<typeof machineFamilies.$inferInsert>,
-  ): boolean {
-    return (
-      this.orm
-        .update(machineFamilies)
-        .set({ ...set, version: sql`${machineFamilies.version} + 1` })
-        .where(
-          and(
-            eq(machineFamilies.id, id),
-            eq(machineFamilies.organisationId, organisationId),
-            eq(machineFamilies.version, version),
-          ),
-        )
-        .run().changes === 1
-    );
   }
 }

@@ -1,10 +1,11 @@
-import { and, eq, getTableColumns, sql } from 'drizzle-orm';
+import { and, eq, getTableColumns } from 'drizzle-orm';
 import type { MachineListQuerySchema } from '@counterpoise/api';
 import type * as z from 'zod';
 import type { Orm } from '../db/database';
 import { customers, machineFamilies, machines } from '../db/schema';
 import { archivedCondition, countAll, pageWindow, searchCondition, sortOrder } from '../records/list-query';
 import type { RecordStore } from '../records/versioned-records';
+import { type RecordValues, VersionedTable } from '../records/versioned-table';
 
 /** A machine as stored, with the names of its customer and family. */
 export type MachineRow = typeof machines.$inferSelect & {
@@ -13,10 +14,7 @@ export type MachineRow = typeof machines.$inferSelect & {
 };
 
 /** The columns a create or a change writes: the fields and the keys derived from them. */
-export type MachineValues = Omit<
-  typeof machines.$inferInsert,
-  'id' | 'organisationId' | 'version' | 'createdAt' | 'updatedAt' | 'archivedAt'
->;
+export type MachineValues = RecordValues<typeof machines>;
 
 /** A customer or family a machine names, as far as the machine's rules need it. */
 export interface MachineReference {
@@ -42,45 +40,18 @@ const SORT_KEYS = {
  * tables are read here (never written): a machine is shown with their names, sorted and searched by
  * its customer's name, and may only name those of its own organisation.
  */
-export class MachinesRepo implements RecordStore<MachineRow, MachineValues> {
-  constructor(private readonly orm: Orm) {}
-
-  transaction<T>(work: () => T): T {
-    return this.orm.transaction(() => work(), { behavior: 'immediate' });
+export class MachinesRepo
+  extends VersionedTable<typeof machines>
+  implements RecordStore<MachineRow, MachineValues>
+{
+  constructor(orm: Orm) {
+    super(orm, machines);
   }
 
   find(organisationId: number, id: number): MachineRow | undefined {
     return this.selectWithNames()
       .where(and(eq(machines.id, id), eq(machines.organisationId, organisationId)))
       .get();
-  }
-
-  insert(organisationId: number, values: MachineValues, at: Date): number {
-    return this.orm
-      .insert(machines)
-      .values({ ...values, organisationId, version: 1, createdAt: at, updatedAt: at, archivedAt: null })
-      .returning({ id: machines.id })
-      .get().id;
-  }
-
-  writeAtVersion(
-    organisationId: number,
-    id: number,
-    version: number,
-    values: MachineValues,
-    at: Date,
-  ): boolean {
-    return this.updateAtVersion(organisationId, id, version, { ...values, updatedAt: at });
-  }
-
-  setArchivedAt(
-    organisationId: number,
-    id: number,
-    version: number,
-    archivedAt: Date | null,
-    at: Date,
-  ): boolean {
-    return this.updateAtVersion(organisationId, id, version, { archivedAt, updatedAt: at });
   }
 
   /** The organisation's customer with this id, if there is one. */
@@ -170,27 +141,5 @@ export class MachinesRepo implements RecordStore<MachineRow, MachineValues> {
       .from(machines)
       .innerJoin(customers, eq(customers.id, machines.customerId))
       .leftJoin(machineFamilies, eq(machineFamilies.id, machines.familyId));
-  }
-
-  /** Writes `set` and the next version, only where the stored version is still `version`. */
-  private updateAtVersion(
-    organisationId: number,
-    id: number,
-    version: number,
-    set: Partial<typeof machines.$inferInsert>,
-  ): boolean {
-    return (
-      this.orm
-        .update(machines)
-        .set({ ...set, version: sql`${machines.version} + 1` })
-        .where(
-          and(
-            eq(machines.id, id),
-            eq(machines.organisationId, organisationId),
-            eq(machines.version, version),
-          ),
-        )
-        .run().changes === 1
-    );
   }
 }
