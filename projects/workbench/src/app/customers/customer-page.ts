@@ -7,6 +7,7 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { AuthSession } from '../auth/auth-session';
+import { RecordPageHeader } from '../records/record-page-header';
 import { type Machine, MachinesApi } from '../machines/machines.api';
 import { ChangeHistory } from '../records/change-history';
 import { idFromRoute, recordView } from '../records/record-page';
@@ -24,6 +25,7 @@ const MACHINES_SHOWN = 100;
 @Component({
   selector: 'app-customer-page',
   imports: [
+    RecordPageHeader,
     ChangeHistory,
     DatePipe,
     MatButtonModule,

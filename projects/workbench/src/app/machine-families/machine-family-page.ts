@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
-import { AuthSession } from '../auth/auth-session';
+import { RecordPageHeader } from '../records/record-page-header';
 import { ChangeHistory } from '../records/change-history';
 import {
   AMPLITUDE_UNIT_LABELS,
@@ -25,7 +25,15 @@ import { MachineFamiliesApi } from './machine-families.api';
  */
 @Component({
   selector: 'app-machine-family-page',
-  imports: [ChangeHistory, DatePipe, MatButtonModule, MatIconModule, MatProgressSpinnerModule, RouterLink],
+  imports: [
+    RecordPageHeader,
+    ChangeHistory,
+    DatePipe,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressSpinnerModule,
+    RouterLink,
+  ],
   templateUrl: './machine-family-page.html',
   styleUrl: './machine-family-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -34,7 +42,6 @@ export class MachineFamilyPage {
   /** The family's id, from the address. */
   readonly id = input<string>();
 
-  protected readonly session = inject(AuthSession);
   protected readonly view = recordView({
     api: inject(MachineFamiliesApi),
     id: () => idFromRoute(this.id()),

@@ -5,7 +5,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
 import { CpCorrectionOverlay } from '@counterpoise/ng/correction-overlay';
-import { AuthSession } from '../auth/auth-session';
+import { RecordPageHeader } from '../records/record-page-header';
 import { ChangeHistory } from '../records/change-history';
 import {
   describeAcceptance,
@@ -30,6 +30,7 @@ import { type Machine, MachinesApi, type PlaneLayout } from './machines.api';
 @Component({
   selector: 'app-machine-page',
   imports: [
+    RecordPageHeader,
     ChangeHistory,
     CpCorrectionOverlay,
     DatePipe,
@@ -46,7 +47,6 @@ export class MachinePage {
   /** The machine's id, from the address. */
   readonly id = input<string>();
 
-  protected readonly session = inject(AuthSession);
   protected readonly view = recordView({
     api: inject(MachinesApi),
     id: () => idFromRoute(this.id()),
