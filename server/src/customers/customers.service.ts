@@ -2,16 +2,14 @@ import type {
   CreateCustomerSchema,
   Customer,
   CustomerListQuerySchema,
-  CustomerPage,
-  RecordHistory,
   UpdateCustomerSchema,
 } from '@counterpoise/api';
 import type * as z from 'zod';
 import type { Clock } from '../clock';
 import type { Actor, ChangeLog } from '../records/change-log';
 import { foldCase, searchTextOf } from '../records/list-query';
-import type { RecordRoutesService } from '../records/record-routes';
-import { textOrNull, VersionedRecords } from '../records/versioned-records';
+import { RecordService } from '../records/record-service';
+import { textOrNull } from '../records/versioned-records';
 import type { CustomerRow, CustomersRepo, CustomerValues } from './customers.repo';
 
 type CreateCustomer = z.output<typeof CreateCustomerSchema>;
@@ -61,21 +59,17 @@ function customerValues(fields: CustomerFields): CustomerValues {
 }
 
 /** The shop's customers: who the machines belong to and where the reports go. */
-export class CustomersService implements RecordRoutesService<
+export class CustomersService extends RecordService<
+  CustomerRow,
   Customer,
-  CustomerPage,
+  CustomerFields,
+  CustomerValues,
   CreateCustomer,
   UpdateCustomer,
   CustomerListQuery
 > {
-  private readonly records: VersionedRecords<CustomerRow, Customer, CustomerFields, CustomerValues>;
-
-  constructor(
-    private readonly repo: CustomersRepo,
-    changes: ChangeLog,
-    clock: Clock,
-  ) {
-    this.records = new VersionedRecords(
+  constructor(repo: CustomersRepo, changes: ChangeLog, clock: Clock) {
+    super(
       {
         kind: 'customer',
         noun: 'customer',
@@ -87,15 +81,6 @@ export class CustomersService implements RecordRoutesService<
       changes,
       clock,
     );
-  }
-
-  list(actor: Actor, query: CustomerListQuery): CustomerPage {
-    const { rows, total } = this.repo.list(actor.organisationId, query);
-    return { items: rows.map(toCustomer), total, page: query.page, pageSize: query.pageSize };
-  }
-
-  get(actor: Actor, id: number): Customer {
-    return this.records.get(actor, id);
   }
 
   create(actor: Actor, fields: CreateCustomer): Customer {
@@ -115,17 +100,5 @@ export class CustomersService implements RecordRoutesService<
 
   update(actor: Actor, id: number, versions: readonly number[], change: UpdateCustomer): Customer {
     return this.records.update(actor, id, versions, change, normalise);
-  }
-
-  archive(actor: Actor, id: number, versions: readonly number[]): Customer {
-    return this.records.archive(actor, id, versions);
-  }
-
-  restore(actor: Actor, id: number, versions: readonly number[]): Customer {
-    return this.records.restore(actor, id, versions);
-  }
-
-  history(actor: Actor, id: number): RecordHistory {
-    return this.records.history(actor, id);
   }
 }

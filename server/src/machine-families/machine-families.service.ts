@@ -3,8 +3,6 @@ import {
   invalidRequestProblem,
   type MachineFamily,
   type MachineFamilyListQuerySchema,
-  type MachineFamilyPage,
-  type RecordHistory,
   RECORDS_PROBLEM_CODES,
   type UpdateMachineFamilySchema,
 } from '@counterpoise/api';
@@ -13,8 +11,8 @@ import type { Clock } from '../clock';
 import { HttpProblem } from '../http/problem';
 import type { Actor, ChangeLog } from '../records/change-log';
 import { foldCase } from '../records/list-query';
-import type { RecordRoutesService } from '../records/record-routes';
-import { textOrNull, VersionedRecords } from '../records/versioned-records';
+import { RecordService } from '../records/record-service';
+import { textOrNull } from '../records/versioned-records';
 import type { MachineFamiliesRepo, MachineFamilyRow, MachineFamilyValues } from './machine-families.repo';
 
 type CreateMachineFamily = z.output<typeof CreateMachineFamilySchema>;
@@ -65,26 +63,21 @@ function familyValues(fields: MachineFamilyFields): MachineFamilyValues {
  * radii, the inspection limits, when a rotor is balanced enough, and what the shop knows of how such a
  * rotor answers a weight.
  */
-export class MachineFamiliesService implements RecordRoutesService<
+export class MachineFamiliesService extends RecordService<
+  MachineFamilyRow,
   MachineFamily,
-  MachineFamilyPage,
+  MachineFamilyFields,
+  MachineFamilyValues,
   CreateMachineFamily,
   UpdateMachineFamily,
   MachineFamilyListQuery
 > {
-  private readonly records: VersionedRecords<
-    MachineFamilyRow,
-    MachineFamily,
-    MachineFamilyFields,
-    MachineFamilyValues
-  >;
-
   constructor(
     private readonly repo: MachineFamiliesRepo,
     changes: ChangeLog,
     clock: Clock,
   ) {
-    this.records = new VersionedRecords(
+    super(
       {
         kind: 'machine-family',
         noun: 'machine family',
@@ -96,15 +89,6 @@ export class MachineFamiliesService implements RecordRoutesService<
       changes,
       clock,
     );
-  }
-
-  list(actor: Actor, query: MachineFamilyListQuery): MachineFamilyPage {
-    const { rows, total } = this.repo.list(actor.organisationId, query);
-    return { items: rows.map(toMachineFamily), total, page: query.page, pageSize: query.pageSize };
-  }
-
-  get(actor: Actor, id: number): MachineFamily {
-    return this.records.get(actor, id);
   }
 
   create(actor: Actor, fields: CreateMachineFamily): MachineFamily {
@@ -138,17 +122,5 @@ export class MachineFamiliesService implements RecordRoutesService<
       }
       return { ...checked.data, notes: textOrNull(checked.data.notes) };
     });
-  }
-
-  archive(actor: Actor, id: number, versions: readonly number[]): MachineFamily {
-    return this.records.archive(actor, id, versions);
-  }
-
-  restore(actor: Actor, id: number, versions: readonly number[]): MachineFamily {
-    return this.records.restore(actor, id, versions);
-  }
-
-  history(actor: Actor, id: number): RecordHistory {
-    return this.records.history(actor, id);
   }
 }

@@ -3,9 +3,7 @@ import {
   type FieldError,
   type Machine,
   type MachineListQuerySchema,
-  type MachinePage,
   type MachineSide,
-  type RecordHistory,
   RECORDS_PROBLEM_CODES,
   type UpdateMachineSchema,
 } from '@counterpoise/api';
@@ -14,8 +12,8 @@ import type { Clock } from '../clock';
 import { HttpProblem } from '../http/problem';
 import type { Actor, ChangeLog } from '../records/change-log';
 import { foldCase, searchTextOf } from '../records/list-query';
-import type { RecordRoutesService } from '../records/record-routes';
-import { textOrNull, VersionedRecords } from '../records/versioned-records';
+import { RecordService } from '../records/record-service';
+import { textOrNull } from '../records/versioned-records';
 import type { MachineRow, MachinesRepo, MachineValues } from './machines.repo';
 
 type CreateMachine = z.output<typeof CreateMachineSchema>;
@@ -90,21 +88,21 @@ function machineValues(fields: MachineFields): MachineValues {
  * The machines of the shop's customers: what identifies one on site, and what a balancing job needs
  * to know of it. A machine names a customer and, when it has one, a family of the same organisation.
  */
-export class MachinesService implements RecordRoutesService<
+export class MachinesService extends RecordService<
+  MachineRow,
   Machine,
-  MachinePage,
+  MachineFields,
+  MachineValues,
   CreateMachine,
   UpdateMachine,
   MachineListQuery
 > {
-  private readonly records: VersionedRecords<MachineRow, Machine, MachineFields, MachineValues>;
-
   constructor(
     private readonly repo: MachinesRepo,
     changes: ChangeLog,
     clock: Clock,
   ) {
-    this.records = new VersionedRecords(
+    super(
       {
         kind: 'machine',
         noun: 'machine',
@@ -116,15 +114,6 @@ export class MachinesService implements RecordRoutesService<
       changes,
       clock,
     );
-  }
-
-  list(actor: Actor, query: MachineListQuery): MachinePage {
-    const { rows, total } = this.repo.list(actor.organisationId, query);
-    return { items: rows.map(toMachine), total, page: query.page, pageSize: query.pageSize };
-  }
-
-  get(actor: Actor, id: number): Machine {
-    return this.records.get(actor, id);
   }
 
   create(actor: Actor, fields: CreateMachine): Machine {
@@ -154,18 +143,6 @@ export class MachinesService implements RecordRoutesService<
     return this.records.update(actor, id, versions, change, (next, current) =>
       this.checked(actor, next, current),
     );
-  }
-
-  archive(actor: Actor, id: number, versions: readonly number[]): Machine {
-    return this.records.archive(actor, id, versions);
-  }
-
-  restore(actor: Actor, id: number, versions: readonly number[]): Machine {
-    return this.records.restore(actor, id, versions);
-  }
-
-  history(actor: Actor, id: number): RecordHistory {
-    return this.records.history(actor, id);
   }
 
   /**
