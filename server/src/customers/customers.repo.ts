@@ -1,4 +1,4 @@
-import { and, eq, getTableColumns, sql } from 'drizzle-orm';
+import { and, eq, getTableColumns } from 'drizzle-orm';
 import type { CustomerListQuerySchema } from '@counterpoise/api';
 import type * as z from 'zod';
 import type { Orm } from '../db/database';
@@ -6,8 +6,8 @@ import { customers, machines } from '../db/schema';
 import {
   archivedCondition,
   countAll,
-  pageWindow,
-  qualified,
+  inUseCount,
+  listPage,
   searchCondition,
   sortOrder,
 } from '../records/list-query';
@@ -20,14 +20,8 @@ export type CustomerRow = typeof customers.$inferSelect & { readonly machineCoun
 /** The columns a create or a change writes: the fields and the keys derived from them. */
 export type CustomerValues = RecordValues<typeof customers>;
 
-/**
- * How many machines in use a customer has. The machines table is read here (never written) so that a
- * list of customers is one query, whatever its length.
- */
-const machineCount =
-  sql<number>`(SELECT count(*) FROM ${machines} WHERE ${qualified(machines.customerId)} = ${qualified(customers.id)} AND ${qualified(machines.archivedAt)} IS NULL)`.mapWith(
-    Number,
-  );
+/** How many machines in use a customer has. The machines table is read here (never written). */
+const machineCount = inUseCount(machines.customerId, machines.archivedAt, customers.id);
 
 const SORT_KEYS = {
   name: customers.nameKey,
@@ -45,9 +39,7 @@ export class CustomersRepo
   }
 
   find(organisationId: number, id: number): CustomerRow | undefined {
-    return this.orm
-      .select({ ...getTableColumns(customers), machineCount })
-      .from(customers)
+    return this.selectRows()
       .where(and(eq(customers.id, id), eq(customers.organisationId, organisationId)))
       .get();
   }
@@ -62,16 +54,17 @@ export class CustomersRepo
       archivedCondition(customers.archivedAt, query.archived),
       searchCondition([customers.searchText], query.q),
     );
-    const { limit, offset } = pageWindow(query);
-    const rows = this.orm
-      .select({ ...getTableColumns(customers), machineCount })
-      .from(customers)
-      .where(where)
-      .orderBy(...sortOrder(SORT_KEYS[query.sort], customers.id, query.order))
-      .limit(limit)
-      .offset(offset)
-      .all();
-    const total = this.orm.select({ total: countAll }).from(customers).where(where).get()?.total ?? 0;
-    return { rows, total };
+    return listPage(
+      this.selectRows(),
+      this.orm.select({ total: countAll }).from(customers),
+      where,
+      sortOrder(SORT_KEYS[query.sort], customers.id, query.order),
+      query,
+    );
+  }
+
+  /** The rows with how many machines in use each has. */
+  private selectRows() {
+    return this.orm.select({ ...getTableColumns(customers), machineCount }).from(customers);
   }
 }

@@ -6,8 +6,8 @@ import { machineFamilies, machines } from '../db/schema';
 import {
   archivedCondition,
   countAll,
-  pageWindow,
-  qualified,
+  inUseCount,
+  listPage,
   searchCondition,
   sortOrder,
 } from '../records/list-query';
@@ -20,14 +20,8 @@ export type MachineFamilyRow = typeof machineFamilies.$inferSelect & { readonly 
 /** The columns a create or a change writes: the fields and the sort key derived from the name. */
 export type MachineFamilyValues = RecordValues<typeof machineFamilies>;
 
-/**
- * How many machines in use belong to a family. The machines table is read here (never written) so
- * that a list of families is one query.
- */
-const machineCount =
-  sql<number>`(SELECT count(*) FROM ${machines} WHERE ${qualified(machines.familyId)} = ${qualified(machineFamilies.id)} AND ${qualified(machines.archivedAt)} IS NULL)`.mapWith(
-    Number,
-  );
+/** How many machines in use belong to a family. The machines table is read here (never written). */
+const machineCount = inUseCount(machines.familyId, machines.archivedAt, machineFamilies.id);
 
 const SORT_KEYS = {
   name: machineFamilies.nameKey,
@@ -45,9 +39,7 @@ export class MachineFamiliesRepo
   }
 
   find(organisationId: number, id: number): MachineFamilyRow | undefined {
-    return this.orm
-      .select({ ...getTableColumns(machineFamilies), machineCount })
-      .from(machineFamilies)
+    return this.selectRows()
       .where(and(eq(machineFamilies.id, id), eq(machineFamilies.organisationId, organisationId)))
       .get();
   }
@@ -82,16 +74,17 @@ export class MachineFamiliesRepo
       archivedCondition(machineFamilies.archivedAt, query.archived),
       searchCondition([machineFamilies.nameKey], query.q),
     );
-    const { limit, offset } = pageWindow(query);
-    const rows = this.orm
-      .select({ ...getTableColumns(machineFamilies), machineCount })
-      .from(machineFamilies)
-      .where(where)
-      .orderBy(...sortOrder(SORT_KEYS[query.sort], machineFamilies.id, query.order))
-      .limit(limit)
-      .offset(offset)
-      .all();
-    const total = this.orm.select({ total: countAll }).from(machineFamilies).where(where).get()?.total ?? 0;
-    return { rows, total };
+    return listPage(
+      this.selectRows(),
+      this.orm.select({ total: countAll }).from(machineFamilies),
+      where,
+      sortOrder(SORT_KEYS[query.sort], machineFamilies.id, query.order),
+      query,
+    );
+  }
+
+  /** The rows with how many machines in use each has. */
+  private selectRows() {
+    return this.orm.select({ ...getTableColumns(machineFamilies), machineCount }).from(machineFamilies);
   }
 }

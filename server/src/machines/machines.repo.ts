@@ -3,7 +3,7 @@ import type { MachineListQuerySchema } from '@counterpoise/api';
 import type * as z from 'zod';
 import type { Orm } from '../db/database';
 import { customers, machineFamilies, machines } from '../db/schema';
-import { archivedCondition, countAll, pageWindow, searchCondition, sortOrder } from '../records/list-query';
+import { archivedCondition, countAll, listPage, searchCondition, sortOrder } from '../records/list-query';
 import type { RecordStore } from '../records/versioned-records';
 import { type RecordValues, VersionedTable } from '../records/versioned-table';
 
@@ -113,22 +113,17 @@ export class MachinesRepo
       query.familyId === undefined ? undefined : eq(machines.familyId, query.familyId),
       searchCondition([machines.searchText, customers.nameKey], query.q),
     );
-    const { limit, offset } = pageWindow(query);
     const sort = SORT_KEYS[query.sort];
-    const rows = this.selectWithNames()
-      .where(where)
-      .orderBy(...sortOrder(sort.key, machines.id, query.order, sort.nullable))
-      .limit(limit)
-      .offset(offset)
-      .all();
-    const total =
+    return listPage(
+      this.selectWithNames(),
       this.orm
         .select({ total: countAll })
         .from(machines)
-        .innerJoin(customers, eq(customers.id, machines.customerId))
-        .where(where)
-        .get()?.total ?? 0;
-    return { rows, total };
+        .innerJoin(customers, eq(customers.id, machines.customerId)),
+      where,
+      sortOrder(sort.key, machines.id, query.order, sort.nullable),
+      query,
+    );
   }
 
   private selectWithNames() {

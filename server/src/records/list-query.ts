@@ -90,3 +90,53 @@ export const countAll = sql<number>`count(*)`.mapWith(Number);
 export function qualified(column: SQLiteColumn): SQL {
   return sql`${sql.identifier(getTableName(column.table))}.${sql.identifier(column.name)}`;
 }
+
+/** The part of a select over a feature's rows that a page needs (a Drizzle select fits it). */
+interface RowsQuery<Row> {
+  where(where: SQL | undefined): {
+    orderBy(...order: SQL[]): { limit(limit: number): { offset(offset: number): { all(): Row[] } } };
+  };
+}
+
+/** The part of a `{ total: countAll }` select that a page needs. */
+interface TotalQuery {
+  where(where: SQL | undefined): { get(): { total: number } | undefined };
+}
+
+/**
+ * One page of a list and how many match in all: `rows` and `total` select from the same tables (the
+ * joins that `where` names included), so that the total counts what the pages show.
+ */
+export function listPage<Row>(
+  rows: RowsQuery<Row>,
+  total: TotalQuery,
+  where: SQL | undefined,
+  order: SQL[],
+  window: Pick<ListWindow, 'page' | 'pageSize'>,
+): { rows: Row[]; total: number } {
+  const { limit, offset } = pageWindow(window);
+  return {
+    rows: rows
+      .where(where)
+      .orderBy(...order)
+      .limit(limit)
+      .offset(offset)
+      .all(),
+    total: total.where(where).get()?.total ?? 0,
+  };
+}
+
+/**
+ * How many rows in use of another table name a listed row: `reference` is that table's column naming
+ * it, `owner` the listed row's id. A correlated subquery, so that a list with its counts is one query
+ * whatever its length.
+ */
+export function inUseCount(
+  reference: SQLiteColumn,
+  archivedAt: SQLiteColumn,
+  owner: SQLiteColumn,
+): SQL<number> {
+  return sql<number>`(SELECT count(*) FROM ${reference.table} WHERE ${qualified(reference)} = ${qualified(owner)} AND ${qualified(archivedAt)} IS NULL)`.mapWith(
+    Number,
+  );
+}
