@@ -1,7 +1,15 @@
 import type { RecordHistory } from '@counterpoise/api';
 import type { Clock } from '../clock';
 import { HttpProblem } from '../http/problem';
-import { type Actor, type ChangeLog, changedFields, initialFields, type RecordKind } from './change-log';
+import {
+  type Actor,
+  type ChangeAction,
+  type ChangeLog,
+  changedFields,
+  type FieldChange,
+  initialFields,
+  type RecordKind,
+} from './change-log';
 import { ChangedMeanwhile, checkVersion } from './versions';
 
 /** What every record of the shop shows besides its own fields. */
@@ -130,27 +138,19 @@ export class VersionedRecords<Row, Rec extends StoredRecord & Fields, Fields ext
     change: Partial<Fields>,
     prepare: (next: Fields, current: Rec) => Fields = (next) => next,
   ): Rec {
-    const { store, kind, noun, fields, toValues } = this.options;
+    const { store, noun, fields, toValues } = this.options;
     return store.transaction(() => {
       const current = this.get(actor, id);
       checkVersion(current, versions, noun);
       const next = prepare(withChange(fieldsOf<Fields>(current, fields), change), current);
       if (changedFields<Fields>(current, next, fields).length === 0) return current;
-      const at = this.clock.now();
-      if (!store.writeAtVersion(actor.organisationId, id, current.version, toValues(next), at)) {
-        throw new ChangedMeanwhile(this.get(actor, id), noun);
-      }
-      const updated = this.get(actor, id);
-      this.changes.record({
+      return this.written(
         actor,
-        kind,
-        recordId: id,
-        version: updated.version,
-        action: 'updated',
-        at,
-        fields: changedFields<Fields>(current, updated, fields),
-      });
-      return updated;
+        id,
+        'updated',
+        (at) => store.writeAtVersion(actor.organisationId, id, current.version, toValues(next), at),
+        (updated) => changedFields<Fields>(current, updated, fields),
+      );
     });
   }
 
@@ -171,26 +171,45 @@ export class VersionedRecords<Row, Rec extends StoredRecord & Fields, Fields ext
   }
 
   private setArchived(actor: Actor, id: number, versions: readonly number[], archived: boolean): Rec {
-    const { store, kind, noun } = this.options;
+    const { store, noun } = this.options;
     return store.transaction(() => {
       const current = this.get(actor, id);
       checkVersion(current, versions, noun);
       if ((current.archivedAt !== null) === archived) return current;
-      const at = this.clock.now();
-      if (!store.setArchivedAt(actor.organisationId, id, current.version, archived ? at : null, at)) {
-        throw new ChangedMeanwhile(this.get(actor, id), noun);
-      }
-      const updated = this.get(actor, id);
-      this.changes.record({
+      return this.written(
         actor,
-        kind,
-        recordId: id,
-        version: updated.version,
-        action: archived ? 'archived' : 'restored',
-        at,
-        fields: [{ field: 'archivedAt', before: current.archivedAt, after: updated.archivedAt }],
-      });
-      return updated;
+        id,
+        archived ? 'archived' : 'restored',
+        (at) => store.setArchivedAt(actor.organisationId, id, current.version, archived ? at : null, at),
+        (updated) => [{ field: 'archivedAt', before: current.archivedAt, after: updated.archivedAt }],
+      );
     });
+  }
+
+  /**
+   * The tail of a change or an archive, in its transaction: `write` writes on the version read (412
+   * with the stored record when another change came first), and the change log gets `fields` of the
+   * record as it now is.
+   */
+  private written(
+    actor: Actor,
+    id: number,
+    action: Exclude<ChangeAction, 'created'>,
+    write: (at: Date) => boolean,
+    fields: (updated: Rec) => FieldChange[],
+  ): Rec {
+    const at = this.clock.now();
+    if (!write(at)) throw new ChangedMeanwhile(this.get(actor, id), this.options.noun);
+    const updated = this.get(actor, id);
+    this.changes.record({
+      actor,
+      kind: this.options.kind,
+      recordId: id,
+      version: updated.version,
+      action,
+      at,
+      fields: fields(updated),
+    });
+    return updated;
   }
 }
