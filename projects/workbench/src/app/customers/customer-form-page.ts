@@ -15,7 +15,7 @@ import { MAT_FORM_FIELD_DEFAULT_OPTIONS, MatFormFieldModule } from '@angular/mat
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
-import { RouterLink } from '@angular/router';
+import { RecordFormError, RecordFormFrame, RecordSaveBar } from '../records/record-form-frame';
 import { FORM_FIELD_OPTIONS, RecordForm } from '../records/record-form';
 import { idFromRoute } from '../records/record-page';
 import { RECORD_RULES } from '../records/record-rules';
@@ -38,13 +38,15 @@ import { CustomersApi } from './customers.api';
 @Component({
   selector: 'app-customer-form-page',
   imports: [
+    RecordFormError,
+    RecordFormFrame,
+    RecordSaveBar,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
     MatProgressSpinnerModule,
     ReactiveFormsModule,
-    RouterLink,
   ],
   templateUrl: './customer-form-page.html',
   styleUrl: './customer-form-page.scss',

@@ -20,8 +20,8 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSelectModule } from '@angular/material/select';
-import { RouterLink } from '@angular/router';
 import type { AmplitudeUnit, MachineSide, RotorType } from '@counterpoise/api';
+import { RecordFormError, RecordFormFrame, RecordSaveBar } from '../records/record-form-frame';
 import { AcceptanceFields } from '../records/acceptance-fields';
 import { FORM_FIELD_OPTIONS, RecordForm } from '../records/record-form';
 import { AMPLITUDE_UNIT_LABELS, planeName, ROTOR_TYPE_LABELS, SIDE_LABELS } from '../records/record-labels';
@@ -54,6 +54,9 @@ const MAX_SENSITIVITIES = 4;
 @Component({
   selector: 'app-machine-family-form-page',
   imports: [
+    RecordFormError,
+    RecordFormFrame,
+    RecordSaveBar,
     AcceptanceFields,
     MatButtonModule,
     MatButtonToggleModule,
@@ -63,7 +66,6 @@ const MAX_SENSITIVITIES = 4;
     MatProgressSpinnerModule,
     MatSelectModule,
     ReactiveFormsModule,
-    RouterLink,
   ],
   templateUrl: './machine-family-form-page.html',
   styleUrl: './machine-family-form-page.scss',

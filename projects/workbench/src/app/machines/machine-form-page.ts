@@ -21,10 +21,10 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
-import { RouterLink } from '@angular/router';
 import { CustomerPicker } from '../customers/customer-picker';
 import { CustomersApi } from '../customers/customers.api';
 import { MachineFamiliesApi, type MachineFamily } from '../machine-families/machine-families.api';
+import { RecordFormError, RecordFormFrame, RecordSaveBar } from '../records/record-form-frame';
 import { AcceptanceFields, setAcceptance } from '../records/acceptance-fields';
 import { FORM_FIELD_OPTIONS, RecordForm } from '../records/record-form';
 import {
@@ -62,6 +62,9 @@ const FAMILIES_OFFERED = 100;
 @Component({
   selector: 'app-machine-form-page',
   imports: [
+    RecordFormError,
+    RecordFormFrame,
+    RecordSaveBar,
     AcceptanceFields,
     CustomerPicker,
     MatButtonModule,
@@ -75,7 +78,6 @@ const FAMILIES_OFFERED = 100;
     MatSelectModule,
     PlaneEditor,
     ReactiveFormsModule,
-    RouterLink,
   ],
   templateUrl: './machine-form-page.html',
   styleUrl: './machine-form-page.scss',

@@ -1,0 +1,111 @@
+import { NgTemplateOutlet } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  contentChild,
+  input,
+  type Signal,
+  TemplateRef,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import { RouterLink } from '@angular/router';
+
+/** What RecordFormFrame reads of a RecordForm: whether the record to edit is on its way or failed. */
+export interface RecordFormLoad {
+  readonly loadError: Signal<string | null>;
+  readonly loading: Signal<boolean>;
+}
+
+/**
+ * A record's form page below its header: why the record could not be fetched (with the way back to the
+ * list), the spinner while it comes, and then the page's own form, given as an `<ng-template>` so that it
+ * is made only once the record is there (as its fields take their first values then). The form stays in
+ * the page's template so that its fields find their form group.
+ */
+@Component({
+  selector: 'app-record-form-frame',
+  imports: [MatButtonModule, MatIconModule, MatProgressSpinnerModule, NgTemplateOutlet, RouterLink],
+  template: `
+    @if (editing().loadError(); as message) {
+      <div class="problem" role="alert">
+        <mat-icon aria-hidden="true">error</mat-icon>
+        <p>The {{ noun() }} could not be fetched. {{ message }}</p>
+        <a matButton="outlined" [routerLink]="listLink()">{{ backLabel() }}</a>
+      </div>
+    } @else if (editing().loading()) {
+      <p class="state" role="status">
+        <mat-spinner diameter="24" aria-hidden="true" />
+        Fetching the {{ noun() }}…
+      </p>
+    } @else {
+      <ng-container [ngTemplateOutlet]="form()" />
+    }
+  `,
+  styleUrl: './record-form-frame.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class RecordFormFrame {
+  readonly editing = input.required<RecordFormLoad>();
+  /** The record as the sentences name it: "customer", "machine family". */
+  readonly noun = input.required<string>();
+  /** The list the way back leads to, `/customers`. */
+  readonly listLink = input.required<string>();
+  /** "Back to the customers". */
+  readonly backLabel = input.required<string>();
+  protected readonly form = contentChild.required(TemplateRef);
+}
+
+/**
+ * Why the server refused the form, above its fields. RecordForm focuses it (`.form-error`) when no field is
+ * at fault, so it takes the focus but no place in the tab order.
+ */
+@Component({
+  selector: 'app-record-form-error',
+  imports: [MatIconModule],
+  template: `
+    @if (message(); as message) {
+      <p class="form-error" role="alert" tabindex="-1">
+        <mat-icon aria-hidden="true">error</mat-icon>
+        {{ message }}
+      </p>
+    }
+  `,
+  styleUrl: './record-form-frame.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class RecordFormError {
+  readonly message = input.required<string | null>();
+}
+
+/**
+ * The bottom of a record's form: Cancel back to where the person came from, and the submit button, which
+ * shows a spinner and "Saving…" while the record is on its way and cannot be pressed twice.
+ */
+@Component({
+  selector: 'app-record-save-bar',
+  imports: [MatButtonModule, MatProgressSpinnerModule, RouterLink],
+  template: `
+    <div class="save-bar">
+      <a matButton [routerLink]="cancelLink()">Cancel</a>
+      <button matButton="filled" type="submit" [disabled]="busy()">
+        @if (busy()) {
+          <mat-spinner diameter="20" aria-hidden="true" />
+          Saving…
+        } @else {
+          {{ saveLabel() }}
+        }
+      </button>
+    </div>
+  `,
+  styleUrl: './record-form-frame.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class RecordSaveBar {
+  /** Where Cancel leads: the list for a new record, the record's page for a change. */
+  readonly cancelLink = input.required<string | readonly unknown[]>();
+  readonly busy = input.required<boolean>();
+  /** "Add the customer", "Save the changes". */
+  readonly saveLabel = input.required<string>();
+}
