@@ -9,7 +9,7 @@ import type { Clock } from '../clock';
 import type { Actor, ChangeLog } from '../records/change-log';
 import { foldCase, searchTextOf } from '../records/list-query';
 import { RecordService } from '../records/record-service';
-import { textOrNull } from '../records/versioned-records';
+import { lifecycleOf, textOrNull } from '../records/versioned-records';
 import type { CustomerRow, CustomersRepo, CustomerValues } from './customers.repo';
 
 type CreateCustomer = z.output<typeof CreateCustomerSchema>;
@@ -23,11 +23,7 @@ type CustomerFields = Pick<Customer, (typeof CUSTOMER_FIELDS)[number]>;
 /** A stored customer as the API shows it. */
 export function toCustomer(row: CustomerRow): Customer {
   return {
-    id: row.id,
-    version: row.version,
-    createdAt: row.createdAt.toISOString(),
-    updatedAt: row.updatedAt.toISOString(),
-    archivedAt: row.archivedAt?.toISOString() ?? null,
+    ...lifecycleOf(row),
     name: row.name,
     email: row.email,
     phone: row.phone,

@@ -12,7 +12,7 @@ import { HttpProblem } from '../http/problem';
 import type { Actor, ChangeLog } from '../records/change-log';
 import { foldCase } from '../records/list-query';
 import { RecordService } from '../records/record-service';
-import { textOrNull } from '../records/versioned-records';
+import { lifecycleOf, textOrNull } from '../records/versioned-records';
 import type { MachineFamiliesRepo, MachineFamilyRow, MachineFamilyValues } from './machine-families.repo';
 
 type CreateMachineFamily = z.output<typeof CreateMachineFamilySchema>;
@@ -36,11 +36,7 @@ type MachineFamilyFields = Pick<MachineFamily, (typeof MACHINE_FAMILY_FIELDS)[nu
 /** A stored family as the API shows it. */
 export function toMachineFamily(row: MachineFamilyRow): MachineFamily {
   return {
-    id: row.id,
-    version: row.version,
-    createdAt: row.createdAt.toISOString(),
-    updatedAt: row.updatedAt.toISOString(),
-    archivedAt: row.archivedAt?.toISOString() ?? null,
+    ...lifecycleOf(row),
     name: row.name,
     rotorType: row.rotorType,
     nominalSpeedRpm: row.nominalSpeedRpm,

@@ -13,7 +13,7 @@ import { HttpProblem } from '../http/problem';
 import type { Actor, ChangeLog } from '../records/change-log';
 import { foldCase, searchTextOf } from '../records/list-query';
 import { RecordService } from '../records/record-service';
-import { textOrNull } from '../records/versioned-records';
+import { lifecycleOf, textOrNull } from '../records/versioned-records';
 import type { MachineRow, MachinesRepo, MachineValues } from './machines.repo';
 
 type CreateMachine = z.output<typeof CreateMachineSchema>;
@@ -50,11 +50,7 @@ export function defaultSensorSides(planeCount: number): MachineSide[] {
 /** A stored machine as the API shows it. */
 export function toMachine(row: MachineRow): Machine {
   return {
-    id: row.id,
-    version: row.version,
-    createdAt: row.createdAt.toISOString(),
-    updatedAt: row.updatedAt.toISOString(),
-    archivedAt: row.archivedAt?.toISOString() ?? null,
+    ...lifecycleOf(row),
     customerId: row.customerId,
     customerName: row.customerName,
     familyId: row.familyId,

@@ -56,6 +56,23 @@ export interface RecordKindOptions<Row, Rec, Fields, Values> {
   readonly toValues: (fields: Fields) => Values;
 }
 
+/** What every record shows besides its own fields, as the API writes it: the dates as ISO text. */
+export function lifecycleOf(row: {
+  readonly id: number;
+  readonly version: number;
+  readonly createdAt: Date;
+  readonly updatedAt: Date;
+  readonly archivedAt: Date | null;
+}): { id: number; version: number; createdAt: string; updatedAt: string; archivedAt: string | null } {
+  return {
+    id: row.id,
+    version: row.version,
+    createdAt: row.createdAt.toISOString(),
+    updatedAt: row.updatedAt.toISOString(),
+    archivedAt: row.archivedAt?.toISOString() ?? null,
+  };
+}
+
 /** `current` with every field that `change` holds put in (a field left out stays as it is). */
 export function withChange<F extends object>(current: F, change: Partial<F>): F {
   const next = { ...current };
