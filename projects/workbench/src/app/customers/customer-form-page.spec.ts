@@ -1,40 +1,27 @@
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { type HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
-import { provideRouter, Router, withComponentInputBinding } from '@angular/router';
+import { Router } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AuthSession } from '../auth/auth-session';
 import { aSession, RouteStandIn } from '../auth/testing';
-import { aChange, aCustomer, nextRequest } from '../records/testing';
+import { aChange, aCustomer, nextRequest, recordsTestBed } from '../records/testing';
 import { CustomerFormPage } from './customer-form-page';
 
 describe('CustomerFormPage', { timeout: 30_000 }, () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter(
-          [
-            { path: 'customers/new', component: CustomerFormPage },
-            { path: 'customers/:id/edit', component: CustomerFormPage },
-            { path: 'customers/:id', component: RouteStandIn, data: { heading: 'The customer' } },
-          ],
-          withComponentInputBinding(),
-        ),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = recordsTestBed([
+      { path: 'customers/new', component: CustomerFormPage },
+      { path: 'customers/:id/edit', component: CustomerFormPage },
+      { path: 'customers/:id', component: RouteStandIn, data: { heading: 'The customer' } },
+    ]);
     TestBed.inject(AuthSession).start(aSession('technician'));
   });
 

@@ -1,38 +1,24 @@
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { type HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
-import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import type { Role } from '@counterpoise/api';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AuthSession } from '../auth/auth-session';
 import { aSession, RouteStandIn } from '../auth/testing';
-import { aChange, aCustomer, aMachine, aPage, nextRequest } from '../records/testing';
+import { aChange, aCustomer, aMachine, aPage, nextRequest, recordsTestBed } from '../records/testing';
 import { CustomerPage } from './customer-page';
 
 describe('CustomerPage', { timeout: 30_000 }, () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter(
-          [
-            { path: 'customers/:id', component: CustomerPage },
-            { path: '**', component: RouteStandIn, data: { heading: 'Elsewhere' } },
-          ],
-          withComponentInputBinding(),
-        ),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = recordsTestBed([
+      { path: 'customers/:id', component: CustomerPage },
+      { path: '**', component: RouteStandIn, data: { heading: 'Elsewhere' } },
+    ]);
   });
 
   afterEach(() => http.verify());

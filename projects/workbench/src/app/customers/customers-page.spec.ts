@@ -1,22 +1,20 @@
 import { BreakpointObserver, type BreakpointState } from '@angular/cdk/layout';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { type HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { MatButtonToggleHarness } from '@angular/material/button-toggle/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatPaginatorHarness } from '@angular/material/paginator/testing';
 import { MatSortHarness } from '@angular/material/sort/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
-import { provideRouter, Router } from '@angular/router';
+import { Router } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import type { Role } from '@counterpoise/api';
 import { BehaviorSubject, map } from 'rxjs';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AuthSession } from '../auth/auth-session';
 import { aSession, RouteStandIn } from '../auth/testing';
-import { aCustomer, aPage, nextRequest } from '../records/testing';
+import { aCustomer, aPage, nextRequest, recordsTestBed } from '../records/testing';
 import { CustomersPage } from './customers-page';
 
 const CUSTOMERS = [
@@ -36,16 +34,13 @@ describe('CustomersPage', { timeout: 30_000 }, () => {
 
   beforeEach(() => {
     wide.next(true);
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter([
-          { path: 'customers', component: CustomersPage },
-          { path: 'customers/new', component: RouteStandIn, data: { heading: 'Add a customer' } },
-          { path: 'customers/:id', component: RouteStandIn, data: { heading: 'A customer' } },
-        ]),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+    http = recordsTestBed(
+      [
+        { path: 'customers', component: CustomersPage },
+        { path: 'customers/new', component: RouteStandIn, data: { heading: 'Add a customer' } },
+        { path: 'customers/:id', component: RouteStandIn, data: { heading: 'A customer' } },
+      ],
+      [
         {
           provide: BreakpointObserver,
           useValue: {
@@ -53,8 +48,7 @@ describe('CustomersPage', { timeout: 30_000 }, () => {
           },
         },
       ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    );
   });
 
   afterEach(() => http.verify());

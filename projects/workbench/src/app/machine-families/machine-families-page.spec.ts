@@ -1,19 +1,17 @@
 import { BreakpointObserver, type BreakpointState } from '@angular/cdk/layout';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { type HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatSortHarness } from '@angular/material/sort/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
-import { provideRouter, Router } from '@angular/router';
+import { Router } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import type { Role } from '@counterpoise/api';
 import { BehaviorSubject, map } from 'rxjs';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AuthSession } from '../auth/auth-session';
 import { aSession, RouteStandIn } from '../auth/testing';
-import { aFamily, aPage, nextRequest } from '../records/testing';
+import { aFamily, aPage, nextRequest, recordsTestBed } from '../records/testing';
 import { MachineFamiliesPage } from './machine-families-page';
 
 describe('MachineFamiliesPage', { timeout: 30_000 }, () => {
@@ -21,15 +19,12 @@ describe('MachineFamiliesPage', { timeout: 30_000 }, () => {
   const wide = new BehaviorSubject(true);
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter([
-          { path: 'machine-families', component: MachineFamiliesPage },
-          { path: '**', component: RouteStandIn, data: { heading: 'Elsewhere' } },
-        ]),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+    http = recordsTestBed(
+      [
+        { path: 'machine-families', component: MachineFamiliesPage },
+        { path: '**', component: RouteStandIn, data: { heading: 'Elsewhere' } },
+      ],
+      [
         {
           provide: BreakpointObserver,
           useValue: {
@@ -37,8 +32,7 @@ describe('MachineFamiliesPage', { timeout: 30_000 }, () => {
           },
         },
       ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    );
   });
 
   afterEach(() => http.verify());

@@ -1,40 +1,27 @@
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { type HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatButtonToggleHarness } from '@angular/material/button-toggle/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
-import { provideRouter, Router, withComponentInputBinding } from '@angular/router';
+import { Router } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AuthSession } from '../auth/auth-session';
 import { aSession, RouteStandIn } from '../auth/testing';
-import { aFamily, nextRequest } from '../records/testing';
+import { aFamily, nextRequest, recordsTestBed } from '../records/testing';
 import { MachineFamilyFormPage } from './machine-family-form-page';
 
 describe('MachineFamilyFormPage', { timeout: 40_000 }, () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter(
-          [
-            { path: 'machine-families/new', component: MachineFamilyFormPage },
-            { path: 'machine-families/:id', component: RouteStandIn, data: { heading: 'The family' } },
-          ],
-          withComponentInputBinding(),
-        ),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = recordsTestBed([
+      { path: 'machine-families/new', component: MachineFamilyFormPage },
+      { path: 'machine-families/:id', component: RouteStandIn, data: { heading: 'The family' } },
+    ]);
     TestBed.inject(AuthSession).start(aSession('manager'));
   });
 

@@ -1,33 +1,21 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { type HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import type { Role } from '@counterpoise/api';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AuthSession } from '../auth/auth-session';
 import { aSession, RouteStandIn } from '../auth/testing';
-import { aChange, aFamily, nextRequest } from '../records/testing';
+import { aChange, aFamily, nextRequest, recordsTestBed } from '../records/testing';
 import { MachineFamilyPage } from './machine-family-page';
 
 describe('MachineFamilyPage', { timeout: 30_000 }, () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter(
-          [
-            { path: 'machine-families/:id', component: MachineFamilyPage },
-            { path: '**', component: RouteStandIn, data: { heading: 'Elsewhere' } },
-          ],
-          withComponentInputBinding(),
-        ),
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = recordsTestBed([
+      { path: 'machine-families/:id', component: MachineFamilyPage },
+      { path: '**', component: RouteStandIn, data: { heading: 'Elsewhere' } },
+    ]);
   });
 
   afterEach(() => http.verify());

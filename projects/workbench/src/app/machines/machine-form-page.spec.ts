@@ -1,43 +1,30 @@
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { type HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatButtonToggleHarness } from '@angular/material/button-toggle/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { MatSnackBarHarness } from '@angular/material/snack-bar/testing';
-import { provideRouter, Router, withComponentInputBinding } from '@angular/router';
+import { Router } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { CpCorrectionOverlayHarness } from '@counterpoise/ng/correction-overlay/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AuthSession } from '../auth/auth-session';
 import { aSession, RouteStandIn } from '../auth/testing';
-import { aCustomer, aFamily, aMachine, aPage, nextRequest } from '../records/testing';
+import { aCustomer, aFamily, aMachine, aPage, nextRequest, recordsTestBed } from '../records/testing';
 import { MachineFormPage } from './machine-form-page';
 
 describe('MachineFormPage', { timeout: 40_000 }, () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter(
-          [
-            { path: 'machines/new', component: MachineFormPage },
-            { path: 'machines/:id/edit', component: MachineFormPage },
-            { path: 'machines/:id', component: RouteStandIn, data: { heading: 'The machine' } },
-          ],
-          withComponentInputBinding(),
-        ),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = recordsTestBed([
+      { path: 'machines/new', component: MachineFormPage },
+      { path: 'machines/:id/edit', component: MachineFormPage },
+      { path: 'machines/:id', component: RouteStandIn, data: { heading: 'The machine' } },
+    ]);
     TestBed.inject(AuthSession).start(aSession('technician'));
   });
 

@@ -1,35 +1,23 @@
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { type HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import type { Role } from '@counterpoise/api';
 import { CpCorrectionOverlayHarness } from '@counterpoise/ng/correction-overlay/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AuthSession } from '../auth/auth-session';
 import { aSession, RouteStandIn } from '../auth/testing';
-import { aChange, aMachine, nextRequest } from '../records/testing';
+import { aChange, aMachine, nextRequest, recordsTestBed } from '../records/testing';
 import { MachinePage } from './machine-page';
 
 describe('MachinePage', { timeout: 30_000 }, () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter(
-          [
-            { path: 'machines/:id', component: MachinePage },
-            { path: '**', component: RouteStandIn, data: { heading: 'Elsewhere' } },
-          ],
-          withComponentInputBinding(),
-        ),
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = recordsTestBed([
+      { path: 'machines/:id', component: MachinePage },
+      { path: '**', component: RouteStandIn, data: { heading: 'Elsewhere' } },
+    ]);
   });
 
   afterEach(() => http.verify());

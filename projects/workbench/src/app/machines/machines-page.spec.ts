@@ -1,20 +1,18 @@
 import { BreakpointObserver, type BreakpointState } from '@angular/cdk/layout';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { type HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
-import { provideRouter, Router } from '@angular/router';
+import { Router } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { BehaviorSubject, map } from 'rxjs';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AuthSession } from '../auth/auth-session';
 import { aSession, RouteStandIn } from '../auth/testing';
-import { aCustomer, aFamily, aMachine, aPage, nextRequest } from '../records/testing';
+import { aCustomer, aFamily, aMachine, aPage, nextRequest, recordsTestBed } from '../records/testing';
 import { MachinesPage } from './machines-page';
 
 describe('MachinesPage', { timeout: 30_000 }, () => {
@@ -23,15 +21,12 @@ describe('MachinesPage', { timeout: 30_000 }, () => {
 
   beforeEach(() => {
     wide.next(true);
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter([
-          { path: 'machines', component: MachinesPage },
-          { path: '**', component: RouteStandIn, data: { heading: 'Elsewhere' } },
-        ]),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+    http = recordsTestBed(
+      [
+        { path: 'machines', component: MachinesPage },
+        { path: '**', component: RouteStandIn, data: { heading: 'Elsewhere' } },
+      ],
+      [
         {
           provide: BreakpointObserver,
           useValue: {
@@ -39,8 +34,7 @@ describe('MachinesPage', { timeout: 30_000 }, () => {
           },
         },
       ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    );
     TestBed.inject(AuthSession).start(aSession('technician'));
   });
 
