@@ -3,7 +3,7 @@ import { PROBLEM_MEDIA_TYPE, type RecordHistory, RecordHistorySchema } from '@co
 import type { Response } from 'express';
 import * as z from 'zod';
 import { IdParamSchema } from '../http/params';
-import type { RouteTable } from '../http/route';
+import type { RouteDeclaration, RouteTable } from '../http/route';
 import type { Actor } from './change-log';
 import { answerChangedMeanwhile, etagOf, ifMatchVersions, requireIfMatch } from './versions';
 
@@ -120,6 +120,39 @@ export function addRecordRoutes<
     content: { [PROBLEM_MEDIA_TYPE]: { schema: schemas.changedMeanwhile } },
   };
   const versionRequired = 'No `If-Match` header, or `If-Match: *` (`code`: `VERSION_REQUIRED`).';
+  /** Archive and restore: the same route but for what it does and how it is described. */
+  const archiveRoute = (
+    action: 'archive' | 'restore',
+    summary: string,
+    description: string,
+    answer: string,
+  ): RouteDeclaration<
+    RecordAccess,
+    typeof IdParamSchema,
+    undefined,
+    undefined,
+    z.ZodType,
+    typeof IF_MATCH_HEADERS
+  > => ({
+    method: 'post',
+    path: `${one}/${action}`,
+    summary,
+    description: `${description} ${IF_MATCH_RULE}`,
+    access: 'archive',
+    params: IdParamSchema,
+    headers: IF_MATCH_HEADERS,
+    before: [requireIfMatch],
+    answer: {
+      status: 200,
+      description: answer,
+      schema: schemas.record,
+      example: examples.record,
+      headers: ETAG_HEADER,
+    },
+    problems: { 404: notFound, 412: changedMeanwhile, 428: versionRequired },
+    handle: ({ params, res }) =>
+      withEtag(res, service[action](actorOf(res), params.id, ifMatchVersions(res.locals))),
+  });
   const rules = spec.rules === undefined ? '' : ` ${spec.rules}`;
 
   table
@@ -210,46 +243,22 @@ export function addRecordRoutes<
       handle: ({ params, body, res }) =>
         withEtag(res, service.update(actorOf(res), params.id, ifMatchVersions(res.locals), body)),
     })
-    .add<typeof IdParamSchema, undefined, undefined, z.ZodType, typeof IF_MATCH_HEADERS>({
-      method: 'post',
-      path: `${one}/archive`,
-      summary: `Archive a ${noun}`,
-      description: `Takes the ${noun} out of the lists in use; nothing is deleted, and it can be restored. ${IF_MATCH_RULE}`,
-      access: 'archive',
-      params: IdParamSchema,
-      headers: IF_MATCH_HEADERS,
-      before: [requireIfMatch],
-      answer: {
-        status: 200,
-        description: `The ${noun}, with \`archivedAt\` set.`,
-        schema: schemas.record,
-        example: examples.record,
-        headers: ETAG_HEADER,
-      },
-      problems: { 404: notFound, 412: changedMeanwhile, 428: versionRequired },
-      handle: ({ params, res }) =>
-        withEtag(res, service.archive(actorOf(res), params.id, ifMatchVersions(res.locals))),
-    })
-    .add<typeof IdParamSchema, undefined, undefined, z.ZodType, typeof IF_MATCH_HEADERS>({
-      method: 'post',
-      path: `${one}/restore`,
-      summary: `Restore an archived ${noun}`,
-      description: `Puts the ${noun} back in use. ${IF_MATCH_RULE}`,
-      access: 'archive',
-      params: IdParamSchema,
-      headers: IF_MATCH_HEADERS,
-      before: [requireIfMatch],
-      answer: {
-        status: 200,
-        description: `The ${noun}, with \`archivedAt\` null.`,
-        schema: schemas.record,
-        example: examples.record,
-        headers: ETAG_HEADER,
-      },
-      problems: { 404: notFound, 412: changedMeanwhile, 428: versionRequired },
-      handle: ({ params, res }) =>
-        withEtag(res, service.restore(actorOf(res), params.id, ifMatchVersions(res.locals))),
-    })
+    .add(
+      archiveRoute(
+        'archive',
+        `Archive a ${noun}`,
+        `Takes the ${noun} out of the lists in use; nothing is deleted, and it can be restored.`,
+        `The ${noun}, with \`archivedAt\` set.`,
+      ),
+    )
+    .add(
+      archiveRoute(
+        'restore',
+        `Restore an archived ${noun}`,
+        `Puts the ${noun} back in use.`,
+        `The ${noun}, with \`archivedAt\` null.`,
+      ),
+    )
     .add<typeof IdParamSchema, undefined, undefined, typeof RecordHistorySchema>({
       method: 'get',
       path: `${one}/history`,
