@@ -7,9 +7,9 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { AuthSession } from '../auth/auth-session';
+import { RecordHistorySection } from '../records/record-history-section';
 import { RecordPageHeader } from '../records/record-page-header';
 import { type Machine, MachinesApi } from '../machines/machines.api';
-import { ChangeHistory } from '../records/change-history';
 import { idFromRoute, recordView } from '../records/record-page';
 import { httpErrorMessage } from '../shell/server-errors';
 import { CUSTOMER_FIELDS } from './customer-form-model';
@@ -25,8 +25,8 @@ const MACHINES_SHOWN = 100;
 @Component({
   selector: 'app-customer-page',
   imports: [
+    RecordHistorySection,
     RecordPageHeader,
-    ChangeHistory,
     DatePipe,
     MatButtonModule,
     MatIconModule,

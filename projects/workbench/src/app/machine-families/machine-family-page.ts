@@ -4,8 +4,8 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
+import { RecordHistorySection } from '../records/record-history-section';
 import { RecordPageHeader } from '../records/record-page-header';
-import { ChangeHistory } from '../records/change-history';
 import {
   AMPLITUDE_UNIT_LABELS,
   describeAcceptance,
@@ -26,8 +26,8 @@ import { MachineFamiliesApi } from './machine-families.api';
 @Component({
   selector: 'app-machine-family-page',
   imports: [
+    RecordHistorySection,
     RecordPageHeader,
-    ChangeHistory,
     DatePipe,
     MatButtonModule,
     MatIconModule,

@@ -5,8 +5,8 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
 import { CpCorrectionOverlay } from '@counterpoise/ng/correction-overlay';
+import { RecordHistorySection } from '../records/record-history-section';
 import { RecordPageHeader } from '../records/record-page-header';
-import { ChangeHistory } from '../records/change-history';
 import {
   describeAcceptance,
   formatDeg,
@@ -30,8 +30,8 @@ import { type Machine, MachinesApi, type PlaneLayout } from './machines.api';
 @Component({
   selector: 'app-machine-page',
   imports: [
+    RecordHistorySection,
     RecordPageHeader,
-    ChangeHistory,
     CpCorrectionOverlay,
     DatePipe,
     MatButtonModule,
