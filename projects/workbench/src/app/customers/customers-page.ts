@@ -1,20 +1,15 @@
-import { BreakpointObserver } from '@angular/cdk/layout';
+import { wideTable } from '../shell/wide-table';
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
-import { map } from 'rxjs';
 import { AuthSession } from '../auth/auth-session';
 import { recordList } from '../records/record-list';
 import { RecordListFilters, RecordListFrame } from '../records/record-list-frame';
 import { type Customer, CustomersApi, type CustomerSortField } from './customers.api';
-
-/** Below this width the e-mail address and phone move under the name, so that the table fits a phone. */
-const WIDE_TABLE = '(min-width: 720px)';
 
 /**
  * The shop's customers: searched, filtered, sorted and paged by the server, with the query kept in the
@@ -48,12 +43,8 @@ export class CustomersPage {
   });
   protected readonly state = this.records.state;
 
-  private readonly wide = toSignal(
-    inject(BreakpointObserver)
-      .observe(WIDE_TABLE)
-      .pipe(map((state) => state.matches)),
-    { initialValue: true },
-  );
+  /** Below the wide-table width the e-mail address and phone move under the name, so that the table fits a phone. */
+  private readonly wide = wideTable();
   protected readonly columns = computed(() =>
     this.wide() ? ['name', 'email', 'phone', 'machineCount', 'updatedAt'] : ['name', 'machineCount'],
   );

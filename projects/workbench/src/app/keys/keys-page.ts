@@ -1,4 +1,4 @@
-import { BreakpointObserver } from '@angular/cdk/layout';
+import { wideTable } from '../shell/wide-table';
 import { DatePipe, NgTemplateOutlet } from '@angular/common';
 import {
   afterNextRender,
@@ -12,7 +12,6 @@ import {
   signal,
   viewChild,
 } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -20,16 +19,13 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import type { ApiKeySummary } from '@counterpoise/api';
-import { filter, map, switchMap } from 'rxjs';
+import { filter, switchMap } from 'rxjs';
 import { AuthSession } from '../auth/auth-session';
 import { askToConfirm } from '../shell/confirm-dialog';
 import { httpErrorMessage } from '../shell/server-errors';
 import { API_REFERENCE_URL } from '../status/health.api';
 import { CreateKeyDialog } from './create-key-dialog';
 import { KeysApi } from './keys.api';
-
-/** Below this width a key's details stack in one column, so that the table fits a phone. */
-const WIDE_TABLE = '(min-width: 720px)';
 
 /**
  * The organisation's API keys: creating one (shown once, with a copy button), what each is called, how it
@@ -67,12 +63,8 @@ export class KeysPage {
         Date.parse(b.createdAt) - Date.parse(a.createdAt),
     ),
   );
-  private readonly wide = toSignal(
-    inject(BreakpointObserver)
-      .observe(WIDE_TABLE)
-      .pipe(map((state) => state.matches)),
-    { initialValue: true },
-  );
+  /** Below the wide-table width a key's details stack in one column, so that the table fits a phone. */
+  private readonly wide = wideTable();
   protected readonly columns = computed(() =>
     this.wide() ? ['name', 'prefix', 'createdAt', 'lastUsedAt', 'limitPerMinute', 'actions'] : ['summary'],
   );

@@ -1,21 +1,16 @@
-import { BreakpointObserver } from '@angular/cdk/layout';
+import { wideTable } from '../shell/wide-table';
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
-import { map } from 'rxjs';
 import { AuthSession } from '../auth/auth-session';
 import { recordList } from '../records/record-list';
 import { RecordListFilters, RecordListFrame } from '../records/record-list-frame';
 import { formatNumber, ROTOR_TYPE_LABELS } from '../records/record-labels';
 import { MachineFamiliesApi, type MachineFamily, type MachineFamilySortField } from './machine-families.api';
-
-/** Below this width the speed and planes move under the name, so that the table fits a phone. */
-const WIDE_TABLE = '(min-width: 720px)';
 
 /**
  * The shop's machine families (a model range whose rotors answer a weight alike): searched, sorted and paged
@@ -48,12 +43,8 @@ export class MachineFamiliesPage {
   });
   protected readonly state = this.records.state;
 
-  private readonly wide = toSignal(
-    inject(BreakpointObserver)
-      .observe(WIDE_TABLE)
-      .pipe(map((state) => state.matches)),
-    { initialValue: true },
-  );
+  /** Below the wide-table width the speed and planes move under the name, so that the table fits a phone. */
+  private readonly wide = wideTable();
   protected readonly columns = computed(() =>
     this.wide()
       ? ['name', 'rotorType', 'nominalSpeedRpm', 'planeCount', 'machineCount', 'updatedAt']

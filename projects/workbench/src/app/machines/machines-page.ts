@@ -1,7 +1,7 @@
-import { BreakpointObserver } from '@angular/cdk/layout';
+import { wideTable } from '../shell/wide-table';
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, DestroyRef, effect, inject } from '@angular/core';
-import { rxResource, takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
+import { rxResource, takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormControl } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -10,7 +10,6 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
-import { map } from 'rxjs';
 import { AuthSession } from '../auth/auth-session';
 import { recordList } from '../records/record-list';
 import { RecordListFilters, RecordListFrame } from '../records/record-list-frame';
@@ -18,9 +17,6 @@ import { type CustomerChoice, CustomerPicker, isCustomerRef } from '../customers
 import { CustomersApi } from '../customers/customers.api';
 import { MachineFamiliesApi } from '../machine-families/machine-families.api';
 import { type Machine, MachinesApi, type MachineSortField } from './machines.api';
-
-/** Below this width the customer and family move under the serial number, so that the table fits a phone. */
-const WIDE_TABLE = '(min-width: 720px)';
 
 /** The families the filter offers. */
 const FAMILIES_OFFERED = 100;
@@ -74,12 +70,8 @@ export class MachinesPage {
   );
   protected readonly familyFilter = computed(() => this.state().filters['familyId'] ?? null);
 
-  private readonly wide = toSignal(
-    inject(BreakpointObserver)
-      .observe(WIDE_TABLE)
-      .pipe(map((state) => state.matches)),
-    { initialValue: true },
-  );
+  /** Below the wide-table width the customer and family move under the serial number, so that the table fits a phone. */
+  private readonly wide = wideTable();
   protected readonly columns = computed(() =>
     this.wide()
       ? ['serialNumber', 'makeModel', 'customerName', 'familyName', 'updatedAt']

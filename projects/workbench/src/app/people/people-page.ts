@@ -1,4 +1,4 @@
-import { BreakpointObserver } from '@angular/cdk/layout';
+import { wideTable } from '../shell/wide-table';
 import { DatePipe } from '@angular/common';
 import {
   afterNextRender,
@@ -10,7 +10,6 @@ import {
   inject,
   signal,
 } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -22,7 +21,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatSortModule, type Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { invitableRoles, mayChangeRole, mayChangeStatus, type User } from '@counterpoise/api';
-import { filter, map, switchMap, tap } from 'rxjs';
+import { filter, switchMap, tap } from 'rxjs';
 import type { Invitation, UpdatePerson } from '../auth/api-types';
 import { AuthSession } from '../auth/auth-session';
 import { ROLE_LABELS } from '../auth/roles';
@@ -32,9 +31,6 @@ import { ChangeRoleDialog } from './change-role-dialog';
 import { InviteDialog, type InviteDialogData, type InviteOutcome } from './invite-dialog';
 import { sortAndFilterPeople, STATUS_LABELS } from './people-rules';
 import { PeopleApi } from './people.api';
-
-/** Below this width the e-mail address and the status move under the name, so that the table fits a phone. */
-const WIDE_TABLE = '(min-width: 720px)';
 
 /**
  * The people of the organisation: a sortable, filterable table, the pending invitations, and for those
@@ -78,12 +74,8 @@ export class PeoplePage {
     ),
   );
 
-  private readonly wide = toSignal(
-    inject(BreakpointObserver)
-      .observe(WIDE_TABLE)
-      .pipe(map((state) => state.matches)),
-    { initialValue: true },
-  );
+  /** Below the wide-table width the e-mail address and the status move under the name, so that the table fits a phone. */
+  private readonly wide = wideTable();
   protected readonly columns = computed(() =>
     this.wide() ? ['name', 'email', 'role', 'status', 'actions'] : ['name', 'role', 'actions'],
   );
