@@ -35,7 +35,6 @@ import {
 } from './auth.examples';
 import { cookieOf, requireUser } from './require-user';
 import { refuseCrossSite, requireSameOrigin } from './same-origin';
-import { retryAfterHeader } from './too-many-requests';
 
 /** Where the refresh cookie is sent: the session routes only, never the rest of the API. */
 export const REFRESH_COOKIE_PATH = '/api/v1/auth';
@@ -276,6 +275,5 @@ export function authRoutes(auth: AuthService, options: AuthRouterOptions = {}): 
       },
     });
 
-  table.router.use(retryAfterHeader);
   return table;
 }

@@ -1,8 +1,9 @@
-import type { ErrorRequestHandler } from 'express';
 import { HttpProblem } from '../http/problem';
 
-/** A 429 problem that says how long to wait; the accounts routers answer it with `Retry-After`. */
+/** A 429 problem that says how long to wait: it is answered with `Retry-After`, whichever layer refused. */
 export class TooManyRequests extends HttpProblem {
+  override readonly headers: Readonly<Record<string, string>>;
+
   constructor(
     detail: string,
     code: string,
@@ -10,17 +11,6 @@ export class TooManyRequests extends HttpProblem {
     readonly retryAfterSeconds: number,
   ) {
     super(429, 'Too Many Requests', detail, undefined, 'about:blank', code);
+    this.headers = { 'Retry-After': String(retryAfterSeconds) };
   }
 }
-
-/**
- * Sets `Retry-After` on the answer of a `TooManyRequests` problem, then hands the problem on to the
- * final handler. Mounted last in the accounts routers, so that every refusal of theirs tells the client
- * when to come back, whichever layer refused.
- */
-export const retryAfterHeader: ErrorRequestHandler = (error, _req, res, next) => {
-  if (error instanceof TooManyRequests && !res.headersSent) {
-    res.setHeader('Retry-After', String(error.retryAfterSeconds));
-  }
-  next(error);
-};

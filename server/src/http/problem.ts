@@ -19,6 +19,17 @@ export class HttpProblem extends Error {
     super(detail ?? title);
   }
 
+  /**
+   * Headers the answer carries beside the problem (`Retry-After` of a 429, the `ETag` of the record a
+   * 412 names). A subclass sets them, so that the final handler writes every problem the same way.
+   */
+  readonly headers?: Readonly<Record<string, string>>;
+  /**
+   * Extension members of the problem (RFC 9457 section 3.2), such as the stored record of a 412; the
+   * standard members always win over an extension of the same name.
+   */
+  readonly extensions?: Readonly<Record<string, unknown>>;
+
   /** The error that answers with `problem` (its `instance` is set from the request). */
   static from(problem: Problem): HttpProblem {
     return new HttpProblem(
@@ -172,7 +183,9 @@ export function problemHandler(log: (message: string, error: unknown) => void): 
     }
     const instance = req.originalUrl.split('?')[0];
     if (error instanceof HttpProblem) {
+      if (error.headers) res.set(error.headers);
       sendProblem(res, {
+        ...error.extensions,
         type: error.type,
         title: error.title,
         status: error.status,

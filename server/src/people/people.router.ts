@@ -19,7 +19,6 @@ import {
 import type { AuthService } from '../auth/auth.service';
 import { type ClientLimits, clientLimiter, defaultLimitInWords } from '../auth/client-limits';
 import { refuseCrossSite } from '../auth/same-origin';
-import { retryAfterHeader } from '../auth/too-many-requests';
 import { IdParamSchema, TokenParamSchema } from '../http/params';
 import { type AccessRule, type FeatureRoutes, RouteTable } from '../http/route';
 import { problemResponse, SET_COOKIE_HEADER } from '../openapi/responses';
@@ -184,6 +183,5 @@ export function peopleRoutes(deps: {
         return undefined;
       },
     });
-  table.router.use(retryAfterHeader);
   return table;
 }

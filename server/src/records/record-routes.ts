@@ -5,7 +5,7 @@ import * as z from 'zod';
 import { IdParamSchema } from '../http/params';
 import type { RouteDeclaration, RouteTable } from '../http/route';
 import type { Actor } from './change-log';
-import { answerChangedMeanwhile, etagOf, ifMatchVersions, requireIfMatch } from './versions';
+import { etagOf, ifMatchVersions, requireIfMatch } from './versions';
 
 /** Where the records' routes are mounted: the signed-in `/api/v1` router. */
 export const RECORDS_BASE_PATH = '/api/v1';
@@ -275,7 +275,4 @@ export function addRecordRoutes<
       problems: { 404: notFound },
       handle: ({ params, res }) => service.history(actorOf(res), params.id),
     });
-
-  // The 412 answer carries the stored record, which the app's problem handler would leave out.
-  table.router.use(answerChangedMeanwhile);
 }

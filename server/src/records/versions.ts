@@ -1,5 +1,5 @@
-import type { ErrorRequestHandler, RequestHandler } from 'express';
-import { PROBLEM_MEDIA_TYPE, RECORDS_PROBLEM_CODES } from '@counterpoise/api';
+import type { RequestHandler } from 'express';
+import { RECORDS_PROBLEM_CODES } from '@counterpoise/api';
 import { HttpProblem } from '../http/problem';
 
 declare global {
@@ -90,6 +90,9 @@ export function ifMatchVersions(locals: { ifMatchVersions?: readonly number[] })
  * now, so that the screen can show what changed meanwhile and offer to merge or reload.
  */
 export class ChangedMeanwhile extends HttpProblem {
+  override readonly headers: Readonly<Record<string, string>>;
+  override readonly extensions: Readonly<Record<string, unknown>>;
+
   constructor(
     readonly current: { readonly version: number },
     noun: string,
@@ -103,33 +106,11 @@ export class ChangedMeanwhile extends HttpProblem {
       'about:blank',
       RECORDS_PROBLEM_CODES.changedMeanwhile,
     );
+    // The stored record and its ETag go with the problem, so that the client can merge or reload.
+    this.headers = { ETag: etagOf(current.version) };
+    this.extensions = { current };
   }
 }
-
-/**
- * Answers a `ChangedMeanwhile` with the problem, the current record in `current` and its ETag; passes
- * every other error on. Mounted after a feature's routes: the app's own problem handler writes only the
- * standard members.
- */
-export const answerChangedMeanwhile: ErrorRequestHandler = (error: unknown, req, res, next) => {
-  if (!(error instanceof ChangedMeanwhile) || res.headersSent) {
-    next(error);
-    return;
-  }
-  res
-    .status(412)
-    .type(PROBLEM_MEDIA_TYPE)
-    .set('ETag', etagOf(error.current.version))
-    .json({
-      type: error.type,
-      title: error.title,
-      status: error.status,
-      detail: error.detail,
-      code: error.code,
-      instance: req.originalUrl.split('?')[0],
-      current: error.current,
-    });
-};
 
 /**
  * Refuses a change unless the stored version is one the client named (412 with the stored record).
