@@ -10,8 +10,8 @@ import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
   pointAtAngle,
-  type Rotation,
-  type AngleCounting,
+  type RotationDirection,
+  type RotationCounting,
 } from '../../projects/counterpoise/core/dial-geometry';
 import { DEMO_PASSWORD } from '../../server/src/auth/accounts.seed';
 import { type Browser, launchChromium } from './support/chromium';
@@ -75,8 +75,8 @@ async function screenPointOf(plane: Locator, angleDeg: number, radiusFraction: n
       cy: Number(svg.getAttribute('data-center-y')),
       radius: Number(svg.getAttribute('data-radius')),
       zero: Number(svg.getAttribute('data-zero-at-deg')),
-      rotation: svg.getAttribute('data-rotation') as Rotation,
-      counting: svg.getAttribute('data-counting') as AngleCounting,
+      rotation: svg.getAttribute('data-rotation') as RotationDirection,
+      counting: svg.getAttribute('data-counting') as RotationCounting,
       width: Number(svg.getAttribute('viewBox')?.split(' ')[2]),
     })),
     drawing.boundingBox(),

@@ -59,7 +59,7 @@ describe('the Widgets page', () => {
     await page.goto(`${server.url}/widgets`);
     const calculator = page.locator('cp-weight-calculator');
     await calculator.getByRole('heading', { name: 'Correction weight calculator' }).waitFor();
-    // The on-device engine and the overlay of the result are fetched while the page is idle.
+    // The on-device solver and the overlay of the result are fetched while the page is idle.
     await page.waitForLoadState('networkidle');
     await browser.context.setOffline(true);
     try {

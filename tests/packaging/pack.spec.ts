@@ -139,11 +139,11 @@ describe('the packed packages', () => {
         'core/_safety-notice-theme.scss',
       ]),
     );
-    // Every entry that renders something ships its theme mixins; the engine entry renders nothing.
+    // Every entry that renders something ships its theme mixins; the solver entry renders nothing.
     const rendering = entries
       .filter((entry) => entry.specifier.startsWith('@counterpoise/ng/'))
       .map((entry) => entry.specifier.slice('@counterpoise/ng/'.length))
-      .filter((folder) => folder !== 'engine');
+      .filter((folder) => folder !== 'solver');
     for (const folder of rendering) {
       const theme = files.find((path) => new RegExp(`^${folder}/_[\\w-]+-theme\\.scss$`).test(path));
       expect(theme, `${folder} ships no _<widget>-theme.scss`).toBeDefined();

@@ -7,16 +7,20 @@
  * on screen at `zeroAtDeg`, measured clockwise from 12 o'clock (0 top, 90 right, 180 bottom, 270 left).
  */
 
-/** The way the rotor turns, as seen by the viewer. */
-export type Rotation = 'clockwise' | 'counterClockwise';
+/** The way the rotor turns, as seen by the viewer (the engine's `RotationDirection`, the same values). */
+export type RotationDirection = 'clockwise' | 'counterClockwise';
 
-/** Which way angles are counted from the reference mark. */
-export type AngleCounting = 'withRotation' | 'againstRotation';
+/**
+ * Which way the widgets count angles from the reference mark: relative to the rotation, so a value means
+ * the same seen from either end. (The engine's `AngleCounting` also allows counting fixed to the screen,
+ * `clockwise` or `counterClockwise`; the widgets do not, hence a name of their own.)
+ */
+export type RotationCounting = 'withRotation' | 'againstRotation';
 
 /** How rotor angles map onto the screen. */
 export interface DialConvention {
-  readonly rotation: Rotation;
-  readonly counting: AngleCounting;
+  readonly rotation: RotationDirection;
+  readonly counting: RotationCounting;
   /** Where the reference mark sits on screen, clockwise from 12 o'clock, in degrees. */
   readonly zeroAtDeg: number;
 }
@@ -141,7 +145,7 @@ export function isAllowedPosition(angleDeg: number, positions: readonly number[]
 }
 
 /** The angle in words, as a screen reader speaks it: "123 degrees, counted with rotation from the reference mark". */
-export function describeAngle(angleDeg: number, counting: AngleCounting): string {
+export function describeAngle(angleDeg: number, counting: RotationCounting): string {
   const rounded = Math.round(angleDeg * 10) / 10;
   const direction = counting === 'withRotation' ? 'with' : 'against';
   return `${rounded} degrees, counted ${direction} rotation from the reference mark`;

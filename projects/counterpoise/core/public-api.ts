@@ -23,9 +23,9 @@ export {
   screenAngleOfPoint,
   screenSense,
   snapAngle,
-  type AngleCounting,
+  type RotationCounting,
   type DialConvention,
   type DialPositions,
-  type Rotation,
+  type RotationDirection,
   type ScreenPoint,
 } from './dial-geometry';

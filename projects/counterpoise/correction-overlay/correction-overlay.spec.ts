@@ -3,7 +3,7 @@ import { ChangeDetectionStrategy, Component, signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { describe, expect, it } from 'vitest';
-import type { AngleCounting, Rotation } from '@counterpoise/ng/core';
+import type { RotationCounting, RotationDirection } from '@counterpoise/ng/core';
 import { CpCorrectionOverlayHarness } from '@counterpoise/ng/correction-overlay/testing';
 import { CpCorrectionOverlay } from './correction-overlay';
 import type {
@@ -42,8 +42,8 @@ const PIXEL = 'data:image/gif;base64,R0lGODlhAQABAAAAACH5BAEKAAEALAAAAAABAAEAAAI
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 class Host {
-  readonly rotation = signal<Rotation>('clockwise');
-  readonly counting = signal<AngleCounting>('againstRotation');
+  readonly rotation = signal<RotationDirection>('clockwise');
+  readonly counting = signal<RotationCounting>('againstRotation');
   readonly zeroAtDeg = signal(0);
   readonly sensorAngleDeg = signal<number | null>(90);
   readonly heavySpotDeg = signal<number | null>(280);

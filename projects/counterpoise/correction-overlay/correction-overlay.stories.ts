@@ -1,7 +1,7 @@
 import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
 import { type Meta, type StoryObj, moduleMetadata } from '@storybook/angular-vite';
 import { expect, fireEvent, fn, waitFor } from 'storybook/test';
-import { type AngleCounting, type Rotation, pointAtAngle } from '@counterpoise/ng/core';
+import { type RotationCounting, type RotationDirection, pointAtAngle } from '@counterpoise/ng/core';
 import { CpCorrectionOverlay } from './correction-overlay';
 import type { BlockedSector, OverlayPoint, OverlayWeight, RotorPhoto } from './overlay-model';
 
@@ -61,8 +61,8 @@ function pointOnRotor(canvasElement: HTMLElement, angleDeg: number, radiusFracti
     Number(data('radius')) * radiusFraction,
     angleDeg,
     {
-      rotation: data('rotation') as Rotation,
-      counting: data('counting') as AngleCounting,
+      rotation: data('rotation') as RotationDirection,
+      counting: data('counting') as RotationCounting,
       zeroAtDeg: Number(data('zero-at-deg')),
     },
   );

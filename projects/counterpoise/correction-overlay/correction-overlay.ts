@@ -18,10 +18,10 @@ import {
 } from '@angular/core';
 import { type ControlValueAccessor, NG_VALUE_ACCESSOR } from '@angular/forms';
 import {
-  type AngleCounting,
+  type RotationCounting,
   type DialConvention,
   type DialPositions,
-  type Rotation,
+  type RotationDirection,
   type ScreenPoint,
   angleAtPoint,
   describeAngle,
@@ -120,9 +120,9 @@ function isOverlayPoint(value: unknown): value is OverlayPoint {
 })
 export class CpCorrectionOverlay implements ControlValueAccessor {
   /** The way the rotor turns, as seen in this end view. */
-  readonly rotation = input<Rotation>('clockwise');
+  readonly rotation = input<RotationDirection>('clockwise');
   /** Which way angles are counted from the reference mark. */
-  readonly counting = input<AngleCounting>('againstRotation');
+  readonly counting = input<RotationCounting>('againstRotation');
   /** Where the reference mark is drawn, clockwise from 12 o'clock; a calibrated photo overrides it. */
   readonly zeroAtDeg = input(0);
   /** The rotor angle in line with the sensor, drawn as a line from the centre; none when null. */

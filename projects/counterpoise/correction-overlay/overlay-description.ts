@@ -2,7 +2,7 @@
  * The overlay's words: the short labels drawn beside each element, and the text alternative that says in
  * sentences everything the drawing shows. Framework-free, so both are tested without TestBed.
  */
-import { type AngleCounting, type Rotation, normalizeDeg } from '@counterpoise/ng/core';
+import { type RotationCounting, type RotationDirection, normalizeDeg } from '@counterpoise/ng/core';
 import { sectorContaining, sectorSweepDeg } from './overlay-geometry';
 import type { BlockedSector, OverlayPoint, OverlayWeight } from './overlay-model';
 
@@ -60,9 +60,9 @@ export type PhotoState = 'none' | 'calibrated' | 'uncalibrated' | 'failed';
 /** Everything the text alternative speaks of. */
 export interface OverlayDescriptionInput {
   /** The way the rotor turns in the view. */
-  readonly rotation: Rotation;
+  readonly rotation: RotationDirection;
   /** Which way angles are counted. */
-  readonly counting: AngleCounting;
+  readonly counting: RotationCounting;
   /** The screen angle the reference mark is drawn at, clockwise from 12 o'clock. */
   readonly zeroScreenDeg: number;
   /** The angle in line with the sensor, if drawn. */
@@ -88,7 +88,7 @@ export interface OverlayDescriptionInput {
 function weightSentence(
   kind: string,
   weight: OverlayWeight,
-  counting: AngleCounting,
+  counting: RotationCounting,
   sectors: readonly BlockedSector[],
 ): string {
   const direction = counting === 'withRotation' ? 'with' : 'against';

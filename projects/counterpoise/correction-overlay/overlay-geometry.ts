@@ -5,7 +5,7 @@
  */
 import {
   type DialConvention,
-  type Rotation,
+  type RotationDirection,
   type ScreenPoint,
   angularDistanceDeg,
   normalizeDeg,
@@ -210,7 +210,7 @@ export function rotationArrow(
   radius: number,
   atScreenDeg: number,
   spanDeg: number,
-  rotation: Rotation,
+  rotation: RotationDirection,
 ): { readonly path: string; readonly head: string } {
   const direction = rotation === 'clockwise' ? 1 : -1;
   const start = atScreenDeg - (direction * spanDeg) / 2;

@@ -3,9 +3,9 @@
  * that the component's template only copies numbers into SVG and the layout is tested without TestBed.
  */
 import {
-  type AngleCounting,
+  type RotationCounting,
   type DialConvention,
-  type Rotation,
+  type RotationDirection,
   type ScreenPoint,
   pointAtAngle,
   pointAtScreenAngle,
@@ -34,9 +34,9 @@ export interface OverlaySceneInput {
   /** Where the rotor is on it. */
   readonly frame: OverlayFrame;
   /** The way the rotor turns in the view. */
-  readonly rotation: Rotation;
+  readonly rotation: RotationDirection;
   /** Which way angles are counted. */
-  readonly counting: AngleCounting;
+  readonly counting: RotationCounting;
   /** The angle in line with the sensor; none when null. */
   readonly sensorAngleDeg: number | null;
   /** The heavy spot; none when null. */

@@ -3,7 +3,7 @@
  * what a screen reader hears. Framework-free, so it is tested without TestBed; the component is a thin
  * shell over it.
  */
-import { type AngleCounting, describeAngle, isAllowedPosition, normalizeDeg } from '@counterpoise/ng/core';
+import { type RotationCounting, describeAngle, isAllowedPosition, normalizeDeg } from '@counterpoise/ng/core';
 
 /** What a marker on the dial stands for. */
 export type PhaseDialMarkerKind = 'heavySpot' | 'trialWeight' | 'correction' | 'reading';
@@ -187,7 +187,7 @@ export function phaseDialErrors(
 }
 
 /** What a screen reader hears: "123 degrees, counted with rotation from the reference mark", or that none is set. */
-export function dialValueText(value: number | null, counting: AngleCounting): string {
+export function dialValueText(value: number | null, counting: RotationCounting): string {
   return value === null ? NO_ANGLE_TEXT : describeAngle(value, counting);
 }
 

@@ -26,10 +26,10 @@ import {
   type Validator,
 } from '@angular/forms';
 import {
-  type AngleCounting,
+  type RotationCounting,
   type DialConvention,
   type DialPositions,
-  type Rotation,
+  type RotationDirection,
   angleAtPoint,
   expandPositions,
   snapAngle,
@@ -103,9 +103,9 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
   /** The angle in degrees from the reference mark, in [0, 360); null when none is set. */
   readonly value = model<number | null>(null);
   /** The way the rotor turns as seen by the viewer. */
-  readonly rotation = input<Rotation>('clockwise');
+  readonly rotation = input<RotationDirection>('clockwise');
   /** Whether angles count with or against the rotation. */
-  readonly counting = input<AngleCounting>('againstRotation');
+  readonly counting = input<RotationCounting>('againstRotation');
   /** Where the reference mark (0) sits on screen, in degrees clockwise from 12 o'clock. */
   readonly zeroAtDeg = input(0, { transform: numberAttribute });
   /** Degrees per arrow key press, and the pointer's resolution when there are no positions. */

@@ -21,4 +21,4 @@ export {
   type PhaseDialMarkerKind,
 } from './phase-dial-values';
 export { MARKER_GLYPHS, type MarkerGlyph } from './phase-dial-drawing';
-export type { AngleCounting, DialPositions, Rotation } from '@counterpoise/ng/core';
+export type { RotationCounting, DialPositions, RotationDirection } from '@counterpoise/ng/core';

@@ -7,7 +7,7 @@ import {
   normalizeDeg,
   pointAtAngle,
   pointAtScreenAngle,
-  type Rotation,
+  type RotationDirection,
   screenAngleDeg,
   type ScreenPoint,
 } from '@counterpoise/ng/core';
@@ -406,7 +406,7 @@ function referenceMark(frame: { center: ScreenPoint; radius: number; convention:
 export function rotationGlyph(
   center: ScreenPoint,
   radius: number,
-  rotation: Rotation,
+  rotation: RotationDirection,
 ): { arcPath: string; headPath: string } {
   const clockwise = rotation === 'clockwise';
   const r = (v: number) => Math.round(v * 100) / 100;

@@ -2,7 +2,7 @@
  * What the polar plot says about its points, in words and in keyboard moves. Framework-free, so it is tested
  * without TestBed; the component only draws it.
  */
-import { type AngleCounting } from '@counterpoise/ng/core';
+import { type RotationCounting } from '@counterpoise/ng/core';
 import {
   formatAmplitude,
   formatAngle,
@@ -75,7 +75,10 @@ export const KIND_NAMES: Readonly<Record<PolarSeriesKind, string>> = {
 };
 
 /** The sentence that says how to read the angles of the plot. */
-export function conventionText(rotation: 'clockwise' | 'counterClockwise', counting: AngleCounting): string {
+export function conventionText(
+  rotation: 'clockwise' | 'counterClockwise',
+  counting: RotationCounting,
+): string {
   const turn = rotation === 'clockwise' ? 'clockwise' : 'counter-clockwise';
   const direction = counting === 'withRotation' ? 'with' : 'against';
   return `Rotor turns ${turn} in this view; angles are counted ${direction} rotation from the reference mark (0°).`;

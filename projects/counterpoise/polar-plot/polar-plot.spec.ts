@@ -3,7 +3,7 @@ import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ChangeDetectionStrategy, Component, signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { describe, expect, it } from 'vitest';
-import { type AngleCounting, type Rotation } from '@counterpoise/ng/core';
+import { type RotationCounting, type RotationDirection } from '@counterpoise/ng/core';
 import { CpPolarPlotHarness } from '@counterpoise/ng/polar-plot/testing';
 import { CpPolarPlot } from './polar-plot';
 import { type PolarSeries } from './polar-plot-geometry';
@@ -55,8 +55,8 @@ const SERIES: PolarSeries[] = [
 })
 class Host {
   readonly series = signal<readonly PolarSeries[]>(SERIES);
-  readonly rotation = signal<Rotation>('clockwise');
-  readonly counting = signal<AngleCounting>('againstRotation');
+  readonly rotation = signal<RotationDirection>('clockwise');
+  readonly counting = signal<RotationCounting>('againstRotation');
   readonly maxAmplitude = signal<number | null>(null);
   readonly showTable = signal(false);
 }

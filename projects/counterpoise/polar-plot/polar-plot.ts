@@ -12,7 +12,7 @@ import {
   viewChild,
   viewChildren,
 } from '@angular/core';
-import { type AngleCounting, normalizeDeg, type Rotation } from '@counterpoise/ng/core';
+import { type RotationCounting, normalizeDeg, type RotationDirection } from '@counterpoise/ng/core';
 import {
   dashOf,
   formatAmplitude,
@@ -55,9 +55,9 @@ export class CpPolarPlot {
   /** The series to draw, each a set of vectors of one kind and one unit. */
   readonly series = input<readonly PolarSeries[]>([]);
   /** The way the rotor turns as seen in this view. */
-  readonly rotation = input<Rotation>('clockwise');
+  readonly rotation = input<RotationDirection>('clockwise');
   /** Which way angles are counted from the reference mark. */
-  readonly counting = input<AngleCounting>('againstRotation');
+  readonly counting = input<RotationCounting>('againstRotation');
   /** Where the reference mark sits on screen, in degrees clockwise from 12 o'clock. */
   readonly zeroAtDeg = input(0);
   /** The amplitude of the outer ring in the first series' unit; null for a round value above the largest. */

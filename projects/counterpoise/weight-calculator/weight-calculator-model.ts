@@ -1,5 +1,5 @@
 import type { CalcRequest, CalcResponse } from '@counterpoise/api';
-import type { BalanceEngineKind } from '@counterpoise/ng/engine';
+import type { BalanceSolverKind } from '@counterpoise/ng/solver';
 
 /** The balancing methods the calculator offers, simplest first. */
 export const CALC_METHODS = ['one-run', 'single-plane', 'two-plane', 'four-run'] as const;
@@ -201,7 +201,7 @@ export type WeightCalculation = {
     /** The corrections split onto allowed places, when places were given. */
     readonly placements: readonly CorrectionPlacement[];
     /** Where it was computed. */
-    readonly engine: BalanceEngineKind;
+    readonly solver: BalanceSolverKind;
     /** The unit of the masses. */
     readonly massUnit: MassUnit;
     /** The unit of the amplitudes. */

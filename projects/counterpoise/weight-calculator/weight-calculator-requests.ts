@@ -1,5 +1,10 @@
 import type { CalcRequest } from '@counterpoise/api';
-import { type AngleCounting, type DialPositions, expandPositions, normalizeDeg } from '@counterpoise/ng/core';
+import {
+  type RotationCounting,
+  type DialPositions,
+  expandPositions,
+  normalizeDeg,
+} from '@counterpoise/ng/core';
 import type { BlockedSector } from '@counterpoise/ng/correction-overlay';
 import type {
   CalcMethod,
@@ -37,7 +42,7 @@ function weight(draft: WeightDraft, path: string) {
 }
 
 /** The one-run request; weight angles are counted the way the calculator counts angles. */
-export function oneRunRequest(draft: OneRunDraft, counting: AngleCounting): CalcRequest<'one-run'> {
+export function oneRunRequest(draft: OneRunDraft, counting: RotationCounting): CalcRequest<'one-run'> {
   const { massPerAmplitude, offsetDeg } = draft.sensitivity;
   return {
     reading: reading(draft.reading, 'reading'),
@@ -52,7 +57,7 @@ export function oneRunRequest(draft: OneRunDraft, counting: AngleCounting): Calc
 /** The single-plane request. */
 export function singlePlaneRequest(
   draft: SinglePlaneDraft,
-  counting: AngleCounting,
+  counting: RotationCounting,
 ): CalcRequest<'single-plane'> {
   return {
     initial: reading(draft.initial, 'initial'),
@@ -67,7 +72,10 @@ export function singlePlaneRequest(
  * The two-plane request: run 1 with the trial weight in plane 1, run 2 in plane 2. Each run lists every
  * weight on the rotor during it, so a trial weight left on for the next run is listed again.
  */
-export function twoPlaneRequest(draft: TwoPlaneDraft, counting: AngleCounting): CalcRequest<'multi-plane'> {
+export function twoPlaneRequest(
+  draft: TwoPlaneDraft,
+  counting: RotationCounting,
+): CalcRequest<'multi-plane'> {
   const trials = draft.runs.map((run, index) => ({
     plane: index + 1,
     ...weight(run.trialWeight, `runs[${index}].trialWeight`),
@@ -99,7 +107,7 @@ export function fourRunRequest(draft: FourRunDraft): CalcRequest<'four-run'> {
 export function buildRequest<M extends CalcMethod>(
   method: M,
   draft: WeightCalculatorDraft,
-  counting: AngleCounting,
+  counting: RotationCounting,
 ): MethodRequest<M> {
   const requests: { [K in CalcMethod]: () => MethodRequest<K> } = {
     'one-run': () => oneRunRequest(draft.oneRun, counting),
@@ -121,7 +129,7 @@ export function pathSegments(path: string): (string | number)[] {
 }
 
 /**
- * The form control, as a dotted path inside the method's group, that an engine's field path names; null
+ * The form control, as a dotted path inside the method's group, that a solver's field path names; null
  * when the path names nothing the technician typed (the whole body, a setting of the calculator).
  * The two-plane runs list their trial weights again when they stay on, so a weight is traced back to the
  * run of its plane through the request that was sent.

@@ -8,12 +8,12 @@ import { type CalcRequest, type CalcRouteName, calculate } from '@counterpoise/a
 import type { DialPositions } from '@counterpoise/ng/core';
 import type { BlockedSector } from '@counterpoise/ng/correction-overlay';
 import {
-  BALANCE_ENGINE,
-  type BalanceEngine,
-  BalanceEngineError,
-  LocalBalanceEngine,
-  engineErrorFromProblem,
-} from '@counterpoise/ng/engine';
+  BALANCE_SOLVER,
+  type BalanceSolver,
+  BalanceSolverError,
+  LocalBalanceSolver,
+  solverErrorFromProblem,
+} from '@counterpoise/ng/solver';
 import { CpWeightCalculatorHarness } from '@counterpoise/ng/weight-calculator/testing';
 import { CpWeightCalculator } from './weight-calculator';
 import { createCalculatorForm, draftOf } from './weight-calculator-form';
@@ -24,14 +24,14 @@ import type {
   WeightCalculatorDraft,
 } from './weight-calculator-model';
 
-/** A test double of the engine: answers through `calculate()` unless told otherwise, and records calls. */
-class FakeEngine implements BalanceEngine {
+/** A test double of the solver: answers through `calculate()` unless told otherwise, and records calls. */
+class FakeSolver implements BalanceSolver {
   readonly calls: { route: CalcRouteName; request: unknown }[] = [];
   respond: (route: CalcRouteName, request: unknown) => Observable<unknown> = (route, request) => {
     const outcome = calculate(route, request);
     return outcome.status === 200
       ? of(outcome.result)
-      : throwError(() => engineErrorFromProblem(outcome.problem));
+      : throwError(() => solverErrorFromProblem(outcome.problem));
   };
 
   constructor(readonly kind: 'remote' | 'local' = 'remote') {}
@@ -89,7 +89,7 @@ const SINGLE_PLANE_REQUEST = {
   weightAngles: 'againstRotation',
 } as const;
 
-/** Sets up a host whose calculator computes with `engine`, or with the real local engine when 'local'. */
+/** Sets up a host whose calculator computes with `solver`, or with the real local solver when 'local'. */
 /** The same readings as a draft the page hands over, for tests whose point is not the typing. */
 function trialWeightJob(host: Host): void {
   const draft = draftOf(createCalculatorForm());
@@ -102,19 +102,19 @@ function trialWeightJob(host: Host): void {
   host.draft.set(draft);
 }
 
-async function setUp(engine: BalanceEngine | 'local' = new FakeEngine(), configure?: (host: Host) => void) {
+async function setUp(solver: BalanceSolver | 'local' = new FakeSolver(), configure?: (host: Host) => void) {
   TestBed.configureTestingModule({
     providers: [
-      engine === 'local'
-        ? { provide: BALANCE_ENGINE, useExisting: LocalBalanceEngine }
-        : { provide: BALANCE_ENGINE, useValue: engine },
+      solver === 'local'
+        ? { provide: BALANCE_SOLVER, useExisting: LocalBalanceSolver }
+        : { provide: BALANCE_SOLVER, useValue: solver },
     ],
   });
   const fixture = TestBed.createComponent(Host);
   configure?.(fixture.componentInstance);
   const loader = TestbedHarnessEnvironment.loader(fixture);
   const calculator = await loader.getHarness(CpWeightCalculatorHarness);
-  return { fixture, host: fixture.componentInstance, calculator, engine };
+  return { fixture, host: fixture.componentInstance, calculator, solver };
 }
 
 function expected<N extends CalcRouteName>(route: N, request: unknown) {
@@ -127,13 +127,13 @@ function expected<N extends CalcRouteName>(route: N, request: unknown) {
 // machine, many more on a busy one. The limit only stops a hung test; it measures nothing.
 const SLOW = { timeout: 60_000 };
 
-describe('CpWeightCalculator with a test engine', SLOW, () => {
-  it('computes the trial-weight method through the engine and shows the correction', async () => {
-    const { calculator, engine, host } = await setUp();
+describe('CpWeightCalculator with a test solver', SLOW, () => {
+  it('computes the trial-weight method through the solver and shows the correction', async () => {
+    const { calculator, solver, host } = await setUp();
     await calculator.fill(SINGLE_PLANE);
     await calculator.submit();
 
-    const fake = engine as FakeEngine;
+    const fake = solver as FakeSolver;
     expect(fake.calls).toEqual([{ route: 'single-plane', request: SINGLE_PLANE_REQUEST }]);
     const answer = expected('single-plane', SINGLE_PLANE_REQUEST);
     const result = await calculator.getResult();
@@ -147,17 +147,17 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
       },
     ]);
     expect(result?.facts['Predicted residual']).toMatch(/ in\/s at \d+°$/);
-    expect(result?.engine).toBe('remote');
+    expect(result?.solver).toBe('remote');
     expect(result?.stale).toBe(false);
     expect(host.calculations).toHaveLength(1);
-    expect(host.calculations[0]).toMatchObject({ method: 'single-plane', engine: 'remote', massUnit: 'g' });
+    expect(host.calculations[0]).toMatchObject({ method: 'single-plane', solver: 'remote', massUnit: 'g' });
   });
 
-  it('shows progress while the engine works, and the answer when it comes', async () => {
-    const engine = new FakeEngine();
+  it('shows progress while the solver works, and the answer when it comes', async () => {
+    const solver = new FakeSolver();
     const pending = new Subject<unknown>();
-    engine.respond = () => pending;
-    const { calculator, fixture } = await setUp(engine, trialWeightJob);
+    solver.respond = () => pending;
+    const { calculator, fixture } = await setUp(solver, trialWeightJob);
     // The calculation is a pending task, so a harness waits for its answer; look while it is on its way.
     await manualChangeDetection(async () => {
       await calculator.submit();
@@ -174,9 +174,9 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
   });
 
   it('marks every empty field and sends nothing', async () => {
-    const { calculator, engine } = await setUp();
+    const { calculator, solver } = await setUp();
     await calculator.submit();
-    expect((engine as FakeEngine).calls).toEqual([]);
+    expect((solver as FakeSolver).calls).toEqual([]);
     expect(await calculator.getErrors()).toEqual([
       'Enter the initial amplitude.',
       'Enter the trial mass.',
@@ -207,7 +207,7 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
   });
 
   it("puts the engine's refusal on the field it names, and clears it when the field changes", async () => {
-    const engine = new FakeEngine();
+    const solver = new FakeSolver();
     const problem = {
       type: 'about:blank',
       title: 'Bad Request',
@@ -221,9 +221,9 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
       code: 'INVALID_REQUEST',
       errors: [{ path: 'withTrial.amplitude', message: 'Read the amplitude again: it cannot be right.' }],
     };
-    engine.respond = () =>
-      throwError(() => new BalanceEngineError('invalid', 'Read it again.', { problem: fieldProblem }));
-    const { calculator } = await setUp(engine, trialWeightJob);
+    solver.respond = () =>
+      throwError(() => new BalanceSolverError('invalid', 'Read it again.', { problem: fieldProblem }));
+    const { calculator } = await setUp(solver, trialWeightJob);
     await calculator.submit();
     expect(await calculator.getFailure()).toEqual({ reason: 'invalid', message: 'Read it again.' });
     expect(await calculator.getFieldError('withTrial.amplitude')).toBe(
@@ -234,7 +234,7 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
     await calculator.setField('withTrial.amplitude', 0.33);
     expect(await calculator.getFieldError('withTrial.amplitude')).toBeNull();
 
-    engine.respond = () => throwError(() => new BalanceEngineError('invalid', problem.detail, { problem }));
+    solver.respond = () => throwError(() => new BalanceSolverError('invalid', problem.detail, { problem }));
     await calculator.submit();
     expect(await calculator.getFailureDetails()).toEqual([
       'The trial weight changed the reading too little.',
@@ -242,12 +242,12 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
   });
 
   it('offers the device when the service cannot be reached, and computes the same there', async () => {
-    const engine = new FakeEngine('remote');
-    engine.respond = () =>
+    const solver = new FakeSolver('remote');
+    solver.respond = () =>
       throwError(
-        () => new BalanceEngineError('unreachable', 'The calculation service could not be reached.'),
+        () => new BalanceSolverError('unreachable', 'The calculation service could not be reached.'),
       );
-    const { calculator } = await setUp(engine, trialWeightJob);
+    const { calculator } = await setUp(solver, trialWeightJob);
     await calculator.submit();
 
     expect(await calculator.getFailure()).toEqual({
@@ -261,17 +261,17 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
     expect(await calculator.getFailure()).toBeNull();
     const result = await calculator.getResult();
     const answer = expected('single-plane', SINGLE_PLANE_REQUEST);
-    expect(result?.engine).toBe('local');
+    expect(result?.solver).toBe('local');
     expect(result?.corrections[0]?.mass).toBe(`${answer.correction.mass.toFixed(1)} g`);
   });
 
   it.each(['unauthorized', 'revoked'] as const)(
     'does not offer the device when the key is %s',
     async (reason) => {
-      const engine = new FakeEngine('remote');
-      engine.respond = () =>
-        throwError(() => new BalanceEngineError(reason, 'Ask the portal administrator.'));
-      const { calculator } = await setUp(engine, trialWeightJob);
+      const solver = new FakeSolver('remote');
+      solver.respond = () =>
+        throwError(() => new BalanceSolverError(reason, 'Ask the portal administrator.'));
+      const { calculator } = await setUp(solver, trialWeightJob);
       await calculator.submit();
       expect((await calculator.getFailure())?.reason).toBe(reason);
       expect(await calculator.canUseLocalEngine()).toBe(false);
@@ -292,33 +292,33 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
   });
 
   it('follows the unit chosen in its labels, and never changes the numbers typed', async () => {
-    const { calculator, engine } = await setUp(new FakeEngine(), trialWeightJob);
+    const { calculator, solver } = await setUp(new FakeSolver(), trialWeightJob);
     await calculator.setMassUnit('oz');
     await calculator.setAmplitudeUnit('mm/s');
     expect(await calculator.getMassUnit()).toBe('oz');
     expect(await calculator.getAmplitudeUnit()).toBe('mm/s');
     expect(await calculator.getFieldValue('trialWeight.mass')).toBe('60');
     await calculator.submit();
-    expect((engine as FakeEngine).calls[0]?.request).toEqual(SINGLE_PLANE_REQUEST);
+    expect((solver as FakeSolver).calls[0]?.request).toEqual(SINGLE_PLANE_REQUEST);
     const result = await calculator.getResult();
     expect(result?.corrections[0]?.mass).toMatch(/^\d+\.\d{2} oz$/);
     expect(result?.facts['Predicted residual']).toMatch(/ mm\/s at /);
   });
 
   it('marks a result stale when a value changes after it', async () => {
-    const { calculator } = await setUp(new FakeEngine(), trialWeightJob);
+    const { calculator } = await setUp(new FakeSolver(), trialWeightJob);
     await calculator.submit();
     await calculator.setField('initial.amplitude', 0.6);
     expect((await calculator.getResult())?.stale).toBe(true);
   });
 
-  it('splits the correction onto the allowed positions through the engine', async () => {
-    const { calculator, engine } = await setUp(new FakeEngine(), (host) => {
+  it('splits the correction onto the allowed positions through the solver', async () => {
+    const { calculator, solver } = await setUp(new FakeSolver(), (host) => {
       trialWeightJob(host);
       host.positions.set({ count: 12, firstDeg: 0 });
     });
     await calculator.submit();
-    const fake = engine as FakeEngine;
+    const fake = solver as FakeSolver;
     expect(fake.calls.map((call) => call.route)).toEqual(['single-plane', 'split']);
     const answer = expected('single-plane', SINGLE_PLANE_REQUEST);
     const split = expected('split', {
@@ -332,7 +332,7 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
   });
 
   it('snaps the trial weight to the allowed positions, and refuses an angle between them', async () => {
-    const { calculator } = await setUp(new FakeEngine(), (host) => host.positions.set(4));
+    const { calculator } = await setUp(new FakeSolver(), (host) => host.positions.set(4));
     await calculator.setField('trialWeight.angleDeg', 45);
     expect(await calculator.getFieldError('trialWeight.angleDeg')).toBe(
       'The trial angle must be one of the allowed positions: 0°, 90°, 180°, 270°.',
@@ -340,7 +340,7 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
   });
 
   it('moves the correction out of a blocked sector', async () => {
-    const { calculator } = await setUp(new FakeEngine(), (host) => {
+    const { calculator } = await setUp(new FakeSolver(), (host) => {
       trialWeightJob(host);
       const at = expected('single-plane', SINGLE_PLANE_REQUEST).correction.angleDeg;
       host.blocked.set([{ fromDeg: at - 10, toDeg: at + 10, label: 'holder' }]);
@@ -351,7 +351,7 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
   });
 
   it('offers only the methods asked for', async () => {
-    const { calculator } = await setUp(new FakeEngine(), (host) => {
+    const { calculator } = await setUp(new FakeSolver(), (host) => {
       host.methods.set(['four-run', 'single-plane']);
       host.method.set(null);
     });
@@ -360,14 +360,14 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
   });
 
   it('fills the stored sensitivity of the machine family', async () => {
-    const { calculator, engine } = await setUp(new FakeEngine(), (host) => {
+    const { calculator, solver } = await setUp(new FakeSolver(), (host) => {
       host.sensitivity.set({ massPerAmplitude: 180, offsetDeg: 15 });
       host.method.set('one-run');
     });
     expect(await calculator.getFieldValue('sensitivity.massPerAmplitude')).toBe('180');
     await calculator.fill({ 'reading.amplitude': 0.38, 'reading.phaseDeg': 212 });
     await calculator.submit();
-    expect((engine as FakeEngine).calls[0]?.request).toEqual({
+    expect((solver as FakeSolver).calls[0]?.request).toEqual({
       reading: { amplitude: 0.38, phaseDeg: 212 },
       sensitivity: { massPerAmplitude: 180, offsetDeg: 15 },
       weightAngles: 'againstRotation',
@@ -376,7 +376,7 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
   });
 
   it('restores a draft the page kept, in the units it was typed in', async () => {
-    const { calculator, host } = await setUp(new FakeEngine(), trialWeightJob);
+    const { calculator, host } = await setUp(new FakeSolver(), trialWeightJob);
     await calculator.setField('withTrial.amplitude', 0.29);
     const kept = host.draft();
     expect(kept?.singlePlane.withTrial).toEqual({ amplitude: 0.29, phaseDeg: 141 });
@@ -389,16 +389,16 @@ describe('CpWeightCalculator with a test engine', SLOW, () => {
   });
 
   it('neither edits nor computes while disabled', async () => {
-    const { calculator, engine, host } = await setUp(new FakeEngine(), trialWeightJob);
+    const { calculator, solver, host } = await setUp(new FakeSolver(), trialWeightJob);
     host.disabled.set(true);
     expect(await calculator.canSubmit()).toBe(false);
     await calculator.submit();
-    expect((engine as FakeEngine).calls).toEqual([]);
+    expect((solver as FakeSolver).calls).toEqual([]);
     expect(await calculator.getFieldValue('initial.amplitude')).toBe('0.52');
   });
 });
 
-describe('CpWeightCalculator with the local engine', SLOW, () => {
+describe('CpWeightCalculator with the local solver', SLOW, () => {
   it('balances two planes on the device', async () => {
     const { calculator } = await setUp('local', (host) => host.method.set('two-plane'));
     await calculator.fill({
@@ -444,7 +444,7 @@ describe('CpWeightCalculator with the local engine', SLOW, () => {
         },
       ],
     });
-    expect(result?.engine).toBe('local');
+    expect(result?.solver).toBe('local');
     expect(result?.corrections.map((one) => [one.title, one.mass])).toEqual(
       answer.corrections.map((one) => [`Plane ${one.plane} correction`, `${one.mass.toFixed(1)} g`]),
     );
@@ -482,7 +482,7 @@ describe('CpWeightCalculator with the local engine', SLOW, () => {
     expect(result?.facts['Disagreement between runs']).toMatch(/ %$/);
   });
 
-  it('says why when the trial weight changed nothing, and offers no second engine', async () => {
+  it('says why when the trial weight changed nothing, and offers no second solver', async () => {
     const { calculator } = await setUp('local', trialWeightJob);
     await calculator.fill({ 'withTrial.amplitude': 0.52, 'withTrial.phaseDeg': 74 });
     await calculator.submit();

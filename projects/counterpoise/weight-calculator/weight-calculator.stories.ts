@@ -1,7 +1,7 @@
 import { provideHttpClient, withFetch } from '@angular/common/http';
 import { type Meta, type StoryObj, applicationConfig } from '@storybook/angular-vite';
 import { expect, waitFor, within } from 'storybook/test';
-import { provideCounterpoise } from '@counterpoise/ng/engine';
+import { provideCounterpoise } from '@counterpoise/ng/solver';
 import { CpWeightCalculator } from './weight-calculator';
 import { createCalculatorForm, draftOf } from './weight-calculator-form';
 import { CALC_METHODS, type WeightCalculatorDraft } from './weight-calculator-model';
@@ -68,7 +68,7 @@ const AMPLITUDE_ONLY_JOB = draftWith((draft) => {
 /**
  * The correction weight calculator: one form per method a technician uses in the field, phases and angles
  * on the phase dial, and a result panel with the weight, its split onto the places a weight can go, the
- * predicted residual, the engine's warnings and an end view. It computes through `BALANCE_ENGINE`, which
+ * predicted residual, the engine's warnings and an end view. It computes through `BALANCE_SOLVER`, which
  * `provideCounterpoise()` sets; these stories compute on the device unless they say otherwise. Import it
  * from `@counterpoise/ng/weight-calculator`.
  */
@@ -76,7 +76,7 @@ const meta: Meta<CpWeightCalculator> = {
   title: 'Widgets/Weight calculator',
   component: CpWeightCalculator,
   tags: ['autodocs'],
-  decorators: [applicationConfig({ providers: [provideCounterpoise({ engine: 'local' })] })],
+  decorators: [applicationConfig({ providers: [provideCounterpoise({ solver: 'local' })] })],
   argTypes: {
     methods: { control: 'check', options: CALC_METHODS },
     method: { control: 'select', options: CALC_METHODS },
@@ -164,7 +164,7 @@ export const ServiceUnreachable: Story = {
       providers: [
         provideHttpClient(withFetch()),
         provideCounterpoise({
-          engine: 'remote',
+          solver: 'remote',
           apiBaseUrl: 'https://calc.invalid',
           apiKey: 'cpk_DemoKeyForTheStoriesOnlyXXXXXXXXXXXXXXXXXXXX',
           timeoutMs: 5000,

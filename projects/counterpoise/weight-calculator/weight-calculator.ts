@@ -26,19 +26,19 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { type Observable, type Subscription, catchError, finalize, forkJoin, map, of, switchMap } from 'rxjs';
 import type { CalcRequest } from '@counterpoise/api';
-import type { AngleCounting, DialPositions, Rotation } from '@counterpoise/ng/core';
+import type { RotationCounting, DialPositions, RotationDirection } from '@counterpoise/ng/core';
 import {
   type BlockedSector,
   CpCorrectionOverlay,
   type OverlayWeight,
 } from '@counterpoise/ng/correction-overlay';
 import {
-  BALANCE_ENGINE,
-  type BalanceEngine,
-  BalanceEngineError,
-  LOCAL_BALANCE_ENGINE,
+  BALANCE_SOLVER,
+  type BalanceSolver,
+  BalanceSolverError,
+  LOCAL_BALANCE_SOLVER,
   canFallBackToLocal,
-} from '@counterpoise/ng/engine';
+} from '@counterpoise/ng/solver';
 import { CpPhaseDial } from '@counterpoise/ng/phase-dial';
 import {
   type CalculatorForm,
@@ -80,9 +80,9 @@ function wholeDegrees(angleDeg: number): number {
 
 /** A calculation that gave no answer, kept so that it can be run again on the device. */
 interface Failure {
-  readonly error: BalanceEngineError;
+  readonly error: BalanceSolverError;
   readonly method: CalcMethod;
-  readonly engine: BalanceEngine['kind'];
+  readonly solver: BalanceSolver['kind'];
   /** Field messages the engine gave for values the form has no field for. */
   readonly unplaced: readonly string[];
 }
@@ -99,7 +99,7 @@ interface Answer {
  * result panel with the correction, its split onto the places a weight can really go, the predicted
  * residual, the engine's warnings and an end view of where the weight goes.
  *
- * It computes through `BALANCE_ENGINE` (see `provideCounterpoise()`); when the calculation service cannot
+ * It computes through `BALANCE_SOLVER` (see `provideCounterpoise()`); when the calculation service cannot
  * answer it says why and offers to compute on the device. What was typed is never lost: not on an error,
  * not on a switch of method, and `draft` lets the page keep it across visits.
  */
@@ -137,9 +137,9 @@ export class CpWeightCalculator {
   /** The unit of every amplitude of a calculation; the technician can switch it. */
   readonly amplitudeUnit = model<AmplitudeUnit>('in/s');
   /** The way the rotor turns, as seen in the end views. */
-  readonly rotation = input<Rotation>('clockwise');
+  readonly rotation = input<RotationDirection>('clockwise');
   /** Which way angles are counted from the reference mark; weight angles are sent to the engine so. */
-  readonly counting = input<AngleCounting>('againstRotation');
+  readonly counting = input<RotationCounting>('againstRotation');
   /** Where the reference mark is drawn, clockwise from 12 o'clock. */
   readonly zeroAtDeg = input(0);
   /** Where weights can go (holes, holders): corrections are split onto them, trial weights snap to them. */
@@ -159,8 +159,8 @@ export class CpWeightCalculator {
   /** Emits each finished calculation: the method, the request, the answer and the placed corrections. */
   readonly calculated = output<WeightCalculation>();
 
-  private readonly _engine = inject(BALANCE_ENGINE);
-  private readonly _localEngine = inject(LOCAL_BALANCE_ENGINE);
+  private readonly _solver = inject(BALANCE_SOLVER);
+  private readonly _localEngine = inject(LOCAL_BALANCE_SOLVER);
   private readonly _host: ElementRef<HTMLElement> = inject(ElementRef);
   private readonly _injector = inject(Injector);
   private _running: Subscription | null = null;
@@ -213,7 +213,7 @@ export class CpWeightCalculator {
     const failure = this._failure();
     return (
       failure !== null &&
-      failure.engine === 'remote' &&
+      failure.solver === 'remote' &&
       this._localEngine.kind === 'local' &&
       canFallBackToLocal(failure.error)
     );
@@ -316,9 +316,9 @@ export class CpWeightCalculator {
     });
   }
 
-  /** Computes the method shown with the configured engine, after checking every field. */
+  /** Computes the method shown with the configured solver, after checking every field. */
   protected _submit(): void {
-    this._compute(this._engine);
+    this._compute(this._solver);
   }
 
   /** Computes the method shown on the device, after the calculation service could not answer. */
@@ -332,7 +332,7 @@ export class CpWeightCalculator {
     return fieldErrorMessage(control.errors, what);
   }
 
-  private _compute(engine: BalanceEngine): void {
+  private _compute(solver: BalanceSolver): void {
     if (this.disabled()) return;
     const method = this._method();
     const group = methodGroup(this._form, method);
@@ -353,15 +353,15 @@ export class CpWeightCalculator {
     this._pending.set(true);
     this._failure.set(null);
     // A pending task keeps the application unstable while the answer is on its way (over the network,
-    // or while the on-device engine loads), so that tests, harnesses and server rendering wait for it.
+    // or while the on-device solver loads), so that tests, harnesses and server rendering wait for it.
     const settled = this._tasks.add();
-    this._running = (engine.calculate(METHOD_ROUTES[method], request as never) as Observable<unknown>)
+    this._running = (solver.calculate(METHOD_ROUTES[method], request as never) as Observable<unknown>)
       .pipe(
         map((result) => ({ method, request, result }) as MethodAnswer),
         switchMap((answer) =>
-          this._place(answer, engine).pipe(
+          this._place(answer, solver).pipe(
             map(
-              (placements) => ({ ...answer, placements, engine: engine.kind, ...units }) as WeightCalculation,
+              (placements) => ({ ...answer, placements, solver: solver.kind, ...units }) as WeightCalculation,
             ),
           ),
         ),
@@ -376,13 +376,13 @@ export class CpWeightCalculator {
         },
         error: (error: unknown) => {
           this._pending.set(false);
-          this._fail(method, engine, request, error);
+          this._fail(method, solver, request, error);
         },
       });
   }
 
   /** Splits each correction onto the places a weight can go; a split that fails becomes a warning. */
-  private _place(answer: MethodAnswer, engine: BalanceEngine): Observable<CorrectionPlacement[]> {
+  private _place(answer: MethodAnswer, solver: BalanceSolver): Observable<CorrectionPlacement[]> {
     const plan = placementPlan(this.allowedPositions(), this.blockedSectors());
     if (plan.kind === 'anywhere') return of([]);
     const corrections = correctionsToInstall(answer).filter((weight) => weight.mass > 0);
@@ -400,7 +400,7 @@ export class CpWeightCalculator {
           weight: { mass: weight.mass, angleDeg: weight.angleDeg },
           ...plan.places,
         };
-        return engine.calculate('split', request).pipe(
+        return solver.calculate('split', request).pipe(
           map((split) => ({ plane: weight.plane, ...split })),
           catchError((error: unknown) =>
             of(
@@ -416,11 +416,11 @@ export class CpWeightCalculator {
     );
   }
 
-  private _fail(method: CalcMethod, engine: BalanceEngine, request: unknown, error: unknown): void {
+  private _fail(method: CalcMethod, solver: BalanceSolver, request: unknown, error: unknown): void {
     const failure =
-      error instanceof BalanceEngineError
+      error instanceof BalanceSolverError
         ? error
-        : new BalanceEngineError('server', 'The calculation failed. Try again, or compute on this device.', {
+        : new BalanceSolverError('server', 'The calculation failed. Try again, or compute on this device.', {
             cause: error,
           });
     const unplaced: string[] = [];
@@ -440,7 +440,7 @@ export class CpWeightCalculator {
     } else {
       this._revealResults();
     }
-    this._failure.set({ error: failure, method, engine: engine.kind, unplaced });
+    this._failure.set({ error: failure, method, solver: solver.kind, unplaced });
     this._announcement.set('');
   }
 

@@ -6,7 +6,7 @@ import {
   TestKey,
   parallel,
 } from '@angular/cdk/testing';
-import { type AngleCounting, type Rotation, pointAtAngle } from '@counterpoise/ng/core';
+import { type RotationCounting, type RotationDirection, pointAtAngle } from '@counterpoise/ng/core';
 import type { CalibrationHandle, OverlayPoint, PhotoPoint } from '@counterpoise/ng/correction-overlay';
 
 /** Filters for finding a `cp-correction-overlay`. */
@@ -102,8 +102,8 @@ export class CpCorrectionOverlayHarness extends ComponentHarness {
       drawing.getAttribute('viewBox'),
     ]);
     const point = pointAtAngle({ x: Number(cx), y: Number(cy) }, Number(radius) * radiusFraction, angleDeg, {
-      rotation: rotation as Rotation,
-      counting: counting as AngleCounting,
+      rotation: rotation as RotationDirection,
+      counting: counting as RotationCounting,
       zeroAtDeg: Number(zero),
     });
     const { scaleX, scaleY } = await this._stageScale(viewBox ?? null);

@@ -2,7 +2,7 @@ import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { describe, expect, it } from 'vitest';
-import { provideCounterpoise } from '@counterpoise/ng/engine';
+import { provideCounterpoise } from '@counterpoise/ng/solver';
 import { CpWeightCalculator } from '@counterpoise/ng/weight-calculator';
 import { CpWeightCalculatorHarness } from './weight-calculator-harness';
 
@@ -17,7 +17,7 @@ import { CpWeightCalculatorHarness } from './weight-calculator-harness';
 class TwoCalculators {}
 
 async function loader() {
-  TestBed.configureTestingModule({ providers: [provideCounterpoise({ engine: 'local' })] });
+  TestBed.configureTestingModule({ providers: [provideCounterpoise({ solver: 'local' })] });
   return TestbedHarnessEnvironment.loader(TestBed.createComponent(TwoCalculators));
 }
 

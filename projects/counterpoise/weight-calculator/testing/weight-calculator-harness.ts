@@ -40,7 +40,7 @@ export interface WeightCalculatorResultInfo {
   /** The engine's warnings and the notes on the split. */
   warnings: string[];
   /** Where it was computed. */
-  engine: 'remote' | 'local';
+  solver: 'remote' | 'local';
   /** Whether the values changed since it was computed. */
   stale: boolean;
 }
@@ -78,7 +78,7 @@ export class CpWeightCalculatorHarness extends ComponentHarness {
   private readonly _warnings = this.locatorForAll(
     '.cp-weight-calculator__warning, .cp-weight-calculator__split-warning',
   );
-  private readonly _engineNote = this.locatorForOptional('.cp-weight-calculator__engine');
+  private readonly _solverNote = this.locatorForOptional('.cp-weight-calculator__solver');
   private readonly _formFields = this.locatorForAll(MatFormFieldHarness);
   private readonly _angleErrors = this.locatorForAll('.cp-weight-calculator__angle-error');
 
@@ -233,11 +233,11 @@ export class CpWeightCalculatorHarness extends ComponentHarness {
   async getResult(): Promise<WeightCalculatorResultInfo | null> {
     const answer = await this._answer();
     if (!answer) return null;
-    const [corrections, facts, warnings, engine, stale] = await parallel(() => [
+    const [corrections, facts, warnings, solverNote, stale] = await parallel(() => [
       this._corrections(),
       this._facts(),
       this._warnings(),
-      this._engineNote(),
+      this._solverNote(),
       answer.hasClass('cp-weight-calculator__answer--stale'),
     ]);
     const read = async (scope: string, selector: string) =>
@@ -269,7 +269,7 @@ export class CpWeightCalculatorHarness extends ComponentHarness {
       corrections: await Promise.all(corrections.map(readCorrection)),
       facts: Object.fromEntries(factEntries),
       warnings: await parallel(() => warnings.map(async (warning) => (await warning.text()).trim())),
-      engine: engine !== null && (await engine.text()).includes('this device') ? 'local' : 'remote',
+      solver: solverNote !== null && (await solverNote.text()).includes('this device') ? 'local' : 'remote',
       stale,
     };
   }

@@ -1,5 +1,5 @@
 import type { Routes } from '@angular/router';
-import { provideCounterpoise } from '@counterpoise/ng/engine';
+import { provideCounterpoise } from '@counterpoise/ng/solver';
 import { requirePermission, requireSignedOut, requireSignIn } from './auth/auth.guards';
 import { confirmLeavingUnsaved } from './records/unsaved-changes';
 
@@ -19,7 +19,7 @@ export const routes: Routes = [
     path: 'widgets',
     title: 'Widgets · Counterpoise',
     // The showcase computes on the device, so it works without a connection or an account.
-    providers: [provideCounterpoise({ engine: 'local' })],
+    providers: [provideCounterpoise({ solver: 'local' })],
     loadComponent: () => import('./widgets/widgets-page').then((m) => m.WidgetsPage),
   },
   {

@@ -19,7 +19,7 @@ import {
   formatDeg,
   formatNumber,
   planeName,
-  type Rotation,
+  type RotationDirection,
   ROTATION_LABELS,
   SIDE_LABELS,
 } from '../records/record-labels';
@@ -69,7 +69,7 @@ export const MACHINE_FIELDS: FieldDescriptions = {
   },
   rotationSeenFromLeft: {
     label: 'rotation seen from the left',
-    format: (value) => (ROTATION_LABELS[value as Rotation] ?? String(value)).toLowerCase(),
+    format: (value) => (ROTATION_LABELS[value as RotationDirection] ?? String(value)).toLowerCase(),
   },
   planes: {
     label: 'planes',
@@ -120,7 +120,7 @@ export type MachineForm = FormGroup<{
   rotorMassKg: FormControl<number | null>;
   operatingSpeedRpm: FormControl<number | null>;
   sensorSides: FormGroup<{ left: FormControl<boolean>; right: FormControl<boolean> }>;
-  rotationSeenFromLeft: FormControl<Rotation>;
+  rotationSeenFromLeft: FormControl<RotationDirection>;
   planeCount: FormControl<1 | 2>;
   planes: FormArray<PlaneGroup>;
   stockWeightsGrams: FormControl<number[]>;
@@ -226,7 +226,7 @@ export function machineForm(): MachineForm {
       },
       { validators: atLeastOneSide },
     ),
-    rotationSeenFromLeft: new FormControl<Rotation>('clockwise', { nonNullable: true }),
+    rotationSeenFromLeft: new FormControl<RotationDirection>('clockwise', { nonNullable: true }),
     planeCount: new FormControl<1 | 2>(2, { nonNullable: true }),
     planes: new FormArray([planeGroup(), planeGroup()]),
     stockWeightsGrams: new FormControl<number[]>([], { nonNullable: true }),

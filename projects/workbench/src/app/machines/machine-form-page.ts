@@ -32,7 +32,7 @@ import {
   formatNumber,
   opposite,
   planeSide,
-  type Rotation,
+  type RotationDirection,
   ROTATION_LABELS,
 } from '../records/record-labels';
 import { idFromRoute } from '../records/record-page';
@@ -130,7 +130,7 @@ export class MachineFormPage implements OnInit, HoldsUnsavedInput {
   /** The machine's own family when it is not among those in use (archived since). */
   protected readonly extraFamily = signal<{ id: number; name: string } | null>(null);
 
-  protected readonly rotation = signal<Rotation>(this.form.controls.rotationSeenFromLeft.value);
+  protected readonly rotation = signal<RotationDirection>(this.form.controls.rotationSeenFromLeft.value);
   protected readonly planeCount = signal<1 | 2>(this.form.controls.planeCount.value);
   protected readonly familyId = signal<number | null>(null);
   protected readonly stockWeights = signal<readonly number[]>([]);
@@ -197,7 +197,7 @@ export class MachineFormPage implements OnInit, HoldsUnsavedInput {
   }
 
   /** The end the plane at `index` is drawn as seen from, and its rotation from there. */
-  protected planeView(index: number): { side: string; rotation: Rotation } {
+  protected planeView(index: number): { side: string; rotation: RotationDirection } {
     const side = planeSide(index, this.planeCount());
     return { side, rotation: side === 'left' ? this.rotation() : opposite(this.rotation()) };
   }

@@ -14,7 +14,7 @@ import {
   opposite,
   planeName,
   planeSide,
-  type Rotation,
+  type RotationDirection,
   ROTATION_LABELS,
   SIDE_LABELS,
 } from '../records/record-labels';
@@ -72,7 +72,7 @@ export class MachinePage {
   }
 
   /** The end a plane is drawn from, and how the rotor turns seen from there. */
-  protected planeView(machine: Machine, index: number): { side: string; rotation: Rotation } {
+  protected planeView(machine: Machine, index: number): { side: string; rotation: RotationDirection } {
     const side = planeSide(index, machine.planes.length);
     return {
       side,

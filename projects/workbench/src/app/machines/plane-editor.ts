@@ -23,7 +23,7 @@ import {
   type BlockedSector,
   type OverlayPoint,
 } from '@counterpoise/ng/correction-overlay';
-import { formatDeg, planeName, type Rotation, ROTATION_LABELS } from '../records/record-labels';
+import { formatDeg, planeName, type RotationDirection, ROTATION_LABELS } from '../records/record-labels';
 import { errorMessage } from '../shell/validators';
 import { type PlaneGroup, sectorGroup } from './machine-form-model';
 
@@ -63,7 +63,7 @@ export class PlaneEditor implements OnInit {
   /** How many planes the machine has. */
   readonly planeCount = input.required<number>();
   /** How the rotor turns seen from this plane's end. */
-  readonly rotation = input.required<Rotation>();
+  readonly rotation = input.required<RotationDirection>();
   /** The end the plane is seen from: "left" or "right". */
   readonly seenFrom = input.required<string>();
 

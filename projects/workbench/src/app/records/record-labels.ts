@@ -8,7 +8,7 @@ import type { AcceptanceLevel, AmplitudeUnit, MachineSide, RotorType } from '@co
  */
 
 /** A rotor's direction of rotation, as seen from one end. */
-export type Rotation = 'clockwise' | 'counterClockwise';
+export type RotationDirection = 'clockwise' | 'counterClockwise';
 /** An ISO 21940-11 balance quality grade a field shop uses. */
 export type BalanceGrade = Extract<AcceptanceLevel, { kind: 'balance-grade' }>['grade'];
 /** How a machine sits, for the ISO 10816-3 / 20816-3 zones. */
@@ -41,7 +41,7 @@ export const BALANCE_GRADES: readonly { readonly grade: BalanceGrade; readonly u
 export const SIDE_LABELS: Readonly<Record<MachineSide, string>> = { left: 'Left', right: 'Right' };
 
 /** The two directions of rotation. */
-export const ROTATION_LABELS: Readonly<Record<Rotation, string>> = {
+export const ROTATION_LABELS: Readonly<Record<RotationDirection, string>> = {
   clockwise: 'Clockwise',
   counterClockwise: 'Counter-clockwise',
 };
@@ -69,7 +69,7 @@ export const ZONE_GUIDANCE =
   'As guidance: mobile machines are outside the scope of these zones (ISO 10816-3 / 20816-3).';
 
 /** The same rotor seen from the other end turns the other way. */
-export function opposite(rotation: Rotation): Rotation {
+export function opposite(rotation: RotationDirection): RotationDirection {
   return rotation === 'clockwise' ? 'counterClockwise' : 'clockwise';
 }
 

@@ -1,8 +1,8 @@
 import type { Problem } from '@counterpoise/api';
 import { type ApiRuntime, loadApiRuntime } from './api-runtime';
-import { BalanceEngineError } from './balance-engine-error';
+import { BalanceSolverError } from './balance-solver-error';
 
-/** What the remote engine knows of a failed request, without Angular's types. */
+/** What the remote solver knows of a failed request, without Angular's types. */
 export interface FailedResponse {
   /** The HTTP status; 0 when no answer came (offline, refused, blocked by CORS). */
   readonly status: number;
@@ -57,22 +57,22 @@ function waitText(seconds: number | undefined): string {
  * The error a technician sees for a failed request to the calculator API. The status decides the reason;
  * the problem's detail, when the service sent one, says what exactly.
  */
-export function engineErrorFromResponse(
+export function solverErrorFromResponse(
   response: FailedResponse,
   now: Date = new Date(),
-): BalanceEngineError {
+): BalanceSolverError {
   const { status, problem } = response;
   const details = { status, ...(problem === undefined ? {} : { problem }) };
 
   if (status === 0) {
-    return new BalanceEngineError(
+    return new BalanceSolverError(
       'unreachable',
       'The calculation service could not be reached. Check the connection, or compute on this device.',
       details,
     );
   }
   if (status >= 200 && status < 300) {
-    return new BalanceEngineError(
+    return new BalanceSolverError(
       'unreachable',
       'The answer did not come from the calculation service (perhaps a sign-in page of the network). ' +
         'Check the connection, or compute on this device.',
@@ -82,10 +82,10 @@ export function engineErrorFromResponse(
   if (status === 400 || status === 413 || status === 422) {
     const what =
       status === 413 ? 'The request is too large for the calculation service.' : invalidMessage(problem);
-    return new BalanceEngineError('invalid', what, details);
+    return new BalanceSolverError('invalid', what, details);
   }
   if (status === 401) {
-    return new BalanceEngineError(
+    return new BalanceSolverError(
       'unauthorized',
       'The calculation service did not accept the sign-in or the API key of this portal. Sign in again, ' +
         'or ask the portal administrator to check the key.',
@@ -93,7 +93,7 @@ export function engineErrorFromResponse(
     );
   }
   if (status === 403) {
-    return new BalanceEngineError(
+    return new BalanceSolverError(
       'revoked',
       'The API key of this portal has been withdrawn. Ask the portal administrator for a new key.',
       details,
@@ -101,14 +101,14 @@ export function engineErrorFromResponse(
   }
   if (status === 429) {
     const retryAfterSeconds = parseRetryAfter(response.retryAfter, now);
-    return new BalanceEngineError(
+    return new BalanceSolverError(
       'rate-limited',
       `Too many calculations for this portal's key in the last minute. ${waitText(retryAfterSeconds)}, or compute on this device.`,
       { ...details, ...(retryAfterSeconds === undefined ? {} : { retryAfterSeconds }) },
     );
   }
   if (status === 404 || status === 405 || status === 415) {
-    return new BalanceEngineError(
+    return new BalanceSolverError(
       'server',
       `The calculation service refused the request (status ${status}); the portal's API address or version ` +
         'may be wrong. Tell the portal administrator, and compute on this device meanwhile.',
@@ -116,13 +116,13 @@ export function engineErrorFromResponse(
     );
   }
   if (status === 502 || status === 503 || status === 504) {
-    return new BalanceEngineError(
+    return new BalanceSolverError(
       'unreachable',
       `The calculation service is not answering (status ${status}). Try again later, or compute on this device.`,
       details,
     );
   }
-  return new BalanceEngineError(
+  return new BalanceSolverError(
     'server',
     `The calculation service failed (status ${status}). Try again later, or compute on this device.`,
     details,
@@ -130,8 +130,8 @@ export function engineErrorFromResponse(
 }
 
 /** The error of a calculation the engine refused on the device: the values are at fault, never the service. */
-export function engineErrorFromProblem(problem: Problem): BalanceEngineError {
-  return new BalanceEngineError('invalid', invalidMessage(problem), { problem, status: problem.status });
+export function solverErrorFromProblem(problem: Problem): BalanceSolverError {
+  return new BalanceSolverError('invalid', invalidMessage(problem), { problem, status: problem.status });
 }
 
 /**

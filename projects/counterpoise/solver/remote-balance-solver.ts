@@ -13,8 +13,8 @@ import {
 } from 'rxjs';
 import type { CalcRequest, CalcResponse, CalcRouteName } from '@counterpoise/api';
 import { API_RUNTIME_LOADER, type ApiRuntime, preloadApiRuntime, requireApiRuntime } from './api-runtime';
-import type { BalanceEngine } from './balance-engine';
-import { BalanceEngineError } from './balance-engine-error';
+import type { BalanceSolver } from './balance-solver';
+import { BalanceSolverError } from './balance-solver-error';
 import {
   COUNTERPOISE_CONFIG,
   DEFAULT_TIMEOUT_MS,
@@ -22,7 +22,7 @@ import {
   checkCounterpoiseConfig,
   type CounterpoiseConfig,
 } from './counterpoise-config';
-import { engineErrorFromResponse, parseProblem } from './engine-errors';
+import { solverErrorFromResponse, parseProblem } from './solver-errors';
 
 /**
  * The header of the API key. The same name as `API_KEY_HEADER` of `@counterpoise/api` (a spec checks
@@ -32,19 +32,19 @@ export const API_KEY_HEADER_NAME = 'X-Api-Key';
 
 /**
  * Computes through the calculator API (`POST <apiBaseUrl>/api/v1/calc/<route>`) with the portal's key
- * or the signed-in user's token. Every failure becomes a `BalanceEngineError` whose reason says whether
+ * or the signed-in user's token. Every failure becomes a `BalanceSolverError` whose reason says whether
  * the values, the sign-in or the connection is at fault. It goes through the application's HttpClient,
  * so the portal's interceptors (`provideHttpClient(withInterceptors(...))`) apply.
  */
 @Injectable()
-export class RemoteBalanceEngine implements BalanceEngine {
+export class RemoteBalanceSolver implements BalanceSolver {
   /** Always `remote`. */
   readonly kind = 'remote' as const;
 
   private readonly _http = inject(HttpClient);
   private readonly _load = inject(API_RUNTIME_LOADER);
   private readonly _config: CounterpoiseConfig = checkCounterpoiseConfig(
-    inject(COUNTERPOISE_CONFIG, { optional: true }) ?? { engine: 'remote' },
+    inject(COUNTERPOISE_CONFIG, { optional: true }) ?? { solver: 'remote' },
   );
 
   constructor() {
@@ -65,7 +65,7 @@ export class RemoteBalanceEngine implements BalanceEngine {
           from(requireApiRuntime(this._load)).pipe(map((api) => this._checked(api, route, body))),
         ),
         catchError((error: unknown) =>
-          from(this._engineError(error)).pipe(switchMap((failure) => throwError(() => failure))),
+          from(this._solverError(error)).pipe(switchMap((failure) => throwError(() => failure))),
         ),
       );
     });
@@ -76,7 +76,7 @@ export class RemoteBalanceEngine implements BalanceEngine {
     if (this._config.apiKey !== undefined) return headers.set(API_KEY_HEADER_NAME, this._config.apiKey);
     const token = this._config.accessToken?.() ?? null;
     if (token === null || token === '') {
-      throw new BalanceEngineError(
+      throw new BalanceSolverError(
         'unauthorized',
         'You are signed out of the portal. Sign in again to compute with the calculation service.',
       );
@@ -87,7 +87,7 @@ export class RemoteBalanceEngine implements BalanceEngine {
   private _checked<N extends CalcRouteName>(api: ApiRuntime, route: N, body: unknown): CalcResponse<N> {
     const parsed = api.CALC_ROUTES[route].response.safeParse(body);
     if (parsed.success) return parsed.data as CalcResponse<N>;
-    throw new BalanceEngineError(
+    throw new BalanceSolverError(
       'server',
       'The calculation service answered in a form this portal does not know; it may run another version. ' +
         'Tell the portal administrator, and compute on this device meanwhile.',
@@ -95,10 +95,10 @@ export class RemoteBalanceEngine implements BalanceEngine {
     );
   }
 
-  private async _engineError(error: unknown): Promise<BalanceEngineError> {
-    if (error instanceof BalanceEngineError) return error;
+  private async _solverError(error: unknown): Promise<BalanceSolverError> {
+    if (error instanceof BalanceSolverError) return error;
     if (error instanceof TimeoutError) {
-      return new BalanceEngineError(
+      return new BalanceSolverError(
         'unreachable',
         'The calculation service did not answer in time. Check the connection, or compute on this device.',
         { status: 0, cause: error },
@@ -107,13 +107,13 @@ export class RemoteBalanceEngine implements BalanceEngine {
     if (error instanceof HttpErrorResponse) {
       const parsingFailed = error.status >= 200 && error.status < 300;
       const problem = parsingFailed ? undefined : await parseProblem(error.error, this._load);
-      return engineErrorFromResponse({
+      return solverErrorFromResponse({
         status: error.status,
         ...(problem === undefined ? {} : { problem }),
         retryAfter: error.headers?.get('Retry-After') ?? null,
       });
     }
-    return new BalanceEngineError(
+    return new BalanceSolverError(
       'server',
       'The request to the calculation service failed. Try again, or compute on this device.',
       { cause: error },

@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { canFallBackToLocal } from './balance-engine-error';
+import { canFallBackToLocal } from './balance-solver-error';
 import {
-  engineErrorFromProblem,
-  engineErrorFromResponse,
+  solverErrorFromProblem,
+  solverErrorFromResponse,
   parseProblem,
   parseRetryAfter,
-} from './engine-errors';
+} from './solver-errors';
 
 const invalidPhase = {
   type: 'about:blank',
@@ -28,7 +28,7 @@ describe('parseRetryAfter', () => {
   });
 });
 
-describe('engineErrorFromResponse', () => {
+describe('solverErrorFromResponse', () => {
   it.each([
     [0, 'unreachable'],
     [200, 'unreachable'],
@@ -43,14 +43,14 @@ describe('engineErrorFromResponse', () => {
     [500, 'server'],
     [503, 'unreachable'],
   ] as const)('turns status %i into the reason %s', (status, reason) => {
-    const error = engineErrorFromResponse({ status });
+    const error = solverErrorFromResponse({ status });
     expect(error.reason).toBe(reason);
     expect(error.status).toBe(status);
     expect(error.message.length).toBeGreaterThan(20);
   });
 
   it("keeps the service's problem and speaks the field's own message, without its path", () => {
-    const error = engineErrorFromResponse({ status: 400, problem: invalidPhase });
+    const error = solverErrorFromResponse({ status: 400, problem: invalidPhase });
     expect(error.problem).toEqual(invalidPhase);
     expect(error.message).toBe('The phase must lie within ±3600 degrees.');
   });
@@ -60,16 +60,16 @@ describe('engineErrorFromResponse', () => {
       ...invalidPhase,
       errors: [...invalidPhase.errors, { path: 'trialWeight.mass', message: 'Enter the mass as a number.' }],
     };
-    expect(engineErrorFromResponse({ status: 400, problem }).message).toBe(
+    expect(solverErrorFromResponse({ status: 400, problem }).message).toBe(
       '2 values cannot be used; check the marked fields.',
     );
   });
 
   it('says how long to wait when over the rate limit', () => {
-    const error = engineErrorFromResponse({ status: 429, retryAfter: '20' });
+    const error = solverErrorFromResponse({ status: 429, retryAfter: '20' });
     expect(error.retryAfterSeconds).toBe(20);
     expect(error.message).toContain('Try again in 20 seconds');
-    expect(engineErrorFromResponse({ status: 429, retryAfter: '300' }).message).toContain(
+    expect(solverErrorFromResponse({ status: 429, retryAfter: '300' }).message).toContain(
       'Try again in 5 minutes',
     );
   });
@@ -79,12 +79,12 @@ describe('engineErrorFromResponse', () => {
     expect(await parseProblem('<html>Bad gateway</html>')).toBeUndefined();
     expect(await parseProblem({ title: 'no status' })).toBeUndefined();
     expect(await parseProblem(null)).toBeUndefined();
-    expect(engineErrorFromResponse({ status: 500 }).problem).toBeUndefined();
+    expect(solverErrorFromResponse({ status: 500 }).problem).toBeUndefined();
   });
 
   it('offers the device only when the values are not at fault', () => {
     const reasons = [0, 400, 401, 403, 429, 500].map((status) => {
-      const error = engineErrorFromResponse({ status });
+      const error = solverErrorFromResponse({ status });
       return [error.reason, canFallBackToLocal(error)];
     });
     expect(reasons).toEqual([
@@ -98,9 +98,9 @@ describe('engineErrorFromResponse', () => {
   });
 });
 
-describe('engineErrorFromProblem', () => {
+describe('solverErrorFromProblem', () => {
   it("is always the values' fault, with the engine's message", () => {
-    const error = engineErrorFromProblem({
+    const error = solverErrorFromProblem({
       type: 'about:blank',
       title: 'Bad Request',
       status: 400,

@@ -5,9 +5,9 @@ import { firstValueFrom } from 'rxjs';
 import { describe, expect, it, vi } from 'vitest';
 import { CALC_ROUTES } from '@counterpoise/api';
 import { API_RUNTIME_LOADER, type ApiRuntime, loadApiRuntime, RUNTIME_LOAD_MESSAGE } from './api-runtime';
-import { BALANCE_ENGINE } from './balance-engine';
-import { BalanceEngineError } from './balance-engine-error';
-import { LocalBalanceEngine } from './local-balance-engine';
+import { BALANCE_SOLVER } from './balance-solver';
+import { BalanceSolverError } from './balance-solver-error';
+import { LocalBalanceSolver } from './local-balance-solver';
 import { provideCounterpoise } from './provide-counterpoise';
 
 /** A loader that fails as a device offline before the runtime ever came, until `online()`. */
@@ -28,58 +28,58 @@ describe('the API runtime, loaded on first use', () => {
     expect((await first).CALC_ROUTES.radius.example).toEqual(CALC_ROUTES.radius.example);
   });
 
-  it('starts loading when an engine is made in a browser, before any calculation', async () => {
+  it('starts loading when a solver is made in a browser, before any calculation', async () => {
     const loader = offlineLoader();
     loader.online();
     TestBed.configureTestingModule({ providers: [{ provide: API_RUNTIME_LOADER, useValue: loader.load }] });
-    TestBed.inject(LocalBalanceEngine);
+    TestBed.inject(LocalBalanceSolver);
     await vi.waitFor(() => expect(loader.load).toHaveBeenCalled());
   });
 
-  it('tells the technician when the on-device engine cannot load, and computes on the next try', async () => {
+  it('tells the technician when the on-device solver cannot load, and computes on the next try', async () => {
     const loader = offlineLoader();
     TestBed.configureTestingModule({ providers: [{ provide: API_RUNTIME_LOADER, useValue: loader.load }] });
-    const engine = TestBed.inject(LocalBalanceEngine);
+    const solver = TestBed.inject(LocalBalanceSolver);
     const request = CALC_ROUTES.radius.example;
-    const failure = await firstValueFrom(engine.calculate('radius', request)).catch(
+    const failure = await firstValueFrom(solver.calculate('radius', request)).catch(
       (error: unknown) => error,
     );
-    expect(failure).toBeInstanceOf(BalanceEngineError);
-    expect((failure as BalanceEngineError).reason).toBe('unreachable');
-    expect((failure as BalanceEngineError).message).toBe(RUNTIME_LOAD_MESSAGE);
+    expect(failure).toBeInstanceOf(BalanceSolverError);
+    expect((failure as BalanceSolverError).reason).toBe('unreachable');
+    expect((failure as BalanceSolverError).message).toBe(RUNTIME_LOAD_MESSAGE);
 
     loader.online();
-    expect(await firstValueFrom(engine.calculate('radius', request))).toEqual({ mass: 90, warnings: [] });
+    expect(await firstValueFrom(solver.calculate('radius', request))).toEqual({ mass: 90, warnings: [] });
   });
 
-  it('lets the remote engine speak from the status alone when the schemas cannot load', async () => {
+  it('lets the remote solver speak from the status alone when the schemas cannot load', async () => {
     const loader = offlineLoader();
     TestBed.configureTestingModule({
       providers: [
         provideHttpClient(),
         provideHttpClientTesting(),
-        provideCounterpoise({ engine: 'remote', apiBaseUrl: 'https://calc.example.net', apiKey: 'cpk_x' }),
+        provideCounterpoise({ solver: 'remote', apiBaseUrl: 'https://calc.example.net', apiKey: 'cpk_x' }),
         { provide: API_RUNTIME_LOADER, useValue: loader.load },
       ],
     });
-    const engine = TestBed.inject(BALANCE_ENGINE);
+    const solver = TestBed.inject(BALANCE_SOLVER);
     const http = TestBed.inject(HttpTestingController);
 
-    const refused = firstValueFrom(engine.calculate('radius', CALC_ROUTES.radius.example)).catch(
-      (error: unknown) => error as BalanceEngineError,
+    const refused = firstValueFrom(solver.calculate('radius', CALC_ROUTES.radius.example)).catch(
+      (error: unknown) => error as BalanceSolverError,
     );
     http
       .expectOne('https://calc.example.net/api/v1/calc/radius')
       .flush({ type: 'about:blank', title: 'Unauthorized', status: 401 }, { status: 401, statusText: 'No' });
-    const failure = (await refused) as BalanceEngineError;
+    const failure = (await refused) as BalanceSolverError;
     expect(failure.reason).toBe('unauthorized');
     expect(failure.problem).toBeUndefined();
 
-    const answered = firstValueFrom(engine.calculate('radius', CALC_ROUTES.radius.example)).catch(
-      (error: unknown) => error as BalanceEngineError,
+    const answered = firstValueFrom(solver.calculate('radius', CALC_ROUTES.radius.example)).catch(
+      (error: unknown) => error as BalanceSolverError,
     );
     http.expectOne('https://calc.example.net/api/v1/calc/radius').flush({ mass: 90, warnings: [] });
-    const unchecked = (await answered) as BalanceEngineError;
+    const unchecked = (await answered) as BalanceSolverError;
     expect(unchecked.reason).toBe('unreachable');
     expect(unchecked.message).toBe(RUNTIME_LOAD_MESSAGE);
     http.verify();

@@ -2,12 +2,12 @@ import { describe, expect, it } from 'vitest';
 import { calcRouteUrl, checkCounterpoiseConfig, type CounterpoiseConfig } from './counterpoise-config';
 
 describe('checkCounterpoiseConfig', () => {
-  it('accepts the local engine alone, and the remote one with an address and one credential', () => {
-    expect(checkCounterpoiseConfig({ engine: 'local' })).toEqual({ engine: 'local' });
-    const remote = { engine: 'remote', apiBaseUrl: '', apiKey: 'cpk_portal' } as const;
+  it('accepts the local solver alone, and the remote one with an address and one credential', () => {
+    expect(checkCounterpoiseConfig({ solver: 'local' })).toEqual({ solver: 'local' });
+    const remote = { solver: 'remote', apiBaseUrl: '', apiKey: 'cpk_portal' } as const;
     expect(checkCounterpoiseConfig(remote)).toBe(remote);
     const token = {
-      engine: 'remote',
+      solver: 'remote',
       apiBaseUrl: 'https://calc.example.net',
       accessToken: () => null,
     } as const;
@@ -15,12 +15,12 @@ describe('checkCounterpoiseConfig', () => {
   });
 
   it.each<[CounterpoiseConfig, RegExp]>([
-    [{ engine: 'cloud' as 'remote' }, /engine is 'remote' or 'local'/],
-    [{ engine: 'remote', apiKey: 'cpk_x' }, /needs apiBaseUrl/],
-    [{ engine: 'remote', apiBaseUrl: '' }, /either apiKey or accessToken/],
-    [{ engine: 'remote', apiBaseUrl: '', apiKey: 'k', accessToken: () => 't' }, /not both/],
-    [{ engine: 'remote', apiBaseUrl: '', apiKey: ' ' }, /apiKey is empty/],
-    [{ engine: 'local', timeoutMs: 0 }, /timeoutMs/],
+    [{ solver: 'cloud' as 'remote' }, /solver is 'remote' or 'local'/],
+    [{ solver: 'remote', apiKey: 'cpk_x' }, /needs apiBaseUrl/],
+    [{ solver: 'remote', apiBaseUrl: '' }, /either apiKey or accessToken/],
+    [{ solver: 'remote', apiBaseUrl: '', apiKey: 'k', accessToken: () => 't' }, /not both/],
+    [{ solver: 'remote', apiBaseUrl: '', apiKey: ' ' }, /apiKey is empty/],
+    [{ solver: 'local', timeoutMs: 0 }, /timeoutMs/],
   ])('refuses %o with a message that says what to change', (config, message) => {
     expect(() => checkCounterpoiseConfig(config)).toThrow(message);
   });

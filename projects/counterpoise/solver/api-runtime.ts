@@ -1,7 +1,7 @@
 import { isPlatformBrowser } from '@angular/common';
 import { InjectionToken, PLATFORM_ID, inject } from '@angular/core';
 import type * as CounterpoiseApi from '@counterpoise/api';
-import { BalanceEngineError } from './balance-engine-error';
+import { BalanceSolverError } from './balance-solver-error';
 
 /** The shared API package at run time: its zod schemas, the route table and the balancing engine. */
 export type ApiRuntime = typeof CounterpoiseApi;
@@ -53,6 +53,6 @@ export async function requireApiRuntime(load: () => Promise<ApiRuntime>): Promis
   try {
     return await load();
   } catch (cause) {
-    throw new BalanceEngineError('unreachable', RUNTIME_LOAD_MESSAGE, { cause });
+    throw new BalanceSolverError('unreachable', RUNTIME_LOAD_MESSAGE, { cause });
   }
 }

@@ -2,9 +2,9 @@ import { Injectable, inject } from '@angular/core';
 import { defer, from, of, switchMap, throwError, type Observable } from 'rxjs';
 import type { CalcRequest, CalcResponse, CalcRouteName } from '@counterpoise/api';
 import { API_RUNTIME_LOADER, preloadApiRuntime, requireApiRuntime } from './api-runtime';
-import type { BalanceEngine } from './balance-engine';
-import { BalanceEngineError } from './balance-engine-error';
-import { engineErrorFromProblem } from './engine-errors';
+import type { BalanceSolver } from './balance-solver';
+import { BalanceSolverError } from './balance-solver-error';
+import { solverErrorFromProblem } from './solver-errors';
 
 /**
  * Computes on the device, through the same route table and schemas as the calculator API, so that an
@@ -12,7 +12,7 @@ import { engineErrorFromProblem } from './engine-errors';
  * background once the page is idle (see `loadApiRuntime`), not with the widgets.
  */
 @Injectable({ providedIn: 'root' })
-export class LocalBalanceEngine implements BalanceEngine {
+export class LocalBalanceSolver implements BalanceSolver {
   /** Always `local`. */
   readonly kind = 'local' as const;
 
@@ -32,7 +32,7 @@ export class LocalBalanceEngine implements BalanceEngine {
         } catch (cause) {
           return throwError(
             () =>
-              new BalanceEngineError(
+              new BalanceSolverError(
                 'server',
                 'The calculation failed on this device. Note the values and report it to the portal administrator.',
                 { cause },
@@ -41,7 +41,7 @@ export class LocalBalanceEngine implements BalanceEngine {
         }
         return outcome.status === 200
           ? of(outcome.result)
-          : throwError(() => engineErrorFromProblem(outcome.problem));
+          : throwError(() => solverErrorFromProblem(outcome.problem));
       }),
     );
   }

@@ -2,11 +2,11 @@ import { TestBed } from '@angular/core/testing';
 import { firstValueFrom } from 'rxjs';
 import { describe, expect, it } from 'vitest';
 import { CALC_ROUTE_NAMES, CALC_ROUTES, calculate, type CalcRouteName } from '@counterpoise/api';
-import { BalanceEngineError } from './balance-engine-error';
-import { LocalBalanceEngine } from './local-balance-engine';
+import { BalanceSolverError } from './balance-solver-error';
+import { LocalBalanceSolver } from './local-balance-solver';
 
-describe('LocalBalanceEngine', () => {
-  const engine = TestBed.inject(LocalBalanceEngine);
+describe('LocalBalanceSolver', () => {
+  const solver = TestBed.inject(LocalBalanceSolver);
 
   it.each(CALC_ROUTE_NAMES)(
     'answers the %s example exactly as calculate() does',
@@ -14,7 +14,7 @@ describe('LocalBalanceEngine', () => {
       const example = CALC_ROUTES[route].example;
       const expected = calculate(route, example);
       expect(expected.status).toBe(200);
-      const result = await firstValueFrom(engine.calculate(route, example as never));
+      const result = await firstValueFrom(solver.calculate(route, example as never));
       expect(result).toEqual(expected.status === 200 ? expected.result : undefined);
     },
   );
@@ -25,9 +25,9 @@ describe('LocalBalanceEngine', () => {
       trialWeight: { mass: -60, angleDeg: 0 },
       withTrial: { amplitude: 0.31, phaseDeg: 141 },
     };
-    const error = await firstValueFrom(engine.calculate('single-plane', request)).catch((e: unknown) => e);
-    expect(error).toBeInstanceOf(BalanceEngineError);
-    const failure = error as BalanceEngineError;
+    const error = await firstValueFrom(solver.calculate('single-plane', request)).catch((e: unknown) => e);
+    expect(error).toBeInstanceOf(BalanceSolverError);
+    const failure = error as BalanceSolverError;
     expect(failure.reason).toBe('invalid');
     expect(failure.problem?.errors?.[0]?.path).toBe('trialWeight.mass');
     const expected = calculate('single-plane', request);
@@ -40,9 +40,9 @@ describe('LocalBalanceEngine', () => {
       trialWeight: { mass: 60, angleDeg: 0 },
       withTrial: { amplitude: 0.52, phaseDeg: 74 },
     };
-    const error = (await firstValueFrom(engine.calculate('single-plane', request)).catch(
+    const error = (await firstValueFrom(solver.calculate('single-plane', request)).catch(
       (e: unknown) => e,
-    )) as BalanceEngineError;
+    )) as BalanceSolverError;
     expect(error.reason).toBe('invalid');
     expect(error.problem?.code).toBe('ZERO_TRIAL_EFFECT');
   });

@@ -7,7 +7,7 @@ import { InjectionToken } from '@angular/core';
  */
 export interface CounterpoiseConfig {
   /** `remote`: the calculator API over HTTP; `local`: on the device, no connection needed. */
-  readonly engine: 'remote' | 'local';
+  readonly solver: 'remote' | 'local';
   /** Where the API is served from, e.g. `https://calc.example.net`, or `''` for the page's own origin. */
   readonly apiBaseUrl?: string;
   /** The portal's API key, sent as `X-Api-Key`. */
@@ -32,20 +32,20 @@ export function checkCounterpoiseConfig(config: CounterpoiseConfig): Counterpois
   const fail = (what: string): never => {
     throw new Error(`provideCounterpoise(): ${what}`);
   };
-  if (config === null || typeof config !== 'object') fail("give a configuration, e.g. { engine: 'local' }.");
-  if (config.engine !== 'remote' && config.engine !== 'local') {
-    fail(`engine is 'remote' or 'local' (got ${JSON.stringify(config.engine)}).`);
+  if (config === null || typeof config !== 'object') fail("give a configuration, e.g. { solver: 'local' }.");
+  if (config.solver !== 'remote' && config.solver !== 'local') {
+    fail(`solver is 'remote' or 'local' (got ${JSON.stringify(config.solver)}).`);
   }
   if (config.timeoutMs !== undefined && !(Number.isFinite(config.timeoutMs) && config.timeoutMs > 0)) {
     fail('timeoutMs is a number of milliseconds greater than zero.');
   }
-  if (config.engine === 'local') return config;
+  if (config.solver === 'local') return config;
   if (typeof config.apiBaseUrl !== 'string') {
-    fail("the remote engine needs apiBaseUrl, e.g. 'https://calc.example.net' ('' for this page's origin).");
+    fail("the remote solver needs apiBaseUrl, e.g. 'https://calc.example.net' ('' for this page's origin).");
   }
   const hasKey = config.apiKey !== undefined;
   const hasToken = config.accessToken !== undefined;
-  if (hasKey === hasToken) fail('the remote engine needs either apiKey or accessToken, not both.');
+  if (hasKey === hasToken) fail('the remote solver needs either apiKey or accessToken, not both.');
   if (hasKey && (typeof config.apiKey !== 'string' || config.apiKey.trim() === '')) {
     fail('apiKey is empty; give the key the portal was issued.');
   }
