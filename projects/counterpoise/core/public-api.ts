@@ -7,6 +7,7 @@ export {
   type SafetyTopic,
 } from './safety-cautions';
 export { CpSafetyNotice } from './safety-notice';
+export { degreesText, formatAngle, type AngleDecimals } from './angle-format';
 export {
   DEFAULT_DIAL_CONVENTION,
   angleAtPoint,
