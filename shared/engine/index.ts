@@ -2,6 +2,7 @@ export * from './errors';
 export * from './phasor';
 export * from './conventions';
 export * from './averaging';
+export * from './family-sensitivity';
 export * from './single-plane';
 export * from './multi-plane';
 export * from './four-run';

@@ -1,15 +1,17 @@
 /**
- * Cross-checks against general-purpose reference libraries: mathjs (complex arithmetic, linear solve) and
- * ml-matrix (SVD, condition number, pseudo-inverse). They share no code with the engine.
+ * Cross-checks against general-purpose reference libraries: mathjs (complex arithmetic, linear solve, median
+ * and median absolute deviation) and ml-matrix (SVD, condition number, pseudo-inverse). They share no code
+ * with the engine.
  */
 import fc from 'fast-check';
-import { complex, divide, lusolve, subtract, unaryMinus, type Complex } from 'mathjs';
+import { complex, divide, lusolve, mad, median, subtract, unaryMinus, type Complex } from 'mathjs';
 import { Matrix, pseudoInverse, SVD } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
 import {
   add,
   complexMatrix,
   conditionNumber,
+  modifiedZScores,
   multiPlaneBalance,
   multiply as mul,
   phasor,
@@ -151,5 +153,27 @@ describe('multi-plane against mathjs lusolve and ml-matrix', () => {
       const got = phasor(w.mass, w.angleDeg);
       expect(Math.hypot(got.re - x.get(j, 0), got.im - x.get(j + 2, 0))).toBeLessThan(1e-9);
     });
+  });
+});
+
+describe('outlier scores against mathjs median and mad', () => {
+  it('modified z-scores are 0.6745 (x - median) / MAD as mathjs computes them (property)', () => {
+    // Iglewicz and Hoaglin (1993), section 3.3, define M_i with the median and the median absolute
+    // deviation; mathjs computes both independently of the engine.
+    fc.assert(
+      fc.property(
+        fc
+          .uniqueArray(fc.integer({ min: -100_000, max: 100_000 }), { minLength: 3, maxLength: 40 })
+          .map((values) => values.map((v) => v / 100)),
+        (xs) => {
+          const spread = mad(xs) as number;
+          fc.pre(spread > 1e-9);
+          const centre = median(xs) as number;
+          modifiedZScores(xs).forEach((score, i) => {
+            expect(score).toBeCloseTo((0.6745 * (xs[i]! - centre)) / spread, 9);
+          });
+        },
+      ),
+    );
   });
 });
