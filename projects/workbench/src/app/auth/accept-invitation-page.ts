@@ -16,6 +16,7 @@ import { AuthSession } from './auth-session';
 import { PASSWORD_RULE } from './password-rule';
 import { PasswordToggle } from './password-toggle';
 import { ROLE_LABELS, ROLE_SUMMARIES } from './roles';
+import { ErrorBanner } from '../forms/error-banner';
 
 /**
  * Joining an organisation from the link of an invitation (`/accept-invitation?token=…`): the person sees
@@ -24,6 +25,7 @@ import { ROLE_LABELS, ROLE_SUMMARIES } from './roles';
 @Component({
   selector: 'app-accept-invitation-page',
   imports: [
+    ErrorBanner,
     DatePipe,
     MatButtonModule,
     MatFormFieldModule,

@@ -7,6 +7,7 @@ import type { Me } from '@counterpoise/api';
 import { httpErrorMessage } from '../shell/server-errors';
 import { AUTH_URLS, AuthSession } from './auth-session';
 import { PERMISSION_LABELS, ROLE_LABELS, ROLE_SUMMARIES } from './roles';
+import { ErrorBanner } from '../forms/error-banner';
 
 /**
  * The signed-in person's own account: who they are to the organisation, what their role lets them do, and
@@ -14,7 +15,7 @@ import { PERMISSION_LABELS, ROLE_LABELS, ROLE_SUMMARIES } from './roles';
  */
 @Component({
   selector: 'app-account-page',
-  imports: [MatButtonModule, MatIconModule, MatProgressSpinnerModule],
+  imports: [ErrorBanner, MatButtonModule, MatIconModule, MatProgressSpinnerModule],
   templateUrl: './account-page.html',
   styleUrl: './account-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -10,6 +10,7 @@ import { RouterLink } from '@angular/router';
 import { formErrorOf } from '../shell/server-errors';
 import { errorMessage, requiredWith } from '../shell/validators';
 import { AUTH_URLS } from './auth-session';
+import { ErrorBanner } from '../forms/error-banner';
 
 /**
  * Asking for a link to set a new password. The answer is the same whether or not the address belongs to
@@ -18,6 +19,7 @@ import { AUTH_URLS } from './auth-session';
 @Component({
   selector: 'app-forgot-password-page',
   imports: [
+    ErrorBanner,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
@@ -46,10 +48,7 @@ import { AUTH_URLS } from './auth-session';
       </p>
       <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
         @if (formError(); as message) {
-          <div class="form-error" role="alert">
-            <mat-icon aria-hidden="true">error</mat-icon>
-            <p>{{ message }}</p>
-          </div>
+          <app-error-banner class="form-error" [message]="message" />
         }
         <mat-form-field appearance="outline" subscriptSizing="dynamic">
           <mat-label>E-mail address</mat-label>

@@ -13,11 +13,13 @@ import { errorMessage, requiredWith, schemaValidator } from '../shell/validators
 import { AUTH_URLS } from './auth-session';
 import { PASSWORD_RULE } from './password-rule';
 import { PasswordToggle } from './password-toggle';
+import { ErrorBanner } from '../forms/error-banner';
 
 /** Choosing a new password from the link of a reset e-mail (`/reset-password?token=…`). */
 @Component({
   selector: 'app-reset-password-page',
   imports: [
+    ErrorBanner,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
@@ -30,10 +32,11 @@ import { PasswordToggle } from './password-toggle';
   template: `
     <h1>Choose a new password</h1>
     @if (!token()) {
-      <div class="form-error" role="alert">
-        <mat-icon aria-hidden="true">link_off</mat-icon>
-        <p>This link is incomplete. Open the whole link from the e-mail, or ask for a new one.</p>
-      </div>
+      <app-error-banner
+        class="form-error"
+        icon="link_off"
+        message="This link is incomplete. Open the whole link from the e-mail, or ask for a new one."
+      />
       <div class="links">
         <a routerLink="/forgot-password">Ask for a new link</a>
         <a routerLink="/sign-in">Back to sign in</a>
@@ -50,15 +53,11 @@ import { PasswordToggle } from './password-toggle';
       <p class="lead">Your new password replaces the old one everywhere you sign in.</p>
       <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
         @if (formError(); as message) {
-          <div class="form-error" role="alert">
-            <mat-icon aria-hidden="true">error</mat-icon>
-            <p>
-              {{ message }}
-              @if (linkSpent()) {
-                <a routerLink="/forgot-password">Ask for a new link</a>.
-              }
-            </p>
-          </div>
+          <app-error-banner class="form-error" [message]="message">
+            @if (linkSpent()) {
+              <a routerLink="/forgot-password">Ask for a new link</a>.
+            }
+          </app-error-banner>
         }
         <mat-form-field appearance="outline" subscriptSizing="dynamic">
           <mat-label>New password</mat-label>

@@ -13,11 +13,13 @@ import { errorMessage, requiredWith } from '../shell/validators';
 import { safeReturnUrl } from './auth.guards';
 import { AuthSession } from './auth-session';
 import { PasswordToggle } from './password-toggle';
+import { ErrorBanner } from '../forms/error-banner';
 
 /** Signing in with an e-mail address and a password, then back to the page the person asked for. */
 @Component({
   selector: 'app-sign-in-page',
   imports: [
+    ErrorBanner,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,

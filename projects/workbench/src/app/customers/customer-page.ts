@@ -11,9 +11,9 @@ import { RecordHistorySection } from '../records/record-history-section';
 import { RecordPageHeader } from '../records/record-page-header';
 import { type Machine, MachinesApi } from '../machines/machines.api';
 import { idFromRoute, recordView } from '../records/record-page';
-import { httpErrorMessage } from '../shell/server-errors';
 import { CUSTOMER_FIELDS } from './customer-form-model';
 import { CustomersApi } from './customers.api';
+import { ErrorBanner } from '../forms/error-banner';
 
 /** How many of a customer's machines the page lists; a customer with more is searched in Machines. */
 const MACHINES_SHOWN = 100;
@@ -25,6 +25,7 @@ const MACHINES_SHOWN = 100;
 @Component({
   selector: 'app-customer-page',
   imports: [
+    ErrorBanner,
     RecordHistorySection,
     RecordPageHeader,
     DatePipe,
@@ -64,7 +65,6 @@ export class CustomerPage {
     this.machines.hasValue() ? this.machines.value().items : [],
   );
   protected readonly fields = CUSTOMER_FIELDS;
-  protected readonly httpErrorMessage = httpErrorMessage;
   protected readonly machineColumns = ['serialNumber', 'machine'];
 
   protected asMachine(row: Machine): Machine {

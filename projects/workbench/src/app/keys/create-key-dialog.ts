@@ -31,6 +31,7 @@ import type { CreatedApiKey } from '../auth/api-types';
 import { formErrorOf } from '../shell/server-errors';
 import { errorMessage, requiredWith, schemaError, schemaValidator } from '../shell/validators';
 import { type CreateApiKeyRequest, KeysApi } from './keys.api';
+import { ErrorBanner } from '../forms/error-banner';
 
 /**
  * Creating an API key, then showing it the one time the server ever answers it, with a copy button. Once
@@ -40,6 +41,7 @@ import { type CreateApiKeyRequest, KeysApi } from './keys.api';
 @Component({
   selector: 'app-create-key-dialog',
   imports: [
+    ErrorBanner,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,

@@ -26,6 +26,7 @@ import { httpErrorMessage } from '../shell/server-errors';
 import { API_REFERENCE_URL } from '../status/health.api';
 import { CreateKeyDialog } from './create-key-dialog';
 import { KeysApi } from './keys.api';
+import { ErrorBanner } from '../forms/error-banner';
 
 /**
  * The organisation's API keys: creating one (shown once, with a copy button), what each is called, how it
@@ -34,6 +35,7 @@ import { KeysApi } from './keys.api';
 @Component({
   selector: 'app-keys-page',
   imports: [
+    ErrorBanner,
     DatePipe,
     MatButtonModule,
     MatIconModule,
@@ -71,7 +73,6 @@ export class KeysPage {
   private readonly createButton = viewChild.required('createButton', { read: ElementRef<HTMLButtonElement> });
   /** The id of the key being revoked, to show its row busy. */
   protected readonly revoking = signal<number | null>(null);
-  protected readonly httpErrorMessage = httpErrorMessage;
   protected readonly apiReferenceUrl = API_REFERENCE_URL;
 
   protected create(): void {

@@ -42,6 +42,7 @@ import {
   type SensitivityGroup,
 } from './family-form-model';
 import { MachineFamiliesApi } from './machine-families.api';
+import { ErrorBanner } from '../forms/error-banner';
 
 /** At most one figure per sensor and plane: two sensors on two planes. */
 const MAX_SENSITIVITIES = 4;
@@ -54,6 +55,7 @@ const MAX_SENSITIVITIES = 4;
 @Component({
   selector: 'app-machine-family-form-page',
   imports: [
+    ErrorBanner,
     RecordFormError,
     RecordFormFrame,
     RecordSaveBar,

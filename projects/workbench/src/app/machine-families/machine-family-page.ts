@@ -17,6 +17,7 @@ import {
 import { idFromRoute, recordView } from '../records/record-page';
 import { describeEvidence, FAMILY_FIELDS } from './family-form-model';
 import { MachineFamiliesApi } from './machine-families.api';
+import { ErrorBanner } from '../forms/error-banner';
 
 /**
  * One machine family: its rotor, speed, planes and radii, inspection limits, acceptance level and the
@@ -26,6 +27,7 @@ import { MachineFamiliesApi } from './machine-families.api';
 @Component({
   selector: 'app-machine-family-page',
   imports: [
+    ErrorBanner,
     RecordHistorySection,
     RecordPageHeader,
     DatePipe,

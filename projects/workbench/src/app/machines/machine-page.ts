@@ -21,6 +21,7 @@ import {
 import { idFromRoute, recordView } from '../records/record-page';
 import { describePlane, MACHINE_FIELDS } from './machine-form-model';
 import { type Machine, MachinesApi, type PlaneLayout } from './machines.api';
+import { ErrorBanner } from '../forms/error-banner';
 
 /**
  * One machine: whose it is, its family, identity and running figures, its sensors and direction of
@@ -30,6 +31,7 @@ import { type Machine, MachinesApi, type PlaneLayout } from './machines.api';
 @Component({
   selector: 'app-machine-page',
   imports: [
+    ErrorBanner,
     RecordHistorySection,
     RecordPageHeader,
     CpCorrectionOverlay,

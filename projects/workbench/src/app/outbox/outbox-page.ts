@@ -17,9 +17,9 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { Router, RouterLink } from '@angular/router';
 import { map } from 'rxjs';
-import { httpErrorMessage } from '../shell/server-errors';
 import { hasMaskedSecret, linkify, MASKED_SECRET, pathInApp } from './message-text';
 import { OutboxApi } from './outbox.api';
+import { ErrorBanner } from '../forms/error-banner';
 
 /** From this width the list and the open message sit side by side. */
 const TWO_PANES = '(min-width: 960px)';
@@ -31,7 +31,7 @@ const TWO_PANES = '(min-width: 960px)';
  */
 @Component({
   selector: 'app-outbox-page',
-  imports: [DatePipe, MatButtonModule, MatIconModule, MatProgressSpinnerModule, RouterLink],
+  imports: [ErrorBanner, DatePipe, MatButtonModule, MatIconModule, MatProgressSpinnerModule, RouterLink],
   templateUrl: './outbox-page.html',
   styleUrl: './outbox-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -65,7 +65,6 @@ export class OutboxPage {
       .pipe(map((state) => state.matches)),
     { initialValue: true },
   );
-  protected readonly httpErrorMessage = httpErrorMessage;
   protected readonly hasMaskedSecret = hasMaskedSecret;
   protected readonly maskedSecret = MASKED_SECRET;
 

@@ -2,7 +2,6 @@ import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/cor
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatRadioModule } from '@angular/material/radio';
 import { type Role, ROLES, type User } from '@counterpoise/api';
@@ -10,6 +9,7 @@ import type { UpdatePerson } from '../auth/api-types';
 import { ROLE_LABELS, ROLE_SUMMARIES } from '../auth/roles';
 import { httpErrorMessage, problemOf } from '../shell/server-errors';
 import { PeopleApi } from './people.api';
+import { ErrorBanner } from '../forms/error-banner';
 
 /**
  * Giving a person another role, each role with what it does, so that the choice is made knowingly. The
@@ -18,10 +18,10 @@ import { PeopleApi } from './people.api';
 @Component({
   selector: 'app-change-role-dialog',
   imports: [
+    ErrorBanner,
     FormsModule,
     MatButtonModule,
     MatDialogModule,
-    MatIconModule,
     MatProgressSpinnerModule,
     MatRadioModule,
   ],
@@ -30,10 +30,7 @@ import { PeopleApi } from './people.api';
     <mat-dialog-content>
       <p class="lead">Their jobs and reports stay as they are; what they may do from now on changes.</p>
       @if (formError(); as message) {
-        <p class="form-error" role="alert">
-          <mat-icon aria-hidden="true">error</mat-icon>
-          {{ message }}
-        </p>
+        <app-error-banner class="form-error" [message]="message" />
       }
       <mat-radio-group class="roles" aria-label="Role" [(ngModel)]="chosen">
         @for (role of roles; track role) {

@@ -4,7 +4,6 @@ import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSelectModule } from '@angular/material/select';
@@ -14,6 +13,7 @@ import { ROLE_LABELS, ROLE_SUMMARIES } from '../auth/roles';
 import { formErrorOf, httpErrorMessage, problemOf } from '../shell/server-errors';
 import { errorMessage, requiredWith, schemaValidator } from '../shell/validators';
 import { PeopleApi } from './people.api';
+import { ErrorBanner } from '../forms/error-banner';
 
 /** What the invitation dialog needs to know. */
 export interface InviteDialogData {
@@ -37,10 +37,10 @@ export interface InviteOutcome {
 @Component({
   selector: 'app-invite-dialog',
   imports: [
+    ErrorBanner,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
     MatProgressSpinnerModule,
     MatSelectModule,
@@ -55,10 +55,7 @@ export interface InviteOutcome {
           you give here.
         </p>
         @if (formError(); as message) {
-          <p class="form-error" role="alert">
-            <mat-icon aria-hidden="true">error</mat-icon>
-            {{ message }}
-          </p>
+          <app-error-banner class="form-error" [message]="message" />
         }
         <mat-form-field appearance="outline" subscriptSizing="dynamic">
           <mat-label>E-mail address</mat-label>

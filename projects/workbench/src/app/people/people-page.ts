@@ -31,6 +31,7 @@ import { ChangeRoleDialog } from './change-role-dialog';
 import { InviteDialog, type InviteDialogData, type InviteOutcome } from './invite-dialog';
 import { sortAndFilterPeople, STATUS_LABELS } from './people-rules';
 import { PeopleApi } from './people.api';
+import { ErrorBanner } from '../forms/error-banner';
 
 /**
  * The people of the organisation: a sortable, filterable table, the pending invitations, and for those
@@ -39,6 +40,7 @@ import { PeopleApi } from './people.api';
 @Component({
   selector: 'app-people-page',
   imports: [
+    ErrorBanner,
     DatePipe,
     MatButtonModule,
     MatFormFieldModule,
@@ -89,7 +91,6 @@ export class PeoplePage {
   });
   /** The id of the person whose status is being changed, to show the row busy. */
   protected readonly updating = signal<number | null>(null);
-  protected readonly httpErrorMessage = httpErrorMessage;
 
   // The table's row templates are untyped; these give their values a type again.
   protected roleLabel(row: User | Invitation): string {

@@ -1,9 +1,8 @@
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
-import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import type { RecordChange } from '@counterpoise/api';
+import { ErrorBanner } from '../forms/error-banner';
 import { type FieldDescriptions, fieldLabel, fieldValue, isEmptyValue } from './record-fields';
 
 /** One change in words: who did what, and each field's before and after. */
@@ -52,17 +51,15 @@ export function describeChange(change: RecordChange, noun: string, fields: Field
  */
 @Component({
   selector: 'app-change-history',
-  imports: [DatePipe, MatButtonModule, MatIconModule, MatProgressSpinnerModule],
+  imports: [DatePipe, ErrorBanner, MatProgressSpinnerModule],
   template: `
     @if (failed(); as message) {
-      <div class="problem" role="alert">
-        <mat-icon aria-hidden="true">error</mat-icon>
-        <p>The history could not be fetched. {{ message }}</p>
-        <button matButton="outlined" type="button" (click)="retry.emit()">
-          <mat-icon aria-hidden="true">refresh</mat-icon>
-          Try again
-        </button>
-      </div>
+      <app-error-banner
+        lead="The history could not be fetched."
+        [message]="message"
+        retryLabel="Try again"
+        (retry)="retry.emit()"
+      />
     } @else if (entries(); as entries) {
       @if (entries.length === 0) {
         <p class="empty">No changes recorded yet.</p>
@@ -128,21 +125,6 @@ export function describeChange(change: RecordChange, noun: string, fields: Field
       gap: 12px;
       margin: 0;
       color: var(--mat-sys-on-surface-variant);
-    }
-    .problem {
-      display: flex;
-      flex-wrap: wrap;
-      align-items: center;
-      gap: 12px;
-      padding: 12px 16px;
-      border-radius: var(--mat-sys-corner-medium);
-      background: var(--mat-sys-error-container);
-      color: var(--mat-sys-on-error-container);
-      --mat-button-outlined-container-height: 48px;
-    }
-    .problem p {
-      flex: 1 1 16rem;
-      margin: 0;
     }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -8,9 +8,9 @@ import {
   TemplateRef,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
+import { ErrorBanner } from '../forms/error-banner';
 
 /** What RecordFormFrame reads of a RecordForm: whether the record to edit is on its way or failed. */
 export interface RecordFormLoad {
@@ -26,14 +26,16 @@ export interface RecordFormLoad {
  */
 @Component({
   selector: 'app-record-form-frame',
-  imports: [MatButtonModule, MatIconModule, MatProgressSpinnerModule, NgTemplateOutlet, RouterLink],
+  imports: [ErrorBanner, MatButtonModule, MatProgressSpinnerModule, NgTemplateOutlet, RouterLink],
   template: `
     @if (editing().loadError(); as message) {
-      <div class="problem" role="alert">
-        <mat-icon aria-hidden="true">error</mat-icon>
-        <p>The {{ noun() }} could not be fetched. {{ message }}</p>
-        <a matButton="outlined" [routerLink]="listLink()">{{ backLabel() }}</a>
-      </div>
+      <app-error-banner
+        class="problem"
+        [lead]="'The ' + noun() + ' could not be fetched.'"
+        [message]="message"
+      >
+        <a errorBannerAction matButton="outlined" [routerLink]="listLink()">{{ backLabel() }}</a>
+      </app-error-banner>
     } @else if (editing().loading()) {
       <p class="state" role="status">
         <mat-spinner diameter="24" aria-hidden="true" />
@@ -63,13 +65,10 @@ export class RecordFormFrame {
  */
 @Component({
   selector: 'app-record-form-error',
-  imports: [MatIconModule],
+  imports: [ErrorBanner],
   template: `
     @if (message(); as message) {
-      <p class="form-error" role="alert" tabindex="-1">
-        <mat-icon aria-hidden="true">error</mat-icon>
-        {{ message }}
-      </p>
+      <app-error-banner class="form-error" [message]="message" focusable />
     }
   `,
   styleUrl: './record-form-frame.scss',

@@ -1,6 +1,5 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { ReactiveFormsModule } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -8,7 +7,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
-import { httpErrorMessage } from '../shell/server-errors';
+import { ErrorBanner } from '../forms/error-banner';
 import type { RecordList } from './record-list';
 
 /**
@@ -56,23 +55,16 @@ export class RecordListFilters {
  */
 @Component({
   selector: 'app-record-list-frame',
-  imports: [
-    MatButtonModule,
-    MatIconModule,
-    MatPaginatorModule,
-    MatProgressBarModule,
-    MatProgressSpinnerModule,
-  ],
+  imports: [ErrorBanner, MatPaginatorModule, MatProgressBarModule, MatProgressSpinnerModule],
   template: `
     @if (records().list.error(); as error) {
-      <div class="problem" role="alert">
-        <mat-icon aria-hidden="true">error</mat-icon>
-        <p>The {{ noun() }} could not be fetched. {{ httpErrorMessage(error) }}</p>
-        <button matButton="outlined" type="button" (click)="records().list.reload()">
-          <mat-icon aria-hidden="true">refresh</mat-icon>
-          Try again
-        </button>
-      </div>
+      <app-error-banner
+        class="problem"
+        [lead]="'The ' + noun() + ' could not be fetched.'"
+        [error]="error"
+        retryLabel="Try again"
+        (retry)="records().list.reload()"
+      />
     } @else if (records().list.page(); as page) {
       <p class="count" aria-live="polite">{{ records().countSentence(page.total) }}</p>
       <div class="table-wrap">
@@ -109,5 +101,4 @@ export class RecordListFrame {
   readonly records = input.required<RecordList<unknown>>();
   /** The records as the sentences name them: "customers", "machine families". */
   readonly noun = input.required<string>();
-  protected readonly httpErrorMessage = httpErrorMessage;
 }
