@@ -11,3 +11,4 @@ export * from './tolerance';
 export * from './severity';
 export * from './inspection';
 export { conditionNumber, leastSquares, singularValues, complexMatrix, type ComplexMatrix } from './linalg';
+export * from './run-checks';
