@@ -14,3 +14,4 @@ export * from './usage';
 export * from './accounts';
 export * from './records';
 export * from './people-rules';
+export * from './jobs';

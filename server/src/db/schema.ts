@@ -16,6 +16,18 @@ import type {
   PlaneLayout,
   StoredSensitivity,
 } from '@counterpoise/api';
+import type {
+  InstalledWeight,
+  StoredAbandonment,
+  StoredCalc,
+  StoredCompletion,
+  StoredInspection,
+  StoredPlaneWeight,
+  StoredPrediction,
+  StoredSafety,
+  StoredSensorReading,
+  StoredSetup,
+} from '../jobs/job-records';
 
 /**
  * Facts about this installation that belong to no feature: when the demo data was seeded, and by which
@@ -364,4 +376,110 @@ export const recordChanges = sqliteTable(
       table.version,
     ),
   ],
+);
+
+/**
+ * Balancing jobs: a machine, a technician and a date, and the steps done so far. The steps that are
+ * written whole (safety, inspection, set-up, completion, abandonment) are JSON columns of the job; runs
+ * and corrections are rows of their own, numbered within the job. Every change of a job, a run or a
+ * correction included, adds one to the job's `version` in the same transaction, so that a change made on
+ * an older version is refused (the API's ETag), and two writes sent at once cannot both land.
+ */
+export const jobs = sqliteTable(
+  'jobs',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    organisationId: integer('organisation_id')
+      .notNull()
+      .references(() => organisations.id),
+    machineId: integer('machine_id')
+      .notNull()
+      .references(() => machines.id),
+    technicianId: integer('technician_id')
+      .notNull()
+      .references(() => users.id),
+    /** The day the job is planned for, `YYYY-MM-DD`. */
+    scheduledFor: text('scheduled_for').notNull(),
+    status: text('status', { enum: ['open', 'on-hold', 'completed', 'abandoned'] }).notNull(),
+    safety: text('safety', { mode: 'json' }).$type<StoredSafety>(),
+    inspection: text('inspection', { mode: 'json' }).$type<StoredInspection>(),
+    setup: text('setup', { mode: 'json' }).$type<StoredSetup>(),
+    completion: text('completion', { mode: 'json' }).$type<StoredCompletion>(),
+    abandonment: text('abandonment', { mode: 'json' }).$type<StoredAbandonment>(),
+    version: integer('version').notNull(),
+    createdById: integer('created_by_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull(),
+    updatedAt: integer('updated_at', { mode: 'timestamp_ms' }).notNull(),
+  },
+  (table) => [
+    index('jobs_organisation_scheduled_idx').on(table.organisationId, table.scheduledFor),
+    index('jobs_organisation_technician_idx').on(table.organisationId, table.technicianId),
+    index('jobs_machine_id_idx').on(table.machineId),
+    check('jobs_version_positive', sql`${table.version} > 0`),
+  ],
+);
+
+/**
+ * The runs of a job: the readings of every sensor (each repeat as typed, and their vector average), the
+ * trial weight of a trial run, and the job's weights on the rotor while it turned. Numbered within the
+ * job; the unique index makes two runs with one number impossible.
+ */
+export const jobRuns = sqliteTable(
+  'job_runs',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    organisationId: integer('organisation_id')
+      .notNull()
+      .references(() => organisations.id),
+    jobId: integer('job_id')
+      .notNull()
+      .references(() => jobs.id),
+    sequence: integer('sequence').notNull(),
+    kind: text('kind', { enum: ['initial', 'trial', 'verification'] }).notNull(),
+    trialWeight: text('trial_weight', { mode: 'json' }).$type<StoredPlaneWeight>(),
+    weightsOnRotor: text('weights_on_rotor', { mode: 'json' }).$type<StoredPlaneWeight[]>().notNull(),
+    readings: text('readings', { mode: 'json' }).$type<StoredSensorReading[]>().notNull(),
+    warnings: text('warnings', { mode: 'json' }).$type<string[]>().notNull(),
+    createdById: integer('created_by_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull(),
+  },
+  (table) => [uniqueIndex('job_runs_job_sequence_idx').on(table.jobId, table.sequence)],
+);
+
+/**
+ * The corrections of a job: the method, the runs and the calculator request they were computed from,
+ * the answer, the plan, and what was really installed with the reading it predicts. Computed by the
+ * server from the stored runs, never taken from the client.
+ */
+export const jobCorrections = sqliteTable(
+  'job_corrections',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    organisationId: integer('organisation_id')
+      .notNull()
+      .references(() => organisations.id),
+    jobId: integer('job_id')
+      .notNull()
+      .references(() => jobs.id),
+    sequence: integer('sequence').notNull(),
+    method: text('method', { enum: ['one-run', 'single-plane', 'multi-plane'] }).notNull(),
+    basis: text('basis', { enum: ['sensitivity', 'trial', 'trim'] }).notNull(),
+    runIds: text('run_ids', { mode: 'json' }).$type<number[]>().notNull(),
+    calc: text('calc', { mode: 'json' }).$type<StoredCalc>().notNull(),
+    result: text('result', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+    plan: text('plan', { mode: 'json' }).$type<StoredPlaneWeight[]>().notNull(),
+    installed: text('installed', { mode: 'json' }).$type<InstalledWeight[]>(),
+    predicted: text('predicted', { mode: 'json' }).$type<StoredPrediction>(),
+    installedAt: integer('installed_at', { mode: 'timestamp_ms' }),
+    warnings: text('warnings', { mode: 'json' }).$type<string[]>().notNull(),
+    createdById: integer('created_by_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull(),
+  },
+  (table) => [uniqueIndex('job_corrections_job_sequence_idx').on(table.jobId, table.sequence)],
 );
