@@ -3,11 +3,11 @@ import {
   NO_ANGLE_TEXT,
   describeZeroPosition,
   dialValueText,
-  formatAngle,
   largeStepDeg,
   maxDialValue,
   nextDialValue,
   parseAngleText,
+  phaseDialErrorMessage,
   phaseDialErrors,
   toDialAngle,
   validStep,
@@ -153,6 +153,50 @@ describe('phaseDialErrors', () => {
     expect(phaseDialErrors(null, { positions: [0, 120, 240] })).toBeNull();
     expect(phaseDialErrors(100, { positions: [] })).toBeNull();
   });
+
+  it('tells a value that is not a number from an empty one', () => {
+    expect(phaseDialErrors('north', { required: true })).toEqual({ cpPhaseNumber: { text: 'north' } });
+    expect(phaseDialErrors('', { required: true })).toEqual({ required: true });
+    expect(phaseDialErrors('', {})).toBeNull();
+  });
+
+  it('reports typed text that is not a number, whatever the value behind it', () => {
+    expect(phaseDialErrors(120, { typedText: '12a' })).toEqual({ cpPhaseNumber: { text: '12a' } });
+    expect(phaseDialErrors(null, { typedText: '-', required: true })).toEqual({
+      cpPhaseNumber: { text: '-' },
+    });
+    expect(phaseDialErrors(12.5, { typedText: '12,5' })).toBeNull();
+    expect(phaseDialErrors(null, { typedText: '', required: true })).toEqual({ required: true });
+    expect(phaseDialErrors(12, { typedText: null })).toBeNull();
+  });
+});
+
+describe('phaseDialErrorMessage', () => {
+  it('says in words why the angle is not accepted', () => {
+    expect(phaseDialErrorMessage({ required: true })).toBe('Enter an angle, or set it on the dial.');
+    expect(phaseDialErrorMessage({ cpPhaseNumber: { text: '12a' } })).toBe(
+      'Type the angle as a number of degrees, such as 45 or 127.5.',
+    );
+    expect(phaseDialErrorMessage({ cpPhasePosition: { allowed: [0, 22.5, 240] } })).toBe(
+      'Choose one of the allowed positions: 0°, 22.5°, 240°.',
+    );
+  });
+
+  it('counts the positions instead of listing many, and has a word for the page own validators', () => {
+    const allowed = Array.from({ length: 24 }, (_, index) => index * 15);
+    expect(phaseDialErrorMessage({ cpPhasePosition: { allowed } })).toBe(
+      'Choose one of the 24 allowed positions.',
+    );
+    expect(phaseDialErrorMessage({ min: { min: 0, actual: -5 } })).toBe('This angle is not accepted here.');
+  });
+
+  it('gives the first that applies, and nothing without errors', () => {
+    expect(phaseDialErrorMessage({ required: true, min: { min: 0, actual: -5 } })).toBe(
+      'Enter an angle, or set it on the dial.',
+    );
+    expect(phaseDialErrorMessage(null)).toBeNull();
+    expect(phaseDialErrorMessage({})).toBeNull();
+  });
 });
 
 describe('text', () => {
@@ -164,12 +208,6 @@ describe('text', () => {
       '7.5 degrees, counted against rotation from the reference mark',
     );
     expect(dialValueText(null, 'withRotation')).toBe(NO_ANGLE_TEXT);
-  });
-
-  it('writes angles with at most two decimals', () => {
-    expect(formatAngle(123)).toBe('123');
-    expect(formatAngle(12.5)).toBe('12.5');
-    expect(formatAngle(1 / 3)).toBe('0.33');
   });
 
   it('reads typed angles, coming round from 360 and below 0', () => {

@@ -3,7 +3,16 @@
  * what a screen reader hears. Framework-free, so it is tested without TestBed; the component is a thin
  * shell over it.
  */
-import { type RotationCounting, describeAngle, isAllowedPosition, normalizeDeg } from '@counterpoise/ng/core';
+import {
+  type RotationCounting,
+  describeAngle,
+  formatAngle,
+  isAllowedPosition,
+  normalizeDeg,
+} from '@counterpoise/ng/core';
+
+// phase-dial-drawing.ts still imports formatAngle from here; the one formatter is core's.
+export { formatAngle } from '@counterpoise/ng/core';
 
 /** What a marker on the dial stands for. */
 export type PhaseDialMarkerKind = 'heavySpot' | 'trialWeight' | 'correction' | 'reading';
@@ -42,17 +51,21 @@ export interface DialValueOptions {
   readonly positions?: readonly number[];
 }
 
-/** The keys the dial handles. */
-export type PhaseDialKey =
-  'ArrowUp' | 'ArrowRight' | 'ArrowDown' | 'ArrowLeft' | 'PageUp' | 'PageDown' | 'Home' | 'End';
-
 /** The errors the dial reports to forms. */
 export interface PhaseDialErrors {
   /** No angle is set and one is required. */
   required?: true;
+  /** The value is not a number: the form holds something else, or the typed text is not one. */
+  cpPhaseNumber?: { text: string };
   /** The angle is not one of the allowed positions. */
   cpPhasePosition?: { allowed: number[] };
 }
+
+/** How many decimals the dial writes an angle with: as many as a technician types off a meter. */
+export const DIAL_ANGLE_DECIMALS = 2;
+
+/** More positions than this are not listed one by one in an error message. */
+const MAX_LISTED_POSITIONS = 12;
 
 /** What a screen reader hears when no angle is set. */
 export const NO_ANGLE_TEXT = 'no angle set';
@@ -172,11 +185,26 @@ export function toDialAngle(value: unknown): number | null {
   return typeof value === 'number' && Number.isFinite(value) ? normalizeDeg(value) : null;
 }
 
-/** The errors of a value: `required` when none is set, `cpPhasePosition` when it is off every position. */
+/**
+ * The errors of a value: `required` when none is set, `cpPhaseNumber` when the form holds something that
+ * is not a number or the field holds text that is not one (`typedText`), `cpPhasePosition` when it is off
+ * every position. Any finite number is an angle: 480 and -90 come round, as a technician means them.
+ */
 export function phaseDialErrors(
   value: unknown,
-  rules: { readonly required?: boolean; readonly positions?: readonly number[] },
+  rules: {
+    readonly required?: boolean;
+    readonly positions?: readonly number[];
+    readonly typedText?: string | null;
+  },
 ): PhaseDialErrors | null {
+  const typed = rules.typedText;
+  if (typed !== undefined && typed !== null && parseAngleText(typed) === undefined) {
+    return { cpPhaseNumber: { text: typed } };
+  }
+  if (value !== null && value !== undefined && value !== '' && typeof value !== 'number') {
+    return { cpPhaseNumber: { text: String(value) } };
+  }
   const angle = toDialAngle(value);
   if (angle === null) return rules.required ? { required: true } : null;
   const positions = rules.positions ?? [];
@@ -186,14 +214,28 @@ export function phaseDialErrors(
   return null;
 }
 
+/**
+ * The sentence the dial shows under itself for a control's errors, the first that applies: its own
+ * errors in plain words, and a general one for a validator of the page that brought no message of its
+ * own. Null when there is no error.
+ */
+export function phaseDialErrorMessage(errors: Readonly<Record<string, unknown>> | null): string | null {
+  if (errors === null || Object.keys(errors).length === 0) return null;
+  const own = errors as PhaseDialErrors;
+  if (own.required) return 'Enter an angle, or set it on the dial.';
+  if (own.cpPhaseNumber) return 'Type the angle as a number of degrees, such as 45 or 127.5.';
+  if (own.cpPhasePosition) {
+    const allowed = own.cpPhasePosition.allowed;
+    return allowed.length > MAX_LISTED_POSITIONS
+      ? `Choose one of the ${allowed.length} allowed positions.`
+      : `Choose one of the allowed positions: ${allowed.map((angle) => `${formatAngle(angle, DIAL_ANGLE_DECIMALS)}°`).join(', ')}.`;
+  }
+  return 'This angle is not accepted here.';
+}
+
 /** What a screen reader hears: "123 degrees, counted with rotation from the reference mark", or that none is set. */
 export function dialValueText(value: number | null, counting: RotationCounting): string {
   return value === null ? NO_ANGLE_TEXT : describeAngle(value, counting);
-}
-
-/** An angle as the dial writes it: at most two decimals, no trailing zeros ("123", "12.5"). */
-export function formatAngle(angleDeg: number): string {
-  return String(Math.round(angleDeg * 100) / 100);
 }
 
 /**
@@ -217,5 +259,5 @@ export function describeZeroPosition(zeroAtDeg: number): string {
     180: 'at the bottom',
     270: 'on the left',
   };
-  return named[screen] ?? `${formatAngle(screen)} degrees clockwise from the top`;
+  return named[screen] ?? `${formatAngle(screen, DIAL_ANGLE_DECIMALS)} degrees clockwise from the top`;
 }

@@ -1,7 +1,8 @@
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ChangeDetectionStrategy, Component, signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
-import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import type { ErrorStateMatcher } from '@angular/material/core';
 import type { RotationCounting, DialPositions, RotationDirection } from '@counterpoise/ng/core';
 import { CpPhaseDialHarness } from '@counterpoise/ng/phase-dial/testing';
 import { describe, expect, it } from 'vitest';
@@ -23,6 +24,7 @@ import type { PhaseDialMarker } from './phase-dial-values';
       [markers]="markers()"
       [compact]="compact()"
       [readonly]="readonly()"
+      [errorText]="errorText()"
       (valueCommit)="commits.push($event)"
     />
     <cp-phase-dial label="Heavy spot" [value]="212" [disabled]="true" />
@@ -40,7 +42,39 @@ class Host {
   readonly markers = signal<readonly PhaseDialMarker[]>([]);
   readonly compact = signal(false);
   readonly readonly = signal(false);
+  readonly errorText = signal<string | null>(null);
   readonly commits: (number | null)[] = [];
+}
+
+@Component({
+  imports: [CpPhaseDial, ReactiveFormsModule],
+  template: `
+    <form [formGroup]="form">
+      <cp-phase-dial
+        label="Phase of run 1"
+        formControlName="phaseDeg"
+        [required]="true"
+        [compact]="compact()"
+      />
+      <cp-phase-dial
+        label="Phase of run 2"
+        formControlName="laterDeg"
+        [required]="true"
+        [errorStateMatcher]="dirty"
+      />
+      <button type="submit">Calculate</button>
+    </form>
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+class FormHost {
+  readonly form = new FormGroup({
+    phaseDeg: new FormControl<number | null>(null),
+    laterDeg: new FormControl<number | null>(null),
+  });
+  readonly compact = signal(false);
+  /** A page that shows errors only once the technician changed the value, even after submitting. */
+  readonly dirty: ErrorStateMatcher = { isErrorState: (control) => !!control?.invalid && control.dirty };
 }
 
 async function setUp() {
@@ -293,5 +327,121 @@ describe('CpPhaseDial', () => {
     expect(await dial.getDescription()).toBe(
       'The rotor turns counter-clockwise as seen here. The reference mark is on the left.',
     );
+  });
+
+  it('says why it is invalid in its own words once touched, and points the slider at the message', async () => {
+    const { fixture, dial, host, change } = await setUp();
+    const slider: HTMLElement = fixture.nativeElement.querySelector('[role="slider"]');
+    const descriptionId = slider.getAttribute('aria-describedby');
+    expect(await dial.getErrorText()).toBeNull();
+    expect(slider.hasAttribute('aria-invalid')).toBe(false);
+
+    await dial.focus();
+    await dial.blur();
+    expect(await dial.getErrorText()).toBe('Enter an angle, or set it on the dial.');
+    expect(await dial.isInvalid()).toBe(true);
+    const [, errorId] = slider.getAttribute('aria-describedby')!.split(' ');
+    const error: HTMLElement = fixture.nativeElement.querySelector(`#${errorId}`);
+    expect(error.textContent?.trim()).toBe('Enter an angle, or set it on the dial.');
+    expect(error.closest('[aria-live="polite"]')).not.toBeNull();
+    expect(fixture.nativeElement.querySelector('[role="alert"]')).toBeNull();
+
+    await change(() => host.positions.set({ count: 3, firstDeg: 0 }));
+    host.angle.setValue(100);
+    expect(await dial.getErrorText()).toBe('Choose one of the allowed positions: 0°, 120°, 240°.');
+    await dial.pressKey('ArrowUp');
+    expect(await dial.getErrorText()).toBeNull();
+    expect(slider.getAttribute('aria-describedby')).toBe(descriptionId);
+    expect(slider.hasAttribute('aria-invalid')).toBe(false);
+  });
+
+  it("shows the page's own message in place of its own, and only in error state", async () => {
+    const { dial, host, change } = await setUp();
+    await change(() => host.errorText.set('Enter the phase of the initial run'));
+    expect(await dial.getErrorText()).toBeNull();
+    host.angle.markAsTouched();
+    expect(await dial.getErrorText()).toBe('Enter the phase of the initial run');
+    await change(() => host.errorText.set(null));
+    expect(await dial.getErrorText()).toBe('Enter an angle, or set it on the dial.');
+    await change(() => host.errorText.set('Enter the phase of the initial run'));
+    await dial.pressKey('Home');
+    expect(await dial.getErrorText()).toBeNull();
+  });
+
+  it('puts its numeric field in a Material outlined form field with its label, unit and error', async () => {
+    const { fixture, dial, host, change } = await setUp();
+    expect(await dial.getFormField()).toBeNull();
+    await change(() => host.compact.set(true));
+    const formField = (await dial.getFormField())!;
+    expect(await formField.getAppearance()).toBe('outline');
+    expect(await formField.getLabel()).toBe('Trial weight angle');
+    expect(await formField.hasErrors()).toBe(false);
+    expect(await formField.getTextHints()).toEqual(['Degrees against rotation from the mark']);
+    const input: HTMLInputElement = fixture.nativeElement.querySelector('input');
+    expect(input.getAttribute('inputmode')).toBe('decimal');
+    expect(input.getAttribute('aria-required')).toBe('true');
+    expect(fixture.nativeElement.querySelector('.mat-mdc-form-field-text-suffix').textContent.trim()).toBe(
+      '°',
+    );
+
+    await dial.typeInField('');
+    expect(await formField.getTextErrors()).toEqual(['Enter an angle, or set it on the dial.']);
+    expect(await dial.getErrorText()).toBe('Enter an angle, or set it on the dial.');
+    // As Material's inputs do, an empty required field is announced as required rather than invalid.
+    expect(input.getAttribute('aria-invalid')).toBeNull();
+    expect(await dial.isInvalid()).toBe(true);
+    const errorId = fixture.nativeElement.querySelector('mat-error').id;
+    expect(input.getAttribute('aria-describedby')).toContain(errorId);
+    const slider: HTMLElement = fixture.nativeElement.querySelector('[role="slider"]');
+    expect(slider.getAttribute('aria-describedby')).toContain(errorId);
+  });
+
+  it('keeps typed text that is not a number, and says so', async () => {
+    const { fixture, dial, host, change } = await setUp();
+    await change(() => host.compact.set(true));
+    host.angle.setValue(40);
+    await dial.typeInField('4o');
+    expect(await dial.getFieldText()).toBe('4o');
+    expect(host.angle.errors).toEqual({ cpPhaseNumber: { text: '4o' } });
+    expect(await dial.getErrorText()).toBe('Type the angle as a number of degrees, such as 45 or 127.5.');
+    expect(fixture.nativeElement.querySelector('input').getAttribute('aria-invalid')).toBe('true');
+    await dial.typeInField('45');
+    expect(host.angle.value).toBe(45);
+    expect(host.angle.valid).toBe(true);
+    expect(await dial.getErrorText()).toBeNull();
+    expect(host.commits).toEqual([45]);
+  });
+
+  it('shows the error once its form is submitted, or as its own error state matcher says', async () => {
+    const fixture = TestBed.createComponent(FormHost);
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    const first = await loader.getHarness(CpPhaseDialHarness.with({ label: 'Phase of run 1' }));
+    const second = await loader.getHarness(CpPhaseDialHarness.with({ label: 'Phase of run 2' }));
+    expect(await first.getErrorText()).toBeNull();
+    fixture.nativeElement.querySelector('button').click();
+    await fixture.whenStable();
+    expect(await first.isInvalid()).toBe(true);
+    expect(await first.getErrorText()).toBe('Enter an angle, or set it on the dial.');
+    // Its matcher shows errors on dirty only: submitting the form does not make it dirty.
+    expect(await second.getErrorText()).toBeNull();
+    await second.pressKey('Home');
+    fixture.componentInstance.form.controls.laterDeg.setValue(null);
+    fixture.componentInstance.form.controls.laterDeg.markAsDirty();
+    expect(await second.getErrorText()).toBe('Enter an angle, or set it on the dial.');
+
+    fixture.componentInstance.compact.set(true);
+    const formField = (await first.getFormField())!;
+    expect(await formField.getTextErrors()).toEqual(['Enter an angle, or set it on the dial.']);
+  });
+
+  it('takes its diameter from the size input, through the custom property', async () => {
+    const { fixture } = await setUp();
+    const disabledDial: HTMLElement = fixture.nativeElement.querySelectorAll('cp-phase-dial')[1];
+    expect(disabledDial.style.getPropertyValue('--cp-phase-dial-size')).toBe('');
+    fixture.componentRef.changeDetectorRef.detectChanges();
+    const sized = TestBed.createComponent(CpPhaseDial);
+    sized.componentRef.setInput('size', 200);
+    await sized.whenStable();
+    expect(sized.nativeElement.style.getPropertyValue('--cp-phase-dial-size')).toBe('200px');
   });
 });

@@ -4,10 +4,12 @@ import {
   numberAttribute,
   Component,
   DestroyRef,
+  type DoCheck,
   type ElementRef,
   type OnChanges,
   type SimpleChanges,
   computed,
+  effect,
   forwardRef,
   inject,
   input,
@@ -20,11 +22,16 @@ import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import {
   type AbstractControl,
   type ControlValueAccessor,
+  FormGroupDirective,
   NG_VALIDATORS,
   NG_VALUE_ACCESSOR,
+  NgForm,
   type ValidationErrors,
   type Validator,
 } from '@angular/forms';
+import { ErrorStateMatcher } from '@angular/material/core';
+import { MatError, MatFormField, MatHint, MatLabel, MatSuffix } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
 import {
   type RotationCounting,
   type DialConvention,
@@ -32,6 +39,7 @@ import {
   type RotationDirection,
   angleAtPoint,
   expandPositions,
+  formatAngle,
   snapAngle,
 } from '@counterpoise/ng/core';
 import {
@@ -51,18 +59,24 @@ import {
   thumbCenter,
 } from './phase-dial-drawing';
 import {
+  DIAL_ANGLE_DECIMALS,
   PHASE_DIAL_MARKER_NAMES,
   type PhaseDialMarker,
   dialValueText,
   describeZeroPosition,
-  formatAngle,
   maxDialValue,
   nextDialValue,
   parseAngleText,
+  phaseDialErrorMessage,
   phaseDialErrors,
   toDialAngle,
   validStep,
 } from './phase-dial-values';
+
+/** An angle as the dial writes it: up to two decimals, as typed off a meter. */
+function writeAngle(angleDeg: number): string {
+  return formatAngle(angleDeg, DIAL_ANGLE_DECIMALS);
+}
 
 /** A touch this close to the centre, as a share of the dial's radius, says nothing about an angle. */
 const CENTER_DEAD_ZONE = 0.15;
@@ -73,7 +87,9 @@ let nextId = 0;
  * An end view of the rotor to read or set an angle in degrees: the phase of a reading, where a trial
  * weight went, where the correction goes. Set it by tapping or dragging (the whole dial is the target,
  * for gloved hands), with the keyboard, or in the compact variant by typing. It is a form control
- * (`formControl`, `formControlName`, `ngModel`) that validates `required` and the allowed positions.
+ * (`formControl`, `formControlName`, `ngModel`) that validates `required`, numbers, the range and the
+ * allowed positions, and says in words under itself why its angle is not accepted, as Material's form
+ * fields do: once the control is invalid and touched, or its form submitted (`ErrorStateMatcher`).
  *
  * The slider is the dial inside the element rather than the element itself: a slider's content is
  * presentational to assistive technology, and the marker legend and the numeric field beside the dial
@@ -83,6 +99,7 @@ let nextId = 0;
   selector: 'cp-phase-dial',
   templateUrl: './phase-dial.html',
   styleUrl: './phase-dial.scss',
+  imports: [MatFormField, MatLabel, MatInput, MatSuffix, MatHint, MatError],
   changeDetection: ChangeDetectionStrategy.OnPush,
   providers: [
     { provide: NG_VALUE_ACCESSOR, useExisting: forwardRef(() => CpPhaseDial), multi: true },
@@ -94,12 +111,12 @@ let nextId = 0;
     '[class.cp-phase-dial--disabled]': 'disabled()',
     '[class.cp-phase-dial--readonly]': 'readonly()',
     '[class.cp-phase-dial--empty]': '_angle() === null',
-    '[class.cp-phase-dial--invalid]': '_showError()',
+    '[class.cp-phase-dial--invalid]': '_errorState()',
     '[class.cp-phase-dial--dragging]': '_dragging() !== null',
     '[style.--cp-phase-dial-size]': '_sizeCss()',
   },
 })
-export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
+export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges, DoCheck {
   /** The angle in degrees from the reference mark, in [0, 360); null when none is set. */
   readonly value = model<number | null>(null);
   /** The way the rotor turns as seen by the viewer. */
@@ -125,8 +142,19 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
   readonly required = input(false, { transform: booleanAttribute });
   /** The accessible name of the dial, also the visible label of the numeric field. */
   readonly label = input('Angle');
-  /** The diameter of the dial in pixels; without it, `--cp-phase-dial-size` (240 px by default). */
+  /**
+   * The diameter of the dial in pixels; without it, `--cp-phase-dial-size` (240 px by default, 160 px in
+   * the compact variant: large enough to drag with a thumb on a tablet).
+   */
   readonly size = input<number | undefined, unknown>(undefined, { transform: numberAttribute });
+  /**
+   * The page's own message for the control's errors, shown under the dial in place of the dial's own
+   * ("Enter the phase of the initial run"); null or empty: the dial says why in its own words. Either
+   * shows only while the control is in error state.
+   */
+  readonly errorText = input<string | null>(null);
+  /** Decides when the error shows; by default Material's: invalid and touched, or the form submitted. */
+  readonly errorStateMatcher = input<ErrorStateMatcher | null>(null);
 
   /** Emits the angle when a drag, a key change or a typed entry ends. */
   readonly valueCommit = output<number | null>();
@@ -136,6 +164,10 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
 
   private readonly _formDisabled = signal(false);
   private readonly _destroyRef = inject(DestroyRef);
+  private readonly _defaultMatcher = inject(ErrorStateMatcher);
+  private readonly _parentFormGroup = inject(FormGroupDirective, { optional: true });
+  private readonly _parentForm = inject(NgForm, { optional: true });
+  private readonly _matInput = viewChild(MatInput);
   private readonly _dial = viewChild.required<ElementRef<HTMLElement>>('dial');
   private _onChange: (value: number | null) => void = () => undefined;
   private _onTouched: () => void = () => undefined;
@@ -147,6 +179,7 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
   protected readonly _descriptionId = `cp-phase-dial-description-${this._id}`;
   protected readonly _fieldId = `cp-phase-dial-field-${this._id}`;
   protected readonly _fieldHintId = `cp-phase-dial-field-hint-${this._id}`;
+  protected readonly _errorId = `cp-phase-dial-error-${this._id}`;
   protected readonly _viewBox = `0 0 ${DIAL_VIEW_SIZE} ${DIAL_VIEW_SIZE}`;
   protected readonly _center = DIAL_CENTER;
   protected readonly _rimRadius = DIAL_RIM_RADIUS;
@@ -154,12 +187,22 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
   protected readonly _needleTipRadius = DIAL_NEEDLE_TIP_RADIUS;
   protected readonly _glyphs = MARKER_GLYPHS;
   protected readonly _names = PHASE_DIAL_MARKER_NAMES;
-  protected readonly _formatAngle = formatAngle;
+  protected readonly _formatAngle = writeAngle;
 
   /** The drag in progress: the pointer and the angle it started from. */
   protected readonly _dragging = signal<{ pointerId: number; startValue: number | null } | null>(null);
-  /** Whether the form control is invalid and touched, so the error shows. */
-  protected readonly _showError = signal(false);
+  /** Whether the control is in error state (by default invalid and touched, or its form submitted). */
+  protected readonly _errorState = signal(false);
+  /** The dial's own words for the control's errors, kept while the control is watched. */
+  protected readonly _ownErrorText = signal<string | null>(null);
+  /** The sentence shown under the dial: the page's, else the dial's own; null outside error state. */
+  protected readonly _shownError = computed(() =>
+    this._errorState() ? this.errorText() || this._ownErrorText() : null,
+  );
+  /** What describes the slider: its description, and the error while one shows. */
+  protected readonly _sliderDescribedBy = computed(() =>
+    this._shownError() === null ? this._descriptionId : `${this._descriptionId} ${this._errorId}`,
+  );
   /** The numeric field's text while the technician types, so half-typed numbers are not rewritten. */
   protected readonly _draft = signal<string | null>(null);
 
@@ -179,7 +222,7 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
   protected readonly _valueText = computed(() => dialValueText(this._angle(), this.counting()));
   protected readonly _readout = computed(() => {
     const angle = this._angle();
-    return angle === null ? '–' : `${formatAngle(angle)}°`;
+    return angle === null ? '–' : `${writeAngle(angle)}°`;
   });
   protected readonly _description = computed(() => {
     const rotation = this.rotation() === 'clockwise' ? 'clockwise' : 'counter-clockwise';
@@ -189,7 +232,7 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
     ];
     const positions = this._positions();
     if (positions.length > 0) {
-      parts.push(`${positions.length} allowed positions: ${positions.map(formatAngle).join(', ')}.`);
+      parts.push(`${positions.length} allowed positions: ${positions.map(writeAngle).join(', ')}.`);
     }
     return parts.join(' ');
   });
@@ -204,7 +247,7 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
     const draft = this._draft();
     if (draft !== null) return draft;
     const angle = this._angle();
-    return angle === null ? '' : formatAngle(angle);
+    return angle === null ? '' : writeAngle(angle);
   });
 
   protected readonly _ticks = computed(() => dialTicks(this._positions(), this._convention()));
@@ -224,6 +267,21 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
   });
   protected readonly _placedMarkers = computed(() => placeMarkers(this.markers(), this._convention()));
 
+  constructor() {
+    // The inner matInput has no form control of its own: it shows the dial's error state, so the form
+    // field outlines itself and shows its mat-error exactly when the dial is in error.
+    effect(() => {
+      const field = this._matInput();
+      const errorState = this._errorState();
+      if (field && field.errorState !== errorState) {
+        field.errorState = errorState;
+        field.stateChanges.next();
+      }
+    });
+    const submitted = this._parentFormGroup?.ngSubmit ?? this._parentForm?.ngSubmit;
+    submitted?.pipe(takeUntilDestroyed()).subscribe(() => this._updateErrorState());
+  }
+
   /** Moves keyboard focus to the dial. */
   focus(options?: FocusOptions): void {
     this._dial().nativeElement.focus(options);
@@ -232,6 +290,12 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
   /** Tells the form to validate again when the rules change. */
   ngOnChanges(changes: SimpleChanges): void {
     if (changes['required'] || changes['positions']) this._onValidatorChange();
+    if (changes['errorStateMatcher']) this._updateErrorState();
+  }
+
+  /** Follows the error state as Material's inputs do: touched and submitted change no value. */
+  ngDoCheck(): void {
+    this._updateErrorState();
   }
 
   /** Shows the angle the form control holds (ControlValueAccessor). */
@@ -255,10 +319,14 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
     this._formDisabled.set(isDisabled);
   }
 
-  /** Validates the control's angle: required, and on an allowed position (Validator). */
+  /** Validates the control's angle: required, a number, in [0, 360), on an allowed position (Validator). */
   validate(control: AbstractControl): ValidationErrors | null {
     this._watch(control);
-    return phaseDialErrors(control.value, { required: this.required(), positions: this._positions() });
+    return phaseDialErrors(control.value, {
+      required: this.required(),
+      positions: this._positions(),
+      typedText: this._draft(),
+    });
   }
 
   /** Lets the dial ask the form to validate again (Validator). */
@@ -319,19 +387,29 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
 
   protected _onFieldInput(event: Event): void {
     const text = (event.target as HTMLInputElement).value;
+    const wasNumber = this._draftIsNumber();
     this._draft.set(text);
     const parsed = parseAngleText(text);
     if (parsed !== undefined && parsed !== this._angle()) this._change(parsed);
+    else if ((parsed !== undefined) !== wasNumber) this._onValidatorChange();
   }
 
   protected _onFieldChange(): void {
+    // Text that is not a number stays, so the technician sees what the error message is about.
+    if (!this._draftIsNumber()) return;
     this._draft.set(null);
     this.valueCommit.emit(this._angle());
   }
 
   protected _onFieldBlur(): void {
-    this._draft.set(null);
+    if (this._draftIsNumber()) this._draft.set(null);
     this._onTouched();
+  }
+
+  /** Whether the field's text, if any is being typed, reads as an angle (or is empty). */
+  private _draftIsNumber(): boolean {
+    const draft = this._draft();
+    return draft === null || parseAngleText(draft) !== undefined;
   }
 
   private _followPointer(event: PointerEvent, dial: HTMLElement): void {
@@ -359,8 +437,15 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges {
   private _watch(control: AbstractControl): void {
     if (control === this._control) return;
     this._control = control;
-    control.events.pipe(takeUntilDestroyed(this._destroyRef)).subscribe(() => {
-      this._showError.set(control.invalid && control.touched);
-    });
+    control.events.pipe(takeUntilDestroyed(this._destroyRef)).subscribe(() => this._updateErrorState());
+  }
+
+  /** Asks the error state matcher whether the error shows, and words the control's errors. */
+  private _updateErrorState(): void {
+    const control = this._control;
+    const matcher = this.errorStateMatcher() ?? this._defaultMatcher;
+    const form = this._parentFormGroup ?? this._parentForm;
+    this._errorState.set(control !== null && matcher.isErrorState(control, form));
+    this._ownErrorText.set(phaseDialErrorMessage(control?.errors ?? null));
   }
 }

@@ -6,8 +6,13 @@ import {
   TestKey,
   parallel,
 } from '@angular/cdk/testing';
+import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { type DialConvention, normalizeDeg, pointAtScreenAngle, screenAngleDeg } from '@counterpoise/ng/core';
-import type { PhaseDialKey, PhaseDialMarkerKind } from '@counterpoise/ng/phase-dial';
+import type { PhaseDialMarkerKind } from '@counterpoise/ng/phase-dial';
+
+/** A key the dial handles, for `pressKey`. */
+export type PhaseDialKey =
+  'ArrowUp' | 'ArrowRight' | 'ArrowDown' | 'ArrowLeft' | 'PageUp' | 'PageDown' | 'Home' | 'End';
 
 /** Filters for finding a `cp-phase-dial`. */
 export interface PhaseDialHarnessFilters extends BaseHarnessFilters {
@@ -49,6 +54,8 @@ export class CpPhaseDialHarness extends ComponentHarness {
   private readonly _field = this.locatorForOptional('input.cp-phase-dial__input');
   private readonly _legendItems = this.locatorForAll('.cp-phase-dial__legend-item');
   private readonly _description = this.locatorFor('.cp-phase-dial__description');
+  private readonly _error = this.locatorForOptional('.cp-phase-dial__error');
+  private readonly _formField = this.locatorForOptional(MatFormFieldHarness);
 
   /** A predicate that finds a dial by its accessible name or its angle. */
   static with(options: PhaseDialHarnessFilters = {}): HarnessPredicate<CpPhaseDialHarness> {
@@ -106,9 +113,28 @@ export class CpPhaseDialHarness extends ComponentHarness {
     return (await (await this._dial()).getAttribute('aria-required')) === 'true';
   }
 
-  /** Whether the dial shows an error (its form control invalid and touched). */
+  /**
+   * Whether the dial is in error state: its form control invalid and touched, or its form submitted
+   * (or whatever its `errorStateMatcher` decides).
+   */
   async isInvalid(): Promise<boolean> {
     return (await (await this._dial()).getAttribute('aria-invalid')) === 'true';
+  }
+
+  /** The error message shown under the dial (the page's `errorText` or the dial's own); null when none. */
+  async getErrorText(): Promise<string | null> {
+    const error = await this._error();
+    return error ? (await error.text()).trim() : null;
+  }
+
+  /** The Material form field of the compact variant, for its label, hint and error; null on a full dial. */
+  async getFormField(): Promise<MatFormFieldHarness | null> {
+    return this._formField();
+  }
+
+  /** The rendered diameter of the dial, in pixels. */
+  async getSizePx(): Promise<number> {
+    return (await (await this._dial()).getDimensions()).width;
   }
 
   /** Whether the dial has the numeric field beside it. */

@@ -2,5 +2,6 @@
 export {
   CpPhaseDialHarness,
   type PhaseDialHarnessFilters,
+  type PhaseDialKey,
   type PhaseDialMarkerInfo,
 } from './phase-dial-harness';
