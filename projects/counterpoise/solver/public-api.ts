@@ -1,4 +1,7 @@
-/* Public API of `@counterpoise/ng/solver`: how the widgets compute, remotely or on the device. */
+/*
+ * Public API of `@counterpoise/ng/solver`: how the widgets compute, remotely or on the device. A dealer
+ * configures it with `provideCounterpoise()`, or provides `BALANCE_SOLVER` with a solver of their own.
+ */
 export {
   BALANCE_SOLVER,
   LOCAL_BALANCE_SOLVER,
@@ -7,25 +10,14 @@ export {
 } from './balance-solver';
 export {
   BalanceSolverError,
-  canFallBackToLocal,
   type BalanceSolverErrorDetails,
   type BalanceSolverErrorReason,
 } from './balance-solver-error';
-export {
-  COUNTERPOISE_CONFIG,
-  DEFAULT_TIMEOUT_MS,
-  calcRouteUrl,
-  checkCounterpoiseConfig,
-  type CounterpoiseConfig,
-} from './counterpoise-config';
-export {
-  solverErrorFromProblem,
-  solverErrorFromResponse,
-  parseProblem,
-  parseRetryAfter,
-  type FailedResponse,
-} from './solver-errors';
-export { API_RUNTIME_LOADER, loadApiRuntime, type ApiRuntime } from './api-runtime';
+export { COUNTERPOISE_CONFIG, type CounterpoiseConfig } from './counterpoise-config';
 export { LocalBalanceSolver } from './local-balance-solver';
 export { RemoteBalanceSolver } from './remote-balance-solver';
 export { provideCounterpoise } from './provide-counterpoise';
+
+// Internal to the library: what the other entry points need and dealers do not (Angular Material's
+// leading underscore). Not part of the public API; it may change in any release.
+export { canFallBackToLocal as _canFallBackToLocal } from './balance-solver-error';

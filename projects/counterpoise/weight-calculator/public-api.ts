@@ -1,75 +1,31 @@
-/* Public API of `@counterpoise/ng/weight-calculator`: the correction weight calculator and its logic. */
+/*
+ * Public API of `@counterpoise/ng/weight-calculator`: the correction weight calculator, and the types and
+ * constants of its inputs, outputs and form value. Its form, request builders, result text and units stay
+ * inside the library; the harness is in `@counterpoise/ng/weight-calculator/testing`.
+ */
 export { CpWeightCalculator } from './weight-calculator';
 export {
   CALC_METHODS,
-  METHOD_GROUPS,
   METHOD_INFO,
-  METHOD_ROUTES,
   type AmplitudeRunDraft,
   type AmplitudeUnit,
   type CalcMethod,
   type CorrectionPlacement,
   type FourRunDraft,
   type MassUnit,
-  type MethodAnswer,
   type MethodInfo,
   type MethodRequest,
   type MethodResult,
-  type MethodRoute,
+  type MultiPlaneDraft,
+  type MultiPlaneRunDraft,
   type OneRunDraft,
   type ReadingDraft,
   type SensitivityPreset,
   type SinglePlaneDraft,
-  type TwoPlaneDraft,
-  type TwoPlaneRunDraft,
   type WeightCalculation,
   type WeightCalculatorDraft,
+  type WeightCalculatorErrors,
+  type WeightCalculatorFieldError,
+  type WeightCalculatorValue,
   type WeightDraft,
 } from './weight-calculator-model';
-export {
-  LARGEST_VALUE,
-  OFFSET_RANGE_DEG,
-  createCalculatorForm,
-  draftOf,
-  fieldErrorMessage,
-  methodGroup,
-  nonNegative,
-  plausible,
-  positive,
-  readingGroup,
-  weightGroup,
-  withinRange,
-  type CalculatorForm,
-} from './weight-calculator-form';
-export {
-  buildRequest,
-  controlPathFor,
-  fourRunRequest,
-  freeSectors,
-  isBlocked,
-  oneRunRequest,
-  pathSegments,
-  placementPlan,
-  singlePlaneRequest,
-  twoPlaneRequest,
-  type PlacementPlan,
-} from './weight-calculator-requests';
-export {
-  correctionsToInstall,
-  describeResult,
-  type CorrectionView,
-  type ResultFact,
-  type ResultView,
-} from './weight-calculator-result';
-export {
-  AMPLITUDE_UNITS,
-  MASS_UNITS,
-  amplitudeStep,
-  formatAmplitude,
-  formatAngle,
-  formatMass,
-  influenceUnit,
-  massStep,
-  sensitivityUnit,
-  spokenMass,
-} from './weight-calculator-units';

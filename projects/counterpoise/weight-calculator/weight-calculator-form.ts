@@ -7,7 +7,15 @@ import {
   type ValidatorFn,
   Validators,
 } from '@angular/forms';
-import type { AmplitudeUnit, CalcMethod, MassUnit, WeightCalculatorDraft } from './weight-calculator-model';
+import { describeField } from './weight-calculator-fields';
+import {
+  type AmplitudeUnit,
+  CALC_METHODS,
+  type CalcMethod,
+  type MassUnit,
+  type WeightCalculatorDraft,
+  type WeightCalculatorFieldError,
+} from './weight-calculator-model';
 
 /*
  * The calculator's reactive form, typed, one group per method and shaped like `WeightCalculatorDraft`, so
@@ -101,7 +109,7 @@ export function createCalculatorForm(
       withTrial: readingGroup(),
       trialWeightRemoved: new FormControl(true, { nonNullable: true }),
     }),
-    twoPlane: new FormGroup({
+    multiPlane: new FormGroup({
       initial: new FormArray([readingGroup(), readingGroup()]),
       runs: new FormArray(
         [0, 1].map(
@@ -135,8 +143,8 @@ export function methodGroup(form: CalculatorForm, method: CalcMethod): AbstractC
       return form.controls.oneRun;
     case 'single-plane':
       return form.controls.singlePlane;
-    case 'two-plane':
-      return form.controls.twoPlane;
+    case 'multi-plane':
+      return form.controls.multiPlane;
     case 'four-run':
       return form.controls.fourRun;
   }
@@ -145,4 +153,47 @@ export function methodGroup(form: CalculatorForm, method: CalcMethod): AbstractC
 /** The draft the form holds; the type says it is one. */
 export function draftOf(form: CalculatorForm): WeightCalculatorDraft {
   return form.getRawValue();
+}
+
+/**
+ * A draft as a page may hand it back: one kept by this version, or by an earlier one that named the
+ * two-plane method `two-plane` and kept its values under `twoPlane`. Anything missing is left to the form's
+ * own values; a method this calculator does not know is dropped.
+ */
+export function readDraft(kept: unknown): Partial<WeightCalculatorDraft> {
+  if (kept === null || typeof kept !== 'object') return {};
+  const { twoPlane, method, ...rest } = kept as Record<string, unknown>;
+  const draft: Record<string, unknown> = { ...rest };
+  if (draft['multiPlane'] === undefined && twoPlane !== undefined) draft['multiPlane'] = twoPlane;
+  const renamed = method === 'two-plane' ? 'multi-plane' : method;
+  if ((CALC_METHODS as readonly unknown[]).includes(renamed)) draft['method'] = renamed;
+  return draft as Partial<WeightCalculatorDraft>;
+}
+
+/** The leaf controls of a group with their dotted paths, in the order of the form. */
+export function leafControls(
+  control: AbstractControl,
+  path = '',
+): { readonly path: string; readonly control: AbstractControl }[] {
+  if (control instanceof FormGroup || control instanceof FormArray) {
+    return Object.entries(control.controls as Record<string, AbstractControl>).flatMap(([key, child]) =>
+      leafControls(child, path === '' ? key : `${path}.${key}`),
+    );
+  }
+  return [{ path, control }];
+}
+
+/** The fields of a method that hold no usable value, each with what is wrong, in the order of the form. */
+export function invalidFields(form: CalculatorForm, method: CalcMethod): WeightCalculatorFieldError[] {
+  return leafControls(methodGroup(form, method))
+    .filter(({ control }) => control.invalid)
+    .map(({ path, control }) => {
+      const words = describeField(method, path);
+      return {
+        field: path,
+        label: words.label,
+        section: words.section,
+        message: fieldErrorMessage(control.errors, words.what) ?? `Check the ${words.what}.`,
+      };
+    });
 }

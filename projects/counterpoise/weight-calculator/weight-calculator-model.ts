@@ -1,28 +1,21 @@
 import type { CalcRequest, CalcResponse } from '@counterpoise/api';
 import type { BalanceSolverKind } from '@counterpoise/ng/solver';
 
-/** The balancing methods the calculator offers, simplest first. */
-export const CALC_METHODS = ['one-run', 'single-plane', 'two-plane', 'four-run'] as const;
+/**
+ * The balancing methods the calculator offers, simplest first. Each is named as the calculator API's route
+ * that computes it (`@counterpoise/api`), so a method has one name from the screen's code to the server.
+ * `multi-plane` is offered in its two-plane case: two sensors, two correction planes.
+ */
+export const CALC_METHODS = ['one-run', 'single-plane', 'multi-plane', 'four-run'] as const;
 
-/** A balancing method of the calculator. */
+/** A balancing method of the calculator, named as the calculator route that computes it. */
 export type CalcMethod = (typeof CALC_METHODS)[number];
 
-/** The calculator route that computes each method. */
-export const METHOD_ROUTES = {
-  'one-run': 'one-run',
-  'single-plane': 'single-plane',
-  'two-plane': 'multi-plane',
-  'four-run': 'four-run',
-} as const satisfies Record<CalcMethod, string>;
-
-/** The route of a method. */
-export type MethodRoute<M extends CalcMethod> = (typeof METHOD_ROUTES)[M];
-
 /** The request a method sends. */
-export type MethodRequest<M extends CalcMethod> = CalcRequest<MethodRoute<M>>;
+export type MethodRequest<M extends CalcMethod> = CalcRequest<M>;
 
 /** The answer a method gets. */
-export type MethodResult<M extends CalcMethod> = CalcResponse<MethodRoute<M>>;
+export type MethodResult<M extends CalcMethod> = CalcResponse<M>;
 
 /** How the calculator names and explains a method. */
 export interface MethodInfo {
@@ -32,7 +25,10 @@ export interface MethodInfo {
   readonly description: string;
 }
 
-/** The names and explanations of the methods, in the technician's words. */
+/**
+ * The names and explanations of the methods, in the technician's words. The calculator offers the
+ * `multi-plane` route in its two-plane case, so the technician reads "Two planes".
+ */
 export const METHOD_INFO: Readonly<Record<CalcMethod, MethodInfo>> = {
   'one-run': {
     label: 'Stored sensitivity',
@@ -42,7 +38,7 @@ export const METHOD_INFO: Readonly<Record<CalcMethod, MethodInfo>> = {
     label: 'Trial weight',
     description: 'One plane: a run without, then a run with a trial weight of known mass and angle.',
   },
-  'two-plane': {
+  'multi-plane': {
     label: 'Two planes',
     description:
       'Two sensors and two correction planes: one trial weight per plane, both sensors read each run.',
@@ -103,20 +99,23 @@ export interface SinglePlaneDraft {
   trialWeightRemoved: boolean;
 }
 
-/** One trial run of the two-plane method: the trial weight in its plane, and both sensors' readings. */
-export interface TwoPlaneRunDraft {
+/**
+ * One trial run of the multi-plane method as the calculator offers it (two planes): the trial weight in
+ * its plane, and both sensors' readings.
+ */
+export interface MultiPlaneRunDraft {
   /** The trial weight of this run, in the run's plane (run 1 in plane 1, run 2 in plane 2). */
   trialWeight: WeightDraft;
   /** Sensor 1 and sensor 2. */
   readings: ReadingDraft[];
 }
 
-/** What the two-plane form holds. */
-export interface TwoPlaneDraft {
+/** What the multi-plane form holds, in its two-plane case: two sensors, two correction planes. */
+export interface MultiPlaneDraft {
   /** Sensor 1 and sensor 2 without weights. */
   initial: ReadingDraft[];
   /** The trial run of plane 1, then of plane 2. */
-  runs: TwoPlaneRunDraft[];
+  runs: MultiPlaneRunDraft[];
   /** Whether each trial weight comes off before the next run. */
   trialWeightsRemoved: boolean;
 }
@@ -151,8 +150,8 @@ export interface WeightCalculatorDraft {
   oneRun: OneRunDraft;
   /** The trial-weight form. */
   singlePlane: SinglePlaneDraft;
-  /** The two-plane form. */
-  twoPlane: TwoPlaneDraft;
+  /** The multi-plane form ("Two planes"). */
+  multiPlane: MultiPlaneDraft;
   /** The amplitude-only form. */
   fourRun: FourRunDraft;
 }
@@ -161,7 +160,7 @@ export interface WeightCalculatorDraft {
 export const METHOD_GROUPS = {
   'one-run': 'oneRun',
   'single-plane': 'singlePlane',
-  'two-plane': 'twoPlane',
+  'multi-plane': 'multiPlane',
   'four-run': 'fourRun',
 } as const satisfies Record<CalcMethod, keyof WeightCalculatorDraft>;
 
@@ -208,3 +207,45 @@ export type WeightCalculation = {
     readonly amplitudeUnit: AmplitudeUnit;
   };
 }[CalcMethod];
+
+/**
+ * The calculator's value as a form control (`[formControl]`, `formControlName`): what was typed, and the
+ * calculation that matches it. A page keeps it with the job and hands it back through the form
+ * (`setValue`, `reset`) to restore both.
+ */
+export interface WeightCalculatorValue {
+  /** Everything typed, for every method, with the method and units it was typed in. */
+  readonly draft: WeightCalculatorDraft;
+  /**
+   * The calculation of the draft's method for exactly these values, units and angle counting; null
+   * while there is none or when a value changed since (the result is stale).
+   */
+  readonly calculation: WeightCalculation | null;
+}
+
+/** One field of the method shown that holds no usable value, as the `calculatorFields` error lists it. */
+export interface WeightCalculatorFieldError {
+  /** The field's path in the method's form, as the harness names it: `withTrial.phaseDeg`. */
+  readonly field: string;
+  /** The field's label: "Trial run phase". */
+  readonly label: string;
+  /** The part of the form it is in: "Run 2: trial weight on". */
+  readonly section: string;
+  /** What is wrong, in words a technician can act on: "Enter the trial run phase." */
+  readonly message: string;
+}
+
+/**
+ * The errors the calculator reports to its form control. `calculatorFields`: fields of the method shown
+ * are empty or wrong. `calculatorNotComputed`: there is no calculation for the values typed (never
+ * computed, or a value changed since).
+ */
+export interface WeightCalculatorErrors {
+  /** The fields of the method shown that hold no usable value, in the order of the form. */
+  readonly calculatorFields?: {
+    readonly count: number;
+    readonly fields: readonly WeightCalculatorFieldError[];
+  };
+  /** Set while there is no calculation for the values typed. */
+  readonly calculatorNotComputed?: true;
+}

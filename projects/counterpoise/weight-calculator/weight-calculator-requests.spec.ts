@@ -1,64 +1,17 @@
 import { describe, expect, it } from 'vitest';
-import { calculate } from '@counterpoise/api';
-import { createCalculatorForm, draftOf } from './weight-calculator-form';
-import type { WeightCalculatorDraft } from './weight-calculator-model';
+import { CALC_ROUTES, calculate } from '@counterpoise/api';
+import { CALC_METHODS } from './weight-calculator-model';
+import { filledDraft } from './weight-calculator.fixtures';
 import {
   buildRequest,
   controlPathFor,
   freeSectors,
   isBlocked,
+  multiPlaneRequest,
   pathSegments,
   placementPlan,
-  twoPlaneRequest,
+  requestMatches,
 } from './weight-calculator-requests';
-
-/** A draft with every method filled in, from an invented mulcher job. */
-function filledDraft(): WeightCalculatorDraft {
-  const draft = draftOf(createCalculatorForm());
-  draft.oneRun = {
-    reading: { amplitude: 0.38, phaseDeg: 212 },
-    sensitivity: { massPerAmplitude: 200, offsetDeg: null },
-  };
-  draft.singlePlane = {
-    initial: { amplitude: 0.52, phaseDeg: 74 },
-    trialWeight: { mass: 60, angleDeg: 0 },
-    withTrial: { amplitude: 0.31, phaseDeg: 141 },
-    trialWeightRemoved: true,
-  };
-  draft.twoPlane = {
-    initial: [
-      { amplitude: 0.46, phaseDeg: 38 },
-      { amplitude: 0.29, phaseDeg: 301 },
-    ],
-    runs: [
-      {
-        trialWeight: { mass: 80, angleDeg: 0 },
-        readings: [
-          { amplitude: 0.27, phaseDeg: 84 },
-          { amplitude: 0.33, phaseDeg: 280 },
-        ],
-      },
-      {
-        trialWeight: { mass: 80, angleDeg: 0 },
-        readings: [
-          { amplitude: 0.41, phaseDeg: 22 },
-          { amplitude: 0.12, phaseDeg: 355 },
-        ],
-      },
-    ],
-    trialWeightsRemoved: true,
-  };
-  draft.fourRun = {
-    initialAmplitude: 0.45,
-    trialMass: 50,
-    trialRuns: [
-      { angleDeg: 0, amplitude: 0.62 },
-      { angleDeg: 120, amplitude: 0.21 },
-      { angleDeg: 240, amplitude: 0.55 },
-    ],
-  };
-  return draft;
-}
 
 describe('buildRequest', () => {
   it('builds requests the engine accepts, for every method', () => {
@@ -67,8 +20,17 @@ describe('buildRequest', () => {
     expect(calculate('single-plane', buildRequest('single-plane', draft, 'againstRotation')).status).toBe(
       200,
     );
-    expect(calculate('multi-plane', buildRequest('two-plane', draft, 'withRotation')).status).toBe(200);
+    expect(calculate('multi-plane', buildRequest('multi-plane', draft, 'withRotation')).status).toBe(200);
     expect(calculate('four-run', buildRequest('four-run', draft, 'againstRotation')).status).toBe(200);
+  });
+
+  it("sends the calculator API's own examples for the demo jobs", () => {
+    const draft = filledDraft();
+    for (const method of CALC_METHODS) {
+      expect(buildRequest(method, draft, 'againstRotation'), method).toMatchObject(
+        CALC_ROUTES[method].example,
+      );
+    }
   });
 
   it('sends weight angles counted the way the calculator counts them', () => {
@@ -85,9 +47,9 @@ describe('buildRequest', () => {
 
   it('lists a trial weight left on again in the next run', () => {
     const draft = filledDraft();
-    const removed = twoPlaneRequest(draft.twoPlane, 'againstRotation');
+    const removed = multiPlaneRequest(draft.multiPlane, 'againstRotation');
     expect(removed.runs.map((run) => run.weights.map((weight) => weight.plane))).toEqual([[1], [2]]);
-    const leftOn = twoPlaneRequest({ ...draft.twoPlane, trialWeightsRemoved: false }, 'againstRotation');
+    const leftOn = multiPlaneRequest({ ...draft.multiPlane, trialWeightsRemoved: false }, 'againstRotation');
     expect(leftOn.runs.map((run) => run.weights.map((weight) => weight.plane))).toEqual([[1], [1, 2]]);
   });
 
@@ -95,6 +57,20 @@ describe('buildRequest', () => {
     const draft = filledDraft();
     draft.singlePlane.withTrial.phaseDeg = null;
     expect(() => buildRequest('single-plane', draft, 'againstRotation')).toThrow(/withTrial\.phaseDeg/);
+  });
+});
+
+describe('requestMatches', () => {
+  it('tells whether a kept request is still the one the draft gives, whatever the order of its keys', () => {
+    const draft = filledDraft();
+    const { weightAngles, ...rest } = buildRequest('single-plane', draft, 'againstRotation');
+    const reordered = { weightAngles, ...rest };
+    expect(requestMatches('single-plane', draft, 'againstRotation', reordered)).toBe(true);
+    expect(requestMatches('single-plane', draft, 'withRotation', reordered)).toBe(false);
+    draft.singlePlane.withTrial.amplitude = 0.33;
+    expect(requestMatches('single-plane', draft, 'againstRotation', reordered)).toBe(false);
+    draft.singlePlane.withTrial.amplitude = null;
+    expect(requestMatches('single-plane', draft, 'againstRotation', reordered)).toBe(false);
   });
 });
 
@@ -107,21 +83,23 @@ describe('controlPathFor', () => {
   it("maps the engine's field paths onto the form's controls", () => {
     expect(controlPathFor('single-plane', 'initial.phaseDeg')).toBe('initial.phaseDeg');
     expect(controlPathFor('four-run', 'trialRuns[2].amplitude')).toBe('trialRuns.2.amplitude');
-    expect(controlPathFor('two-plane', 'runs[1].readings[0].amplitude')).toBe('runs.1.readings.0.amplitude');
+    expect(controlPathFor('multi-plane', 'runs[1].readings[0].amplitude')).toBe(
+      'runs.1.readings.0.amplitude',
+    );
     expect(controlPathFor('one-run', 'weightAngles')).toBeNull();
     expect(controlPathFor('one-run', '')).toBeNull();
   });
 
   it('traces a trial weight listed again back to the run of its plane', () => {
-    const request = twoPlaneRequest(
-      { ...filledDraft().twoPlane, trialWeightsRemoved: false },
+    const request = multiPlaneRequest(
+      { ...filledDraft().multiPlane, trialWeightsRemoved: false },
       'againstRotation',
     );
-    expect(controlPathFor('two-plane', 'runs[1].weights[0].mass', request)).toBe('runs.0.trialWeight.mass');
-    expect(controlPathFor('two-plane', 'runs[1].weights[1].angleDeg', request)).toBe(
+    expect(controlPathFor('multi-plane', 'runs[1].weights[0].mass', request)).toBe('runs.0.trialWeight.mass');
+    expect(controlPathFor('multi-plane', 'runs[1].weights[1].angleDeg', request)).toBe(
       'runs.1.trialWeight.angleDeg',
     );
-    expect(controlPathFor('two-plane', 'runs[1].weights[1]', request)).toBe('runs.1.trialWeight');
+    expect(controlPathFor('multi-plane', 'runs[1].weights[1]', request)).toBe('runs.1.trialWeight');
   });
 });
 

@@ -1,7 +1,7 @@
 import type { CalcRequest } from '@counterpoise/api';
 import {
-  type RotationCounting,
   type DialPositions,
+  type RotationCounting,
   expandPositions,
   normalizeDeg,
 } from '@counterpoise/ng/core';
@@ -10,10 +10,10 @@ import type {
   CalcMethod,
   FourRunDraft,
   MethodRequest,
+  MultiPlaneDraft,
   OneRunDraft,
   ReadingDraft,
   SinglePlaneDraft,
-  TwoPlaneDraft,
   WeightCalculatorDraft,
   WeightDraft,
 } from './weight-calculator-model';
@@ -69,11 +69,12 @@ export function singlePlaneRequest(
 }
 
 /**
- * The two-plane request: run 1 with the trial weight in plane 1, run 2 in plane 2. Each run lists every
- * weight on the rotor during it, so a trial weight left on for the next run is listed again.
+ * The multi-plane request in its two-plane case: run 1 with the trial weight in plane 1, run 2 in plane 2.
+ * Each run lists every weight on the rotor during it, so a trial weight left on for the next run is
+ * listed again.
  */
-export function twoPlaneRequest(
-  draft: TwoPlaneDraft,
+export function multiPlaneRequest(
+  draft: MultiPlaneDraft,
   counting: RotationCounting,
 ): CalcRequest<'multi-plane'> {
   const trials = draft.runs.map((run, index) => ({
@@ -112,10 +113,40 @@ export function buildRequest<M extends CalcMethod>(
   const requests: { [K in CalcMethod]: () => MethodRequest<K> } = {
     'one-run': () => oneRunRequest(draft.oneRun, counting),
     'single-plane': () => singlePlaneRequest(draft.singlePlane, counting),
-    'two-plane': () => twoPlaneRequest(draft.twoPlane, counting),
+    'multi-plane': () => multiPlaneRequest(draft.multiPlane, counting),
     'four-run': () => fourRunRequest(draft.fourRun),
   };
   return requests[method]() as MethodRequest<M>;
+}
+
+/** The value with the keys of every object in order, so that two equal values write the same text. */
+function canonical(value: unknown): unknown {
+  if (Array.isArray(value)) return value.map(canonical);
+  if (value === null || typeof value !== 'object') return value;
+  return Object.fromEntries(
+    Object.keys(value)
+      .sort()
+      .map((key) => [key, canonical((value as Record<string, unknown>)[key])]),
+  );
+}
+
+/**
+ * Whether `request` is the one the draft gives for a method: a kept calculation still matches what is
+ * typed. A draft with empty fields matches nothing.
+ */
+export function requestMatches(
+  method: CalcMethod,
+  draft: WeightCalculatorDraft,
+  counting: RotationCounting,
+  request: unknown,
+): boolean {
+  let built: unknown;
+  try {
+    built = buildRequest(method, draft, counting);
+  } catch {
+    return false;
+  }
+  return JSON.stringify(canonical(built)) === JSON.stringify(canonical(request));
 }
 
 /** A path such as `runs[1].readings[0].amplitude` as its segments: `['runs', 1, 'readings', 0, 'amplitude']`. */
@@ -131,8 +162,8 @@ export function pathSegments(path: string): (string | number)[] {
 /**
  * The form control, as a dotted path inside the method's group, that a solver's field path names; null
  * when the path names nothing the technician typed (the whole body, a setting of the calculator).
- * The two-plane runs list their trial weights again when they stay on, so a weight is traced back to the
- * run of its plane through the request that was sent.
+ * The multi-plane runs list their trial weights again when they stay on, so a weight is traced back to
+ * the run of its plane through the request that was sent.
  */
 export function controlPathFor(
   method: CalcMethod,
@@ -141,7 +172,7 @@ export function controlPathFor(
 ): string | null {
   const segments = pathSegments(apiPath);
   if (segments.length === 0 || segments[0] === 'weightAngles' || segments[0] === 'planes') return null;
-  if (method === 'two-plane' && segments[0] === 'runs' && segments[2] === 'weights') {
+  if (method === 'multi-plane' && segments[0] === 'runs' && segments[2] === 'weights') {
     const run = segments[1];
     const index = segments[3];
     if (typeof run !== 'number' || typeof index !== 'number') return 'runs';

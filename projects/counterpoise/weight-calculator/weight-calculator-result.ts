@@ -1,4 +1,4 @@
-import { normalizeDeg } from '@counterpoise/ng/core';
+import { degreesText, formatAngle, normalizeDeg } from '@counterpoise/ng/core';
 import type {
   AmplitudeUnit,
   CorrectionPlacement,
@@ -6,13 +6,17 @@ import type {
   MethodAnswer,
   WeightCalculation,
 } from './weight-calculator-model';
-import {
-  formatAmplitude,
-  formatAngle,
-  formatMass,
-  influenceUnit,
-  spokenMass,
-} from './weight-calculator-units';
+import { formatAmplitude, formatMass, influenceUnit, spokenMass } from './weight-calculator-units';
+
+/** An angle as the panel shows it, in whole degrees within [0, 360): "253°". A weight is never placed finer. */
+function angleText(angleDeg: number): string {
+  return degreesText(angleDeg, 0);
+}
+
+/** An angle as a screen reader speaks it: "253 degrees". */
+function spokenAngle(angleDeg: number): string {
+  return `${formatAngle(angleDeg, 0)} degrees`;
+}
 
 /*
  * What the result panel shows, worked out from a calculation as plain text, so that it is tested without
@@ -70,7 +74,7 @@ export interface ResultView {
 }
 
 function reading(amplitude: number, phaseDeg: number, unit: AmplitudeUnit): string {
-  return `${formatAmplitude(amplitude, unit)} at ${formatAngle(phaseDeg)}`;
+  return `${formatAmplitude(amplitude, unit)} at ${angleText(phaseDeg)}`;
 }
 
 function correction(
@@ -85,8 +89,8 @@ function correction(
   const split = whole
     ? []
     : placement.weights.map((part) => ({
-        text: `${formatMass(part.mass, massUnit)} at ${formatAngle(part.angleDeg)}`,
-        spoken: `${spokenMass(part.mass, massUnit)} at ${formatAngle(part.angleDeg).replace('°', ' degrees')}`,
+        text: `${formatMass(part.mass, massUnit)} at ${angleText(part.angleDeg)}`,
+        spoken: `${spokenMass(part.mass, massUnit)} at ${spokenAngle(part.angleDeg)}`,
       }));
   return {
     plane,
@@ -94,8 +98,8 @@ function correction(
     mass: weight.mass,
     angleDeg,
     massText: formatMass(weight.mass, massUnit),
-    angleText: formatAngle(angleDeg),
-    spoken: `${spokenMass(weight.mass, massUnit)} at ${formatAngle(angleDeg).replace('°', ' degrees')}`,
+    angleText: angleText(angleDeg),
+    spoken: `${spokenMass(weight.mass, massUnit)} at ${spokenAngle(angleDeg)}`,
     split,
     splitWarnings: placement?.warnings ?? [],
   };
@@ -113,7 +117,7 @@ export function correctionsToInstall(
     case 'single-plane':
     case 'four-run':
       return [{ plane: 1, mass: answer.result.correction.mass, angleDeg: answer.result.correction.angleDeg }];
-    case 'two-plane': {
+    case 'multi-plane': {
       const lastRun = answer.request.runs[answer.request.runs.length - 1];
       const leftOn = lastRun !== undefined && lastRun.weights.length > 1;
       return (leftOn ? answer.result.toAdd : answer.result.corrections).map(({ plane, mass, angleDeg }) => ({
@@ -141,7 +145,7 @@ export function describeResult(calculation: WeightCalculation): ResultView {
         corrections: [correction(1, 'Correction weight', result.correction, massUnit, placement(1))],
         heavySpotsDeg: [normalizeDeg(result.heavySpotDeg)],
         residuals: [],
-        facts: [{ label: 'Heavy spot', text: formatAngle(result.heavySpotDeg) }],
+        facts: [{ label: 'Heavy spot', text: angleText(result.heavySpotDeg) }],
         warnings: [...result.warnings],
         weightsLeftOn: [],
       };
@@ -154,18 +158,18 @@ export function describeResult(calculation: WeightCalculation): ResultView {
       if (!removed) {
         facts.push({
           label: 'Total correction, trial weight included',
-          text: `${formatMass(result.totalCorrection.mass, massUnit)} at ${formatAngle(result.totalCorrection.angleDeg)}`,
+          text: `${formatMass(result.totalCorrection.mass, massUnit)} at ${angleText(result.totalCorrection.angleDeg)}`,
         });
       }
       facts.push(
-        { label: 'Heavy spot', text: formatAngle(opposite(result.totalCorrection.angleDeg)) },
+        { label: 'Heavy spot', text: angleText(opposite(result.totalCorrection.angleDeg)) },
         {
           label: 'Trial effect',
           text: reading(result.trialEffect.amplitude, result.trialEffect.phaseDeg, amplitudeUnit),
         },
         {
           label: 'Influence coefficient',
-          text: `${result.influenceCoefficient.amplitudePerMass.toPrecision(3)} ${influenceUnit(massUnit, amplitudeUnit)} at ${formatAngle(result.influenceCoefficient.phaseDeg)}`,
+          text: `${result.influenceCoefficient.amplitudePerMass.toPrecision(3)} ${influenceUnit(massUnit, amplitudeUnit)} at ${angleText(result.influenceCoefficient.phaseDeg)}`,
         },
       );
       return {
@@ -186,7 +190,7 @@ export function describeResult(calculation: WeightCalculation): ResultView {
         weightsLeftOn: removed ? [] : [{ plane: 1, ...request.trialWeight }],
       };
     }
-    case 'two-plane': {
+    case 'multi-plane': {
       const { result, request } = calculation;
       const lastRun = request.runs[request.runs.length - 1];
       const leftOn = lastRun !== undefined && lastRun.weights.length > 1 ? lastRun.weights : [];
@@ -221,7 +225,7 @@ export function describeResult(calculation: WeightCalculation): ResultView {
         facts: [
           {
             label: 'Trial effect',
-            text: `${formatAmplitude(result.trialEffect.amplitude, amplitudeUnit)}, adding most at ${formatAngle(result.trialEffect.angleDeg)}`,
+            text: `${formatAmplitude(result.trialEffect.amplitude, amplitudeUnit)}, adding most at ${angleText(result.trialEffect.angleDeg)}`,
           },
           { label: 'Disagreement between runs', text: `${(result.consistency * 100).toFixed(1)} %` },
         ],

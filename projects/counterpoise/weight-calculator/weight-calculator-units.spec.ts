@@ -2,7 +2,6 @@ import { describe, expect, it } from 'vitest';
 import {
   amplitudeStep,
   formatAmplitude,
-  formatAngle,
   formatMass,
   influenceUnit,
   massStep,
@@ -17,13 +16,6 @@ describe('weight calculator units', () => {
     expect(formatAmplitude(0.05237, 'in/s')).toBe('0.052 in/s');
     expect(formatAmplitude(1.3249, 'mm/s')).toBe('1.32 mm/s');
     expect(formatMass(-0.01, 'g')).toBe('0.0 g');
-  });
-
-  it('shows angles in whole degrees within one turn', () => {
-    expect(formatAngle(253.4)).toBe('253°');
-    expect(formatAngle(359.6)).toBe('0°');
-    expect(formatAngle(-90)).toBe('270°');
-    expect(formatAngle(720.2)).toBe('0°');
   });
 
   it('spells units out for screen readers', () => {

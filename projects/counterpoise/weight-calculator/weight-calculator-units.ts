@@ -33,12 +33,6 @@ export function formatAmplitude(amplitude: number, unit: AmplitudeUnit): string 
   return `${fixed(amplitude, AMPLITUDE_DECIMALS[unit])} ${unit}`;
 }
 
-/** An angle as shown, in whole degrees within [0, 360): "253°". A weight is never placed finer. */
-export function formatAngle(angleDeg: number): string {
-  const whole = Math.round(((angleDeg % 360) + 360) % 360) % 360;
-  return `${whole}°`;
-}
-
 /** A mass as a screen reader speaks it: "84.2 grams". */
 export function spokenMass(mass: number, unit: MassUnit): string {
   return `${fixed(mass, MASS_DECIMALS[unit])} ${MASS_NAMES[unit]}`;

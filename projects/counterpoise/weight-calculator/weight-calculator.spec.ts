@@ -1,10 +1,11 @@
 import { manualChangeDetection } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ChangeDetectionStrategy, Component, signal } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { TestBed } from '@angular/core/testing';
 import { type Observable, Subject, of, throwError } from 'rxjs';
 import { describe, expect, it } from 'vitest';
-import { type CalcRequest, type CalcRouteName, calculate } from '@counterpoise/api';
+import { CALC_ROUTES, type CalcRequest, type CalcRouteName, calculate } from '@counterpoise/api';
 import type { DialPositions } from '@counterpoise/ng/core';
 import type { BlockedSector } from '@counterpoise/ng/correction-overlay';
 import {
@@ -12,16 +13,24 @@ import {
   type BalanceSolver,
   BalanceSolverError,
   LocalBalanceSolver,
-  solverErrorFromProblem,
 } from '@counterpoise/ng/solver';
+// An internal of the solver entry point, read by its path: a spec is no dealer.
+import { solverErrorFromProblem } from '../solver/solver-errors';
 import { CpWeightCalculatorHarness } from '@counterpoise/ng/weight-calculator/testing';
 import { CpWeightCalculator } from './weight-calculator';
-import { createCalculatorForm, draftOf } from './weight-calculator-form';
+import {
+  amplitudeOnlyJob,
+  harnessFields,
+  jobDraft,
+  trialWeightJob,
+  twoPlaneJob,
+} from './weight-calculator.fixtures';
 import type {
   CalcMethod,
   SensitivityPreset,
   WeightCalculation,
   WeightCalculatorDraft,
+  WeightCalculatorValue,
 } from './weight-calculator-model';
 
 /** A test double of the solver: answers through `calculate()` unless told otherwise, and records calls. */
@@ -60,7 +69,7 @@ class FakeSolver implements BalanceSolver {
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 class Host {
-  readonly methods = signal<readonly CalcMethod[]>(['one-run', 'single-plane', 'two-plane', 'four-run']);
+  readonly methods = signal<readonly CalcMethod[]>(['one-run', 'single-plane', 'multi-plane', 'four-run']);
   readonly positions = signal<DialPositions | null>(null);
   readonly blocked = signal<readonly BlockedSector[]>([]);
   readonly sensitivity = signal<SensitivityPreset | null>(null);
@@ -71,37 +80,22 @@ class Host {
   readonly calculations: WeightCalculation[] = [];
 }
 
-/** Readings of an invented mulcher drum, as the API reference's single-plane example. */
-const SINGLE_PLANE = {
-  'initial.amplitude': 0.52,
-  'initial.phaseDeg': 74,
-  'trialWeight.mass': 60,
-  'trialWeight.angleDeg': 0,
-  'withTrial.amplitude': 0.31,
-  'withTrial.phaseDeg': 141,
-};
+/** The trial-weight job as the harness types it. */
+const SINGLE_PLANE = harnessFields(trialWeightJob());
 
+/** What the calculator sends for it: the API's own example, with the calculator's settings. */
 const SINGLE_PLANE_REQUEST = {
-  initial: { amplitude: 0.52, phaseDeg: 74 },
-  trialWeight: { mass: 60, angleDeg: 0 },
-  withTrial: { amplitude: 0.31, phaseDeg: 141 },
+  ...CALC_ROUTES['single-plane'].example,
   trialWeightRemoved: true,
   weightAngles: 'againstRotation',
 } as const;
 
-/** Sets up a host whose calculator computes with `solver`, or with the real local solver when 'local'. */
-/** The same readings as a draft the page hands over, for tests whose point is not the typing. */
-function trialWeightJob(host: Host): void {
-  const draft = draftOf(createCalculatorForm());
-  draft.singlePlane = {
-    initial: { amplitude: 0.52, phaseDeg: 74 },
-    trialWeight: { mass: 60, angleDeg: 0 },
-    withTrial: { amplitude: 0.31, phaseDeg: 141 },
-    trialWeightRemoved: true,
-  };
-  host.draft.set(draft);
+/** Hands the calculator the trial-weight job as a kept draft, for tests whose point is not the typing. */
+function withTrialWeightJob(host: Host): void {
+  host.draft.set(jobDraft('single-plane'));
 }
 
+/** Sets up a host whose calculator computes with `solver`, or with the real local solver when 'local'. */
 async function setUp(solver: BalanceSolver | 'local' = new FakeSolver(), configure?: (host: Host) => void) {
   TestBed.configureTestingModule({
     providers: [
@@ -157,7 +151,7 @@ describe('CpWeightCalculator with a test solver', SLOW, () => {
     const solver = new FakeSolver();
     const pending = new Subject<unknown>();
     solver.respond = () => pending;
-    const { calculator, fixture } = await setUp(solver, trialWeightJob);
+    const { calculator, fixture } = await setUp(solver, withTrialWeightJob);
     // The calculation is a pending task, so a harness waits for its answer; look while it is on its way.
     await manualChangeDetection(async () => {
       await calculator.submit();
@@ -223,7 +217,7 @@ describe('CpWeightCalculator with a test solver', SLOW, () => {
     };
     solver.respond = () =>
       throwError(() => new BalanceSolverError('invalid', 'Read it again.', { problem: fieldProblem }));
-    const { calculator } = await setUp(solver, trialWeightJob);
+    const { calculator } = await setUp(solver, withTrialWeightJob);
     await calculator.submit();
     expect(await calculator.getFailure()).toEqual({ reason: 'invalid', message: 'Read it again.' });
     expect(await calculator.getFieldError('withTrial.amplitude')).toBe(
@@ -247,7 +241,7 @@ describe('CpWeightCalculator with a test solver', SLOW, () => {
       throwError(
         () => new BalanceSolverError('unreachable', 'The calculation service could not be reached.'),
       );
-    const { calculator } = await setUp(solver, trialWeightJob);
+    const { calculator } = await setUp(solver, withTrialWeightJob);
     await calculator.submit();
 
     expect(await calculator.getFailure()).toEqual({
@@ -271,7 +265,7 @@ describe('CpWeightCalculator with a test solver', SLOW, () => {
       const solver = new FakeSolver('remote');
       solver.respond = () =>
         throwError(() => new BalanceSolverError(reason, 'Ask the portal administrator.'));
-      const { calculator } = await setUp(solver, trialWeightJob);
+      const { calculator } = await setUp(solver, withTrialWeightJob);
       await calculator.submit();
       expect((await calculator.getFailure())?.reason).toBe(reason);
       expect(await calculator.canUseLocalEngine()).toBe(false);
@@ -292,7 +286,7 @@ describe('CpWeightCalculator with a test solver', SLOW, () => {
   });
 
   it('follows the unit chosen in its labels, and never changes the numbers typed', async () => {
-    const { calculator, solver } = await setUp(new FakeSolver(), trialWeightJob);
+    const { calculator, solver } = await setUp(new FakeSolver(), withTrialWeightJob);
     await calculator.setMassUnit('oz');
     await calculator.setAmplitudeUnit('mm/s');
     expect(await calculator.getMassUnit()).toBe('oz');
@@ -306,7 +300,7 @@ describe('CpWeightCalculator with a test solver', SLOW, () => {
   });
 
   it('marks a result stale when a value changes after it', async () => {
-    const { calculator } = await setUp(new FakeSolver(), trialWeightJob);
+    const { calculator } = await setUp(new FakeSolver(), withTrialWeightJob);
     await calculator.submit();
     await calculator.setField('initial.amplitude', 0.6);
     expect((await calculator.getResult())?.stale).toBe(true);
@@ -314,7 +308,7 @@ describe('CpWeightCalculator with a test solver', SLOW, () => {
 
   it('splits the correction onto the allowed positions through the solver', async () => {
     const { calculator, solver } = await setUp(new FakeSolver(), (host) => {
-      trialWeightJob(host);
+      withTrialWeightJob(host);
       host.positions.set({ count: 12, firstDeg: 0 });
     });
     await calculator.submit();
@@ -341,7 +335,7 @@ describe('CpWeightCalculator with a test solver', SLOW, () => {
 
   it('moves the correction out of a blocked sector', async () => {
     const { calculator } = await setUp(new FakeSolver(), (host) => {
-      trialWeightJob(host);
+      withTrialWeightJob(host);
       const at = expected('single-plane', SINGLE_PLANE_REQUEST).correction.angleDeg;
       host.blocked.set([{ fromDeg: at - 10, toDeg: at + 10, label: 'holder' }]);
     });
@@ -376,7 +370,7 @@ describe('CpWeightCalculator with a test solver', SLOW, () => {
   });
 
   it('restores a draft the page kept, in the units it was typed in', async () => {
-    const { calculator, host } = await setUp(new FakeSolver(), trialWeightJob);
+    const { calculator, host } = await setUp(new FakeSolver(), withTrialWeightJob);
     await calculator.setField('withTrial.amplitude', 0.29);
     const kept = host.draft();
     expect(kept?.singlePlane.withTrial).toEqual({ amplitude: 0.29, phaseDeg: 141 });
@@ -388,8 +382,17 @@ describe('CpWeightCalculator with a test solver', SLOW, () => {
     expect(await calculator.getMassUnit()).toBe('g');
   });
 
+  it('reads a draft kept under the earlier names of the two-plane method', async () => {
+    const { calculator, host } = await setUp(new FakeSolver(), (page) => page.method.set(null));
+    const { multiPlane, ...rest } = jobDraft('multi-plane');
+    host.draft.set({ ...rest, method: 'two-plane', twoPlane: multiPlane } as never);
+    expect(await calculator.getMethod()).toBe('multi-plane');
+    expect(await calculator.getFieldValue('runs.1.readings.1.phaseDeg')).toBe('355');
+    expect(host.draft()?.multiPlane).toEqual(twoPlaneJob());
+  });
+
   it('neither edits nor computes while disabled', async () => {
-    const { calculator, solver, host } = await setUp(new FakeSolver(), trialWeightJob);
+    const { calculator, solver, host } = await setUp(new FakeSolver(), withTrialWeightJob);
     host.disabled.set(true);
     expect(await calculator.canSubmit()).toBe(false);
     await calculator.submit();
@@ -400,50 +403,11 @@ describe('CpWeightCalculator with a test solver', SLOW, () => {
 
 describe('CpWeightCalculator with the local solver', SLOW, () => {
   it('balances two planes on the device', async () => {
-    const { calculator } = await setUp('local', (host) => host.method.set('two-plane'));
-    await calculator.fill({
-      'initial.0.amplitude': 0.46,
-      'initial.0.phaseDeg': 38,
-      'initial.1.amplitude': 0.29,
-      'initial.1.phaseDeg': 301,
-      'runs.0.trialWeight.mass': 80,
-      'runs.0.trialWeight.angleDeg': 0,
-      'runs.0.readings.0.amplitude': 0.27,
-      'runs.0.readings.0.phaseDeg': 84,
-      'runs.0.readings.1.amplitude': 0.33,
-      'runs.0.readings.1.phaseDeg': 280,
-      'runs.1.trialWeight.mass': 80,
-      'runs.1.trialWeight.angleDeg': 0,
-      'runs.1.readings.0.amplitude': 0.41,
-      'runs.1.readings.0.phaseDeg': 22,
-      'runs.1.readings.1.amplitude': 0.12,
-      'runs.1.readings.1.phaseDeg': 355,
-    });
+    const { calculator } = await setUp('local', (host) => host.method.set('multi-plane'));
+    await calculator.fill(harnessFields(twoPlaneJob()));
     await calculator.submit();
     const result = await calculator.getResult();
-    const answer = expected('multi-plane', {
-      planes: 2,
-      initial: [
-        { amplitude: 0.46, phaseDeg: 38 },
-        { amplitude: 0.29, phaseDeg: 301 },
-      ],
-      runs: [
-        {
-          weights: [{ plane: 1, mass: 80, angleDeg: 0 }],
-          readings: [
-            { amplitude: 0.27, phaseDeg: 84 },
-            { amplitude: 0.33, phaseDeg: 280 },
-          ],
-        },
-        {
-          weights: [{ plane: 2, mass: 80, angleDeg: 0 }],
-          readings: [
-            { amplitude: 0.41, phaseDeg: 22 },
-            { amplitude: 0.12, phaseDeg: 355 },
-          ],
-        },
-      ],
-    });
+    const answer = expected('multi-plane', CALC_ROUTES['multi-plane'].example);
     expect(result?.solver).toBe('local');
     expect(result?.corrections.map((one) => [one.title, one.mass])).toEqual(
       answer.corrections.map((one) => [`Plane ${one.plane} correction`, `${one.mass.toFixed(1)} g`]),
@@ -457,23 +421,9 @@ describe('CpWeightCalculator with the local solver', SLOW, () => {
 
   it('balances without phase, from the amplitudes at three trial positions', async () => {
     const { calculator } = await setUp('local', (host) => host.method.set('four-run'));
-    await calculator.fill({
-      initialAmplitude: 0.45,
-      trialMass: 50,
-      'trialRuns.0.amplitude': 0.62,
-      'trialRuns.1.amplitude': 0.21,
-      'trialRuns.2.amplitude': 0.55,
-    });
+    await calculator.fill(harnessFields(amplitudeOnlyJob()));
     await calculator.submit();
-    const answer = expected('four-run', {
-      initialAmplitude: 0.45,
-      trialMass: 50,
-      trialRuns: [
-        { angleDeg: 0, amplitude: 0.62 },
-        { angleDeg: 120, amplitude: 0.21 },
-        { angleDeg: 240, amplitude: 0.55 },
-      ],
-    });
+    const answer = expected('four-run', CALC_ROUTES['four-run'].example);
     const result = await calculator.getResult();
     expect(result?.corrections[0]).toMatchObject({
       mass: `${answer.correction.mass.toFixed(1)} g`,
@@ -483,7 +433,7 @@ describe('CpWeightCalculator with the local solver', SLOW, () => {
   });
 
   it('says why when the trial weight changed nothing, and offers no second solver', async () => {
-    const { calculator } = await setUp('local', trialWeightJob);
+    const { calculator } = await setUp('local', withTrialWeightJob);
     await calculator.fill({ 'withTrial.amplitude': 0.52, 'withTrial.phaseDeg': 74 });
     await calculator.submit();
     const failure = await calculator.getFailure();
@@ -491,5 +441,192 @@ describe('CpWeightCalculator with the local solver', SLOW, () => {
     expect(failure?.message).toMatch(/trial weight/i);
     expect(await calculator.canUseLocalEngine()).toBe(false);
     expect(await calculator.getResult()).toBeNull();
+  });
+});
+
+/** A dealer's page: the calculator as one control of a reactive form, beside a button outside it. */
+@Component({
+  imports: [CpWeightCalculator, ReactiveFormsModule],
+  template: `
+    <form [formGroup]="job">
+      <cp-weight-calculator formControlName="correction" [methods]="methods" [disabled]="locked()" />
+    </form>
+    <button type="button" class="elsewhere">Elsewhere on the page</button>
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+class FormHost {
+  readonly methods: readonly CalcMethod[] = ['single-plane', 'multi-plane'];
+  readonly job = new FormGroup({ correction: new FormControl<WeightCalculatorValue | null>(null) });
+  readonly locked = signal(false);
+  get correction() {
+    return this.job.controls.correction;
+  }
+}
+
+/** The same with a lone `[formControl]`. */
+@Component({
+  imports: [CpWeightCalculator, ReactiveFormsModule],
+  template: `<cp-weight-calculator [formControl]="correction" [methods]="['single-plane', 'multi-plane']" />`,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+class ControlHost {
+  readonly correction = new FormControl<WeightCalculatorValue | null>(null);
+}
+
+async function setUpForm<T extends FormHost | ControlHost>(component: new () => T) {
+  TestBed.configureTestingModule({
+    providers: [{ provide: BALANCE_SOLVER, useExisting: LocalBalanceSolver }],
+  });
+  const fixture = TestBed.createComponent(component);
+  const calculator = await TestbedHarnessEnvironment.loader(fixture).getHarness(CpWeightCalculatorHarness);
+  return { fixture, host: fixture.componentInstance, calculator };
+}
+
+describe('CpWeightCalculator as a form control', SLOW, () => {
+  it('gives the draft as typed, then the calculation when computed, and drops it when a value changes', async () => {
+    const { host, calculator } = await setUpForm(ControlHost);
+    const control = host.correction;
+    expect(control.value).toBeNull();
+    expect(control.pristine).toBe(true);
+
+    await calculator.fill(SINGLE_PLANE);
+    expect(control.value?.draft.method).toBe('single-plane');
+    expect(control.value?.draft.singlePlane).toEqual(trialWeightJob());
+    expect(control.value?.calculation).toBeNull();
+    expect(control.dirty).toBe(true);
+
+    await calculator.submit();
+    const answer = expected('single-plane', SINGLE_PLANE_REQUEST);
+    expect(control.value?.calculation).toMatchObject({
+      method: 'single-plane',
+      request: SINGLE_PLANE_REQUEST,
+      result: { correction: answer.correction },
+      solver: 'local',
+      massUnit: 'g',
+      amplitudeUnit: 'in/s',
+    });
+    expect(control.valid).toBe(true);
+
+    await calculator.setField('withTrial.amplitude', 0.33);
+    expect(control.value?.draft.singlePlane.withTrial.amplitude).toBe(0.33);
+    expect(control.value?.calculation).toBeNull();
+    expect(control.errors).toEqual({ calculatorNotComputed: true });
+  });
+
+  it('says which fields are missing, in words a page can show, and that nothing is computed', async () => {
+    const { host, calculator } = await setUpForm(ControlHost);
+    const control = host.correction;
+    expect(control.errors).toEqual({
+      calculatorFields: {
+        count: 6,
+        fields: expect.arrayContaining([
+          {
+            field: 'initial.amplitude',
+            label: 'Initial amplitude',
+            section: 'Run 1: no weight',
+            message: 'Enter the initial amplitude.',
+          },
+        ]),
+      },
+      calculatorNotComputed: true,
+    });
+    await calculator.fill({ 'initial.amplitude': -0.2, 'initial.phaseDeg': 74 });
+    const fields = (control.errors?.['calculatorFields'] as { fields: { field: string; message: string }[] })
+      .fields;
+    expect(fields.map((one) => one.field)).toEqual([
+      'initial.amplitude',
+      'trialWeight.mass',
+      'trialWeight.angleDeg',
+      'withTrial.amplitude',
+      'withTrial.phaseDeg',
+    ]);
+    expect(fields[0]?.message).toMatch(/initial amplitude cannot be negative/);
+    // A switch of method is a change of value, and the errors follow the method shown: two sensors
+    // read in three runs, and two trial weights.
+    await calculator.selectMethod('multi-plane');
+    expect(control.value?.draft.method).toBe('multi-plane');
+    expect(control.errors?.['calculatorFields']).toMatchObject({ count: 16 });
+  });
+
+  it('restores a kept value: the draft, and its calculation while it still matches', async () => {
+    const { host, calculator } = await setUpForm(ControlHost);
+    const control = host.correction;
+    control.setValue({ draft: jobDraft('single-plane'), calculation: null });
+    expect(await calculator.getFieldValue('withTrial.phaseDeg')).toBe('141');
+    expect(control.pristine).toBe(true);
+    expect(control.errors).toEqual({ calculatorNotComputed: true });
+
+    await calculator.submit();
+    const kept = control.value!;
+    expect(kept.calculation).not.toBeNull();
+    const shown = await calculator.getResult();
+
+    control.reset();
+    expect(await calculator.getFieldValue('withTrial.phaseDeg')).toBe('');
+    expect(await calculator.getResult()).toBeNull();
+    expect(control.errors?.['calculatorFields']).toMatchObject({ count: 6 });
+
+    control.setValue(kept);
+    expect(await calculator.getFieldValue('withTrial.phaseDeg')).toBe('141');
+    expect(await calculator.getResult()).toEqual(shown);
+    expect(control.valid).toBe(true);
+
+    // A calculation kept beside a draft that has changed since is not shown as the answer.
+    const changed = jobDraft('single-plane');
+    changed.singlePlane.withTrial.amplitude = 0.29;
+    control.setValue({ draft: changed, calculation: kept.calculation });
+    expect(await calculator.getResult()).toBeNull();
+    expect(control.errors).toEqual({ calculatorNotComputed: true });
+  });
+
+  it('restores a value kept under the earlier names of the two-plane method', async () => {
+    const { host, calculator } = await setUpForm(ControlHost);
+    const { multiPlane, ...rest } = jobDraft('multi-plane');
+    const old = JSON.parse(JSON.stringify({ ...rest, method: 'two-plane', twoPlane: multiPlane }));
+    host.correction.setValue({ draft: old, calculation: null });
+    expect(await calculator.getMethod()).toBe('multi-plane');
+    expect(await calculator.getFieldValue('runs.0.trialWeight.mass')).toBe('80');
+    await calculator.submit();
+    expect(host.correction.value?.draft.multiPlane).toEqual(twoPlaneJob());
+    expect(host.correction.value?.calculation?.method).toBe('multi-plane');
+  });
+
+  it('works by formControlName in a group, disabled by the form or by its input', async () => {
+    const { host, calculator, fixture } = await setUpForm(FormHost);
+    await calculator.fill(SINGLE_PLANE);
+    expect(host.job.value.correction?.draft.singlePlane).toEqual(trialWeightJob());
+    expect(host.job.valid).toBe(false);
+    await calculator.submit();
+    expect(host.job.valid).toBe(true);
+
+    host.job.disable();
+    expect(await calculator.isDisabled()).toBe(true);
+    expect(await calculator.canSubmit()).toBe(false);
+    expect(await calculator.getFieldValue('initial.amplitude')).toBe('0.52');
+    host.job.enable();
+    expect(await calculator.isDisabled()).toBe(false);
+    expect(await calculator.canSubmit()).toBe(true);
+
+    host.locked.set(true);
+    fixture.detectChanges();
+    expect(await calculator.isDisabled()).toBe(true);
+    expect(host.correction.enabled).toBe(true);
+  });
+
+  it('is touched when the focus leaves the calculator, not while it moves inside', async () => {
+    const { host, calculator, fixture } = await setUpForm(FormHost);
+    const element: HTMLElement = fixture.nativeElement;
+    const inputs = element.querySelectorAll<HTMLInputElement>('input[data-field]');
+    inputs[0]!.focus();
+    inputs[1]!.focus();
+    expect(host.correction.touched).toBe(false);
+    element.querySelector<HTMLButtonElement>('.elsewhere')!.focus();
+    expect(host.correction.touched).toBe(true);
+
+    host.correction.markAsUntouched();
+    inputs[0]!.focus();
+    await calculator.blur();
+    expect(host.correction.touched).toBe(true);
   });
 });

@@ -1,69 +1,112 @@
 import { provideHttpClient, withFetch } from '@angular/common/http';
-import { type Meta, type StoryObj, applicationConfig } from '@storybook/angular-vite';
+import { ChangeDetectionStrategy, Component, computed, effect, input, untracked } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import { type Meta, type StoryObj, applicationConfig, moduleMetadata } from '@storybook/angular-vite';
 import { expect, waitFor, within } from 'storybook/test';
 import { provideCounterpoise } from '@counterpoise/ng/solver';
 import { CpWeightCalculator } from './weight-calculator';
-import { createCalculatorForm, draftOf } from './weight-calculator-form';
-import { CALC_METHODS, type WeightCalculatorDraft } from './weight-calculator-model';
+import { jobDraft } from './weight-calculator.fixtures';
+import {
+  CALC_METHODS,
+  type CalcMethod,
+  type WeightCalculatorDraft,
+  type WeightCalculatorErrors,
+  type WeightCalculatorValue,
+} from './weight-calculator-model';
 
-// Invented demo data: the drum of a forestry mulcher on a carrier, worked from its left bearing. The
-// readings are the API reference's examples; no real machine, shop or person is named anywhere.
+// Invented demo data (weight-calculator.fixtures.ts): the drum of a forestry mulcher on a carrier, worked
+// from its left bearing. The readings are the API reference's examples; no real machine, shop or person
+// is named anywhere.
 
-/** The empty draft with the parts of it a story fills in. */
-function draftWith(fill: (draft: WeightCalculatorDraft) => void): WeightCalculatorDraft {
-  const draft = draftOf(createCalculatorForm());
-  fill(draft);
-  return draft;
+const TRIAL_WEIGHT_JOB = jobDraft('single-plane');
+const TWO_PLANE_JOB = jobDraft('multi-plane');
+const AMPLITUDE_ONLY_JOB = jobDraft('four-run');
+
+/**
+ * A dealer's job form with the calculator as one of its controls, and what the form reads from it: its
+ * status, the method of the draft, the calculation and the errors, as a page would show them.
+ */
+@Component({
+  selector: 'cp-story-job-form',
+  imports: [CpWeightCalculator, ReactiveFormsModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  styles: `
+    .story-job__state {
+      margin-top: 16px;
+      padding: 12px 16px;
+      border: 1px solid var(--mat-sys-outline-variant);
+      border-radius: 12px;
+    }
+    .story-job__state dl {
+      display: grid;
+      grid-template-columns: max-content 1fr;
+      gap: 4px 16px;
+      margin: 0;
+    }
+    .story-job__state dd {
+      margin: 0;
+    }
+  `,
+  template: `
+    <form [formGroup]="job">
+      <cp-weight-calculator formControlName="correction" [methods]="methods()" />
+      <section class="story-job__state" aria-labelledby="story-job-state">
+        <h3 id="story-job-state">The job form reads</h3>
+        <dl>
+          <dt>Status</dt>
+          <dd data-testid="status">{{ state().status }}</dd>
+          <dt>Method</dt>
+          <dd>{{ state().method }}</dd>
+          <dt>Correction</dt>
+          <dd data-testid="calculation">{{ state().calculation }}</dd>
+          <dt>Missing</dt>
+          <dd data-testid="errors">{{ state().errors }}</dd>
+        </dl>
+      </section>
+    </form>
+  `,
+})
+class StoryJobForm {
+  /** The methods the calculator offers. */
+  readonly methods = input<readonly CalcMethod[]>(CALC_METHODS);
+  /** A job the page kept, set into the form when the story starts. */
+  readonly kept = input<WeightCalculatorDraft | null>(null);
+
+  protected readonly job = new FormGroup({
+    correction: new FormControl<WeightCalculatorValue | null>(null),
+  });
+  private readonly _events = toSignal(this.job.events, { initialValue: null });
+  protected readonly state = computed(() => {
+    this._events();
+    const control = this.job.controls.correction;
+    const errors = (control.errors ?? {}) as WeightCalculatorErrors;
+    const missing = [
+      ...(errors.calculatorFields?.fields.map((field) => `${field.section}: ${field.message}`) ?? []),
+      ...(errors.calculatorNotComputed ? ['No correction computed for these values.'] : []),
+    ];
+    const calculation = control.value?.calculation;
+    return {
+      status: control.status,
+      method: control.value?.draft.method ?? 'nothing typed yet',
+      calculation:
+        calculation?.method === 'single-plane'
+          ? `${calculation.result.correction.mass.toFixed(1)} ${calculation.massUnit} at ` +
+            `${Math.round(calculation.result.correction.angleDeg) % 360}°`
+          : calculation
+            ? `computed (${calculation.method})`
+            : 'none',
+      errors: missing.length === 0 ? 'nothing' : missing.join(' '),
+    };
+  });
+
+  constructor() {
+    effect(() => {
+      const kept = this.kept();
+      untracked(() => this.job.setValue({ correction: kept && { draft: kept, calculation: null } }));
+    });
+  }
 }
-
-const TRIAL_WEIGHT_JOB = draftWith((draft) => {
-  draft.singlePlane = {
-    initial: { amplitude: 0.52, phaseDeg: 74 },
-    trialWeight: { mass: 60, angleDeg: 0 },
-    withTrial: { amplitude: 0.31, phaseDeg: 141 },
-    trialWeightRemoved: true,
-  };
-});
-
-const TWO_PLANE_JOB = draftWith((draft) => {
-  draft.method = 'two-plane';
-  draft.twoPlane = {
-    initial: [
-      { amplitude: 0.46, phaseDeg: 38 },
-      { amplitude: 0.29, phaseDeg: 301 },
-    ],
-    runs: [
-      {
-        trialWeight: { mass: 80, angleDeg: 0 },
-        readings: [
-          { amplitude: 0.27, phaseDeg: 84 },
-          { amplitude: 0.33, phaseDeg: 280 },
-        ],
-      },
-      {
-        trialWeight: { mass: 80, angleDeg: 0 },
-        readings: [
-          { amplitude: 0.41, phaseDeg: 22 },
-          { amplitude: 0.12, phaseDeg: 355 },
-        ],
-      },
-    ],
-    trialWeightsRemoved: true,
-  };
-});
-
-const AMPLITUDE_ONLY_JOB = draftWith((draft) => {
-  draft.method = 'four-run';
-  draft.fourRun = {
-    initialAmplitude: 0.45,
-    trialMass: 50,
-    trialRuns: [
-      { angleDeg: 0, amplitude: 0.62 },
-      { angleDeg: 120, amplitude: 0.21 },
-      { angleDeg: 240, amplitude: 0.55 },
-    ],
-  };
-});
 
 /**
  * The correction weight calculator: one form per method a technician uses in the field, phases and angles
@@ -88,7 +131,6 @@ const meta: Meta<CpWeightCalculator> = {
     allowedPositions: { control: 'object' },
     blockedSectors: { control: 'object' },
     sensitivity: { control: 'object' },
-    disabled: { control: 'boolean' },
     draft: { control: false },
   },
   args: {
@@ -102,7 +144,6 @@ const meta: Meta<CpWeightCalculator> = {
     allowedPositions: null,
     blockedSectors: [],
     sensitivity: null,
-    disabled: false,
     draft: null,
   },
 };
@@ -188,11 +229,7 @@ export const StoredSensitivity: Story = {
   args: {
     method: 'one-run',
     sensitivity: { massPerAmplitude: 200 },
-    draft: draftWith((draft) => {
-      draft.method = 'one-run';
-      draft.oneRun.reading = { amplitude: 0.38, phaseDeg: 212 };
-      draft.oneRun.sensitivity = { massPerAmplitude: 200, offsetDeg: null };
-    }),
+    draft: jobDraft('one-run'),
   },
   play: async ({ canvas, userEvent }) => {
     await expect(canvas.getByRole('spinbutton', { name: 'Sensitivity' })).toHaveValue(200);
@@ -204,7 +241,7 @@ export const StoredSensitivity: Story = {
 
 /** Two planes, two sensors, one trial weight per plane: a correction for each plane. */
 export const TwoPlanes: Story = {
-  args: { method: 'two-plane', draft: TWO_PLANE_JOB },
+  args: { method: 'multi-plane', draft: TWO_PLANE_JOB },
   play: async ({ canvas, userEvent }) => {
     await userEvent.click(canvas.getByRole('button', { name: 'Compute the correction' }));
     await expect(await canvas.findByRole('heading', { name: 'Plane 1 correction' })).toBeVisible();
@@ -278,7 +315,11 @@ export const OuncesAndMillimetres: Story = {
 
 /** A closed job: the readings show, nothing can be changed or computed. */
 export const Disabled: Story = {
-  args: { method: 'single-plane', draft: TRIAL_WEIGHT_JOB, disabled: true },
+  args: { method: 'single-plane', draft: TRIAL_WEIGHT_JOB },
+  render: (args) => ({
+    props: args,
+    template: `<cp-weight-calculator [method]="method" [draft]="draft" [disabled]="true" />`,
+  }),
   parameters: {
     // A disabled dial dims its hint with the rest of it. WCAG 1.4.3 exempts inactive components, but axe
     // does not know the hint belongs to one; only that hint is left out of the check.
@@ -338,3 +379,81 @@ export const DealerBrand: Story = {
 
 /** The computed result in a portal of the dark colour scheme, with its drawing. */
 export const DarkScheme: Story = { ...TrialWeightComputed, globals: { scheme: 'dark' } };
+
+/**
+ * The calculator as one control of a dealer's reactive form (`formControlName="correction"`): the form's
+ * value is the draft and the calculation that matches it, and the control stays invalid, saying what is
+ * missing, until a correction is computed for the values typed.
+ */
+export const InAReactiveForm: StoryObj<StoryJobForm> = {
+  decorators: [moduleMetadata({ imports: [StoryJobForm] })],
+  render: () => ({
+    props: { kept: TRIAL_WEIGHT_JOB, methods: ['single-plane', 'multi-plane'] },
+    template: `<cp-story-job-form [kept]="kept" [methods]="methods" />`,
+  }),
+  play: async ({ canvas, userEvent }) => {
+    await expect(canvas.getByTestId('status')).toHaveTextContent('INVALID');
+    await expect(canvas.getByTestId('errors')).toHaveTextContent('No correction computed');
+    await userEvent.click(canvas.getByRole('button', { name: 'Compute the correction' }));
+    await waitFor(() => expect(canvas.getByTestId('status')).toHaveTextContent('VALID'));
+    await expect(canvas.getByTestId('calculation')).toHaveTextContent(/^\d+\.\d g at \d+°$/);
+    const amplitude = canvas.getByRole('spinbutton', { name: 'Initial amplitude' });
+    await userEvent.clear(amplitude);
+    await waitFor(() => expect(canvas.getByTestId('status')).toHaveTextContent('INVALID'));
+    await expect(canvas.getByTestId('errors')).toHaveTextContent(
+      'Run 1: no weight: Enter the initial amplitude.',
+    );
+  },
+};
+
+/** Widths of the toggles of a group, rounded to the pixel. */
+function toggleWidths(group: HTMLElement): number[] {
+  return [...group.querySelectorAll('.mat-button-toggle')].map((toggle) =>
+    Math.round(toggle.getBoundingClientRect().width),
+  );
+}
+
+/** Two methods offered: the method toggles share the width evenly, whatever their labels. */
+export const TwoMethods: Story = {
+  args: { methods: ['one-run', 'single-plane'], method: 'single-plane', draft: TRIAL_WEIGHT_JOB },
+  play: async ({ canvas }) => {
+    const methods = canvas.getByRole('radiogroup', { name: 'Method' });
+    const [first, second] = toggleWidths(methods);
+    await expect(first).toBeGreaterThan(0);
+    await expect(first).toBe(second);
+    for (const name of ['Masses in', 'Amplitudes in']) {
+      const [one, other] = toggleWidths(canvas.getByRole('radiogroup', { name }));
+      await expect(one).toBe(other);
+    }
+  },
+};
+
+/**
+ * On a phone (here a 360 px column): the four methods in two even rows of two, each reading's dial under
+ * its field, the result panel under the form, and nothing wider than the screen.
+ */
+export const PhoneWidth: Story = {
+  args: { method: 'single-plane', draft: TRIAL_WEIGHT_JOB },
+  render: (args) => ({
+    props: args,
+    styles: ['.phone { width: 360px; }'],
+    template: `
+      <div class="phone">
+        <cp-weight-calculator [method]="method" [draft]="draft" />
+      </div>`,
+  }),
+  play: async ({ canvas, canvasElement, userEvent }) => {
+    const toggles = [
+      ...canvas.getByRole('radiogroup', { name: 'Method' }).querySelectorAll('.mat-button-toggle'),
+    ];
+    const boxes = toggles.map((toggle) => toggle.getBoundingClientRect());
+    await expect(boxes).toHaveLength(4);
+    await expect(Math.round(boxes[0]!.top)).toBe(Math.round(boxes[1]!.top));
+    await expect(boxes[2]!.top).toBeGreaterThan(boxes[0]!.top);
+    await expect(new Set(boxes.map((box) => Math.round(box.width))).size).toBe(1);
+    const calculator = canvasElement.querySelector<HTMLElement>('cp-weight-calculator')!;
+    await expect(calculator.scrollWidth).toBeLessThanOrEqual(calculator.clientWidth);
+    await userEvent.click(canvas.getByRole('button', { name: 'Compute the correction' }));
+    await expect(await canvas.findByRole('heading', { name: 'Correction weight' })).toBeVisible();
+  },
+};

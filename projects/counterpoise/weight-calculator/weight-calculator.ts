@@ -3,8 +3,10 @@ import {
   ChangeDetectionStrategy,
   Component,
   DestroyRef,
+  booleanAttribute,
   ElementRef,
   Injector,
+  forwardRef,
   afterNextRender,
   computed,
   effect,
@@ -17,7 +19,17 @@ import {
   untracked,
 } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
-import { type AbstractControl, FormArray, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import {
+  type AbstractControl,
+  type ControlValueAccessor,
+  FormArray,
+  FormGroup,
+  NG_VALIDATORS,
+  NG_VALUE_ACCESSOR,
+  ReactiveFormsModule,
+  type ValidationErrors,
+  type Validator,
+} from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -37,15 +49,18 @@ import {
   type BalanceSolver,
   BalanceSolverError,
   LOCAL_BALANCE_SOLVER,
-  canFallBackToLocal,
+  _canFallBackToLocal as canFallBackToLocal,
 } from '@counterpoise/ng/solver';
 import { CpPhaseDial } from '@counterpoise/ng/phase-dial';
+import { type FieldKind, type FieldWords, describeField } from './weight-calculator-fields';
 import {
   type CalculatorForm,
   createCalculatorForm,
   draftOf,
   fieldErrorMessage,
+  invalidFields,
   methodGroup,
+  readDraft,
 } from './weight-calculator-form';
 import {
   type AmplitudeUnit,
@@ -55,13 +70,14 @@ import {
   type MassUnit,
   METHOD_GROUPS,
   METHOD_INFO,
-  METHOD_ROUTES,
   type MethodAnswer,
   type SensitivityPreset,
   type WeightCalculation,
   type WeightCalculatorDraft,
+  type WeightCalculatorErrors,
+  type WeightCalculatorValue,
 } from './weight-calculator-model';
-import { buildRequest, controlPathFor, placementPlan } from './weight-calculator-requests';
+import { buildRequest, controlPathFor, placementPlan, requestMatches } from './weight-calculator-requests';
 import { correctionsToInstall, describeResult } from './weight-calculator-result';
 import {
   AMPLITUDE_UNITS,
@@ -101,13 +117,31 @@ interface Answer {
  *
  * It computes through `BALANCE_SOLVER` (see `provideCounterpoise()`); when the calculation service cannot
  * answer it says why and offers to compute on the device. What was typed is never lost: not on an error,
- * not on a switch of method, and `draft` lets the page keep it across visits.
+ * not on a switch of method.
+ *
+ * In a reactive form it is one control whose value is a `WeightCalculatorValue`: the draft (everything
+ * typed) and the calculation that matches it, or null while there is none or it is stale.
+ *
+ *   readonly correction = new FormControl<WeightCalculatorValue | null>(null);
+ *   <cp-weight-calculator [formControl]="correction" />   (or formControlName="correction" in a group)
+ *
+ * The value changes as the technician types, switches method or unit, and when a calculation finishes;
+ * `setValue(kept)` restores a kept job (its draft, and its calculation when it still matches). The
+ * control is invalid with `calculatorFields` ({ count, fields: [{ field, label, section, message }] })
+ * while fields of the method shown are empty or wrong, and with `calculatorNotComputed` while there is no
+ * current calculation; see `WeightCalculatorErrors`. Disabling the control disables the calculator, as
+ * the `disabled` input does, and it is touched when the focus leaves it. Without a form, `draft`
+ * (two-way) keeps what was typed and `calculated` reports each calculation.
  */
 @Component({
   selector: 'cp-weight-calculator',
   templateUrl: './weight-calculator.html',
   styleUrl: './weight-calculator.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  providers: [
+    { provide: NG_VALUE_ACCESSOR, useExisting: forwardRef(() => CpWeightCalculator), multi: true },
+    { provide: NG_VALIDATORS, useExisting: forwardRef(() => CpWeightCalculator), multi: true },
+  ],
   imports: [
     ReactiveFormsModule,
     NgTemplateOutlet,
@@ -125,9 +159,10 @@ interface Answer {
     '[class.cp-weight-calculator--computing]': '_pending()',
     '[class.cp-weight-calculator--disabled]': 'disabled()',
     '[attr.data-method]': '_method()',
+    '(focusout)': '_onFocusOut($event)',
   },
 })
-export class CpWeightCalculator {
+export class CpWeightCalculator implements ControlValueAccessor, Validator {
   /** The methods offered, in this order; all of them when empty. */
   readonly methods = input<readonly CalcMethod[]>(CALC_METHODS);
   /** The method shown; the first offered when null or not offered. */
@@ -149,7 +184,8 @@ export class CpWeightCalculator {
   /** The stored sensitivity of the machine family, filled into the stored-sensitivity form. */
   readonly sensitivity = input<SensitivityPreset | null>(null);
   /** Shows the form without letting it be changed or computed. */
-  readonly disabled = input(false);
+  // eslint-disable-next-line @angular-eslint/no-input-rename -- `disabled` names the merged state.
+  readonly disabledInput = input(false, { alias: 'disabled', transform: booleanAttribute });
   /**
    * Everything typed, for every method, with the method and units it was typed in; set it to restore a
    * job (its method and units then win over the inputs of the same names), read it to keep one.
@@ -159,11 +195,20 @@ export class CpWeightCalculator {
   /** Emits each finished calculation: the method, the request, the answer and the placed corrections. */
   readonly calculated = output<WeightCalculation>();
 
+  /** Whether the calculator is disabled, by its input or by its form control. */
+  readonly disabled = computed(() => this.disabledInput() || this._formDisabled());
+
   private readonly _solver = inject(BALANCE_SOLVER);
   private readonly _localEngine = inject(LOCAL_BALANCE_SOLVER);
   private readonly _host: ElementRef<HTMLElement> = inject(ElementRef);
   private readonly _injector = inject(Injector);
   private _running: Subscription | null = null;
+  private readonly _formDisabled = signal(false);
+  private _onChange: (value: WeightCalculatorValue) => void = () => undefined;
+  private _onTouched: () => void = () => undefined;
+  private _onValidatorChange: () => void = () => undefined;
+  /** Above zero while the form is set from outside (inputs, `draft`, `writeValue`), not by the technician. */
+  private _quiet = 0;
 
   protected readonly _id = `cp-weight-calculator-${nextId++}`;
   protected readonly _form: CalculatorForm = createCalculatorForm();
@@ -209,6 +254,13 @@ export class CpWeightCalculator {
     const answer = this._answer();
     return answer !== null && answer.typed !== this._typedKey(this._method(), this._typed());
   });
+  /** The calculation that matches what is typed now, or null. */
+  private readonly _current = computed(() => (this._stale() ? null : (this._answer()?.calculation ?? null)));
+  /** The value as a form control holds it. */
+  private readonly _value = computed<WeightCalculatorValue>(() => ({
+    draft: this._typed(),
+    calculation: this._current(),
+  }));
   protected readonly _canUseLocal = computed(() => {
     const failure = this._failure();
     return (
@@ -265,12 +317,8 @@ export class CpWeightCalculator {
     this._prefetchOverlay();
 
     this._form.valueChanges.pipe(takeUntilDestroyed()).subscribe(() => {
-      const typed = draftOf(this._form);
-      this._typed.set(typed);
-      this.method.set(typed.method);
-      this.massUnit.set(typed.massUnit);
-      this.amplitudeUnit.set(typed.amplitudeUnit);
-      this.draft.set(typed);
+      this._sync();
+      if (this._quiet === 0) this._onChange(this._value());
     });
 
     // A restored draft brings its own method and units: readings typed in mm/s stay in mm/s. Patching
@@ -279,7 +327,7 @@ export class CpWeightCalculator {
       const draft = this.draft();
       untracked(() => {
         if (draft !== null && JSON.stringify(draft) !== JSON.stringify(draftOf(this._form))) {
-          this._form.patchValue(draft);
+          this._quietly(() => this._form.patchValue(readDraft(draft)));
         }
       });
     });
@@ -287,25 +335,20 @@ export class CpWeightCalculator {
       const offered = this._methods();
       const asked = this.method();
       const method = asked !== null && offered.includes(asked) ? asked : (offered[0] ?? 'single-plane');
-      untracked(() => this._setIfChanged(this._form.controls.method, method));
+      untracked(() => this._quietly(() => this._setIfChanged(this._form.controls.method, method)));
     });
     effect(() => {
       const unit = this.massUnit();
-      untracked(() => this._setIfChanged(this._form.controls.massUnit, unit));
+      untracked(() => this._quietly(() => this._setIfChanged(this._form.controls.massUnit, unit)));
     });
     effect(() => {
       const unit = this.amplitudeUnit();
-      untracked(() => this._setIfChanged(this._form.controls.amplitudeUnit, unit));
+      untracked(() => this._quietly(() => this._setIfChanged(this._form.controls.amplitudeUnit, unit)));
     });
     effect(() => {
       const preset = this.sensitivity();
       if (preset === null) return;
-      untracked(() =>
-        this._form.controls.oneRun.controls.sensitivity.patchValue({
-          massPerAmplitude: preset.massPerAmplitude,
-          offsetDeg: preset.offsetDeg ?? null,
-        }),
-      );
+      untracked(() => this._quietly(() => this._applySensitivity(preset)));
     });
     effect(() => {
       const disabled = this.disabled();
@@ -316,6 +359,69 @@ export class CpWeightCalculator {
     });
   }
 
+  /** Restores a kept value: its draft, and its calculation when it still matches; null empties the form. */
+  writeValue(value: WeightCalculatorValue | null): void {
+    this._running?.unsubscribe();
+    this._pending.set(false);
+    this._quietly(() => {
+      const typed = this._typed();
+      this._form.reset(draftOf(createCalculatorForm(typed.method, typed.massUnit, typed.amplitudeUnit)));
+      const preset = untracked(() => this.sensitivity());
+      if (preset !== null) this._applySensitivity(preset);
+      if (value?.draft != null) this._form.patchValue(readDraft(value.draft));
+    });
+    this._sync();
+    const restored = draftOf(this._form);
+    const calculation = value?.calculation ?? null;
+    const matches =
+      calculation !== null &&
+      calculation.method === restored.method &&
+      calculation.massUnit === restored.massUnit &&
+      calculation.amplitudeUnit === restored.amplitudeUnit &&
+      requestMatches(calculation.method, restored, this.counting(), calculation.request);
+    this._answers.set(
+      matches
+        ? { [calculation.method]: { calculation, typed: this._typedKey(calculation.method, restored) } }
+        : {},
+    );
+    this._failure.set(null);
+    this._submitted.set(false);
+    this._announcement.set('');
+  }
+
+  /** Registers the form's callback for a value the technician changed. */
+  registerOnChange(fn: (value: WeightCalculatorValue) => void): void {
+    this._onChange = fn;
+  }
+
+  /** Registers the form's callback for when the focus leaves the calculator. */
+  registerOnTouched(fn: () => void): void {
+    this._onTouched = fn;
+  }
+
+  /** Disables the calculator from its form control, on top of the `disabled` input. */
+  setDisabledState(isDisabled: boolean): void {
+    this._formDisabled.set(isDisabled);
+  }
+
+  /**
+   * What keeps the value from being usable: `calculatorFields` lists the empty or wrong fields of the
+   * method shown, `calculatorNotComputed` says there is no current calculation.
+   */
+  validate(): ValidationErrors | null {
+    const fields = invalidFields(this._form, this._method());
+    const errors: WeightCalculatorErrors = {
+      ...(fields.length > 0 ? { calculatorFields: { count: fields.length, fields } } : {}),
+      ...(this._current() === null ? { calculatorNotComputed: true as const } : {}),
+    };
+    return Object.keys(errors).length > 0 ? { ...errors } : null;
+  }
+
+  /** Registers the form's callback for a change of validity that no new value brings (the engine's refusal). */
+  registerOnValidatorChange(fn: () => void): void {
+    this._onValidatorChange = fn;
+  }
+
   /** Computes the method shown with the configured solver, after checking every field. */
   protected _submit(): void {
     this._compute(this._solver);
@@ -324,6 +430,32 @@ export class CpWeightCalculator {
   /** Computes the method shown on the device, after the calculation service could not answer. */
   protected _useLocalEngine(): void {
     this._compute(this._localEngine);
+  }
+
+  /** The words of a field of the method shown (label, message name, section, kind). */
+  protected _words(field: string): FieldWords {
+    return describeField(this._method(), field);
+  }
+
+  /** The unit shown after a field of this kind. */
+  protected _unitOf(kind: FieldKind): string {
+    if (kind === 'amplitude') return this._amplitudeUnit();
+    if (kind === 'mass') return this._massUnit();
+    if (kind === 'sensitivity') return this._sensitivityUnit();
+    return '°';
+  }
+
+  /** The step of a field of this kind: one shown decimal of its unit, or any for the sensitivity. */
+  protected _stepOf(kind: FieldKind): number | 'any' {
+    if (kind === 'amplitude') return this._amplitudeStep();
+    if (kind === 'mass') return this._massStep();
+    return 'any';
+  }
+
+  /** The technician left the calculator: the form control is touched. */
+  protected _onFocusOut(event: FocusEvent): void {
+    const next = event.relatedTarget;
+    if (!(next instanceof Node && this._host.nativeElement.contains(next))) this._onTouched();
   }
 
   /** The message of a field's first error, or null while it has none to show. */
@@ -355,7 +487,7 @@ export class CpWeightCalculator {
     // A pending task keeps the application unstable while the answer is on its way (over the network,
     // or while the on-device solver loads), so that tests, harnesses and server rendering wait for it.
     const settled = this._tasks.add();
-    this._running = (solver.calculate(METHOD_ROUTES[method], request as never) as Observable<unknown>)
+    this._running = (solver.calculate(method, request as never) as Observable<unknown>)
       .pipe(
         map((result) => ({ method, request, result }) as MethodAnswer),
         switchMap((answer) =>
@@ -373,6 +505,7 @@ export class CpWeightCalculator {
           this._answers.update((answers) => ({ ...answers, [method]: { calculation, typed: key } }));
           this._announce(calculation);
           this.calculated.emit(calculation);
+          this._onChange(this._value());
         },
         error: (error: unknown) => {
           this._pending.set(false);
@@ -437,6 +570,7 @@ export class CpWeightCalculator {
         control.markAsTouched();
       }
       this._focusFirstInvalid();
+      this._onValidatorChange();
     } else {
       this._revealResults();
     }
@@ -508,6 +642,33 @@ export class CpWeightCalculator {
       typed.amplitudeUnit,
       this.counting(),
     ]);
+  }
+
+  /** Takes what the form holds into the signals and the models. */
+  private _sync(): void {
+    const typed = draftOf(this._form);
+    this._typed.set(typed);
+    this.method.set(typed.method);
+    this.massUnit.set(typed.massUnit);
+    this.amplitudeUnit.set(typed.amplitudeUnit);
+    this.draft.set(typed);
+  }
+
+  /** Changes the form from outside: the form control is not told of a change the technician did not make. */
+  private _quietly(change: () => void): void {
+    this._quiet++;
+    try {
+      change();
+    } finally {
+      this._quiet--;
+    }
+  }
+
+  private _applySensitivity(preset: SensitivityPreset): void {
+    this._form.controls.oneRun.controls.sensitivity.patchValue({
+      massPerAmplitude: preset.massPerAmplitude,
+      offsetDeg: preset.offsetDeg ?? null,
+    });
   }
 
   private _setIfChanged<T>(control: { value: T; setValue(value: T): void }, value: T): void {

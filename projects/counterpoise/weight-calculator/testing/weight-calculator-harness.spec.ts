@@ -27,7 +27,9 @@ describe('CpWeightCalculatorHarness', { timeout: 60_000 }, () => {
     expect(await found.getAllHarnesses(CpWeightCalculatorHarness)).toHaveLength(2);
     const oneRun = await found.getHarness(CpWeightCalculatorHarness.with({ method: 'one-run' }));
     expect(await oneRun.getMethodLabels()).toEqual([]);
-    expect(await found.getAllHarnesses(CpWeightCalculatorHarness.with({ method: 'two-plane' }))).toEqual([]);
+    expect(await found.getAllHarnesses(CpWeightCalculatorHarness.with({ method: 'multi-plane' }))).toEqual(
+      [],
+    );
   });
 
   it('reads what was typed back, and names a field it cannot find', async () => {

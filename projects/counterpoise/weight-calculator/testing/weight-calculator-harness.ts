@@ -91,6 +91,21 @@ export class CpWeightCalculatorHarness extends ComponentHarness {
     );
   }
 
+  /** Whether the calculator is disabled, by its `disabled` input or by its form control. */
+  async isDisabled(): Promise<boolean> {
+    return (await this.host()).hasClass('cp-weight-calculator--disabled');
+  }
+
+  /**
+   * Moves the focus out of the calculator, as a technician leaving it does: its form control is then
+   * touched. Does nothing when the focus is not in it.
+   */
+  async blur(): Promise<void> {
+    const focusable = await this.locatorForAll('input, button, [role="slider"]')();
+    const focused = await parallel(() => focusable.map((element) => element.isFocused()));
+    await focusable[focused.indexOf(true)]?.blur();
+  }
+
   /** The method shown. */
   async getMethod(): Promise<CalcMethod> {
     return (await (await this.host()).getAttribute('data-method')) as CalcMethod;
