@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatCardModule } from '@angular/material/card';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
@@ -6,13 +7,19 @@ import type { OverlayPoint } from '@counterpoise/ng/correction-overlay';
 import { CpCorrectionOverlay } from '@counterpoise/ng/correction-overlay';
 import { CpPhaseDial } from '@counterpoise/ng/phase-dial';
 import { CpPolarPlot, type PolarSeries } from '@counterpoise/ng/polar-plot';
-import { CpWeightCalculator } from '@counterpoise/ng/weight-calculator';
+import {
+  CpWeightCalculator,
+  METHOD_INFO,
+  type WeightCalculation,
+  type WeightCalculatorErrors,
+  type WeightCalculatorValue,
+} from '@counterpoise/ng/weight-calculator';
 import { DEMO_ROTOR } from './demo-rotor';
 
 /**
  * The four widgets of `@counterpoise/ng` at work on one rotor of the demo scenario, as a dealer would
  * embed them: the phase dial in a reactive form, the correction overlay, the polar plot of the runs and
- * the weight calculator.
+ * the weight calculator, a control of its own form whose value the page shows.
  */
 @Component({
   selector: 'app-widgets-page',
@@ -37,6 +44,15 @@ export class WidgetsPage {
   protected readonly rotation = computed(() => (this.counterClockwise() ? 'counterClockwise' : 'clockwise'));
   /** Where the technician marked the weight really went, on the overlay. */
   protected readonly installedAt = signal<OverlayPoint | null>(null);
+
+  /** The calculator's value: what was typed, and the calculation that matches it. */
+  protected readonly correction = new FormControl<WeightCalculatorValue | null>(null);
+  private readonly _correctionEvents = toSignal(this.correction.events, { initialValue: null });
+  /** What the page reads from the calculator's control, in words. */
+  protected readonly correctionState = computed(() => {
+    this._correctionEvents();
+    return describeCorrectionControl(this.correction.value, this.correction.errors);
+  });
 
   protected readonly series: readonly PolarSeries[] = [
     {
@@ -72,4 +88,37 @@ export class WidgetsPage {
 
 function toPoint(reading: { amplitude: number; phaseDeg: number }) {
   return { amplitude: reading.amplitude, angleDeg: reading.phaseDeg };
+}
+
+/** The calculation's weights in one line: "84.2 g at 253°", "Plane 1: 52.0 g at 12°, plane 2: ...". */
+export function correctionText(calculation: WeightCalculation): string {
+  const at = (mass: number, angleDeg: number) =>
+    `${mass.toFixed(1)} ${calculation.massUnit} at ${Math.round(angleDeg) % 360}°`;
+  if (calculation.method !== 'multi-plane') {
+    return at(calculation.result.correction.mass, calculation.result.correction.angleDeg);
+  }
+  return calculation.result.corrections
+    .map(
+      (weight, index) =>
+        `${index === 0 ? 'Plane' : 'plane'} ${weight.plane}: ${at(weight.mass, weight.angleDeg)}`,
+    )
+    .join(', ');
+}
+
+/** The calculator's form control as the page tells it: the method, the correction, or what is missing. */
+export function describeCorrectionControl(
+  value: WeightCalculatorValue | null,
+  errors: WeightCalculatorErrors | null,
+): { readonly method: string; readonly correction: string; readonly status: string } {
+  const fields = errors?.calculatorFields;
+  return {
+    method: value === null ? 'nothing typed yet' : METHOD_INFO[value.draft.method].label,
+    correction: value?.calculation ? correctionText(value.calculation) : 'not computed',
+    status:
+      fields !== undefined
+        ? `${fields.count} ${fields.count === 1 ? 'value' : 'values'} to enter or correct`
+        : errors?.calculatorNotComputed
+          ? 'compute the correction for these values'
+          : 'ready to save with the job',
+  };
 }
