@@ -2,7 +2,6 @@ import { DatePipe } from '@angular/common';
 import { HttpErrorResponse, httpResource } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
@@ -17,6 +16,7 @@ import { PASSWORD_RULE } from './password-rule';
 import { PasswordToggle } from './password-toggle';
 import { ROLE_LABELS, ROLE_SUMMARIES } from './roles';
 import { ErrorBanner } from '../forms/error-banner';
+import { BusyButton } from '../forms/busy-button';
 
 /**
  * Joining an organisation from the link of an invitation (`/accept-invitation?token=…`): the person sees
@@ -25,9 +25,9 @@ import { ErrorBanner } from '../forms/error-banner';
 @Component({
   selector: 'app-accept-invitation-page',
   imports: [
+    BusyButton,
     ErrorBanner,
     DatePipe,
-    MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,

@@ -1,13 +1,12 @@
 import { HttpClient, httpResource } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, signal } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import type { Me } from '@counterpoise/api';
 import { httpErrorMessage } from '../shell/server-errors';
 import { AUTH_URLS, AuthSession } from './auth-session';
 import { PERMISSION_LABELS, ROLE_LABELS, ROLE_SUMMARIES } from './roles';
 import { ErrorBanner } from '../forms/error-banner';
+import { BusyButton } from '../forms/busy-button';
 
 /**
  * The signed-in person's own account: who they are to the organisation, what their role lets them do, and
@@ -15,7 +14,7 @@ import { ErrorBanner } from '../forms/error-banner';
  */
 @Component({
   selector: 'app-account-page',
-  imports: [ErrorBanner, MatButtonModule, MatIconModule, MatProgressSpinnerModule],
+  imports: [BusyButton, ErrorBanner, MatIconModule],
   templateUrl: './account-page.html',
   styleUrl: './account-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

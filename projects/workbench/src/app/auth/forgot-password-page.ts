@@ -1,16 +1,15 @@
 import { ChangeDetectionStrategy, Component, inject, input, type OnInit, signal } from '@angular/core';
 import { HttpClient } from '@angular/common/http';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
 import { formErrorOf } from '../shell/server-errors';
 import { errorMessage, requiredWith } from '../shell/validators';
 import { AUTH_URLS } from './auth-session';
 import { ErrorBanner } from '../forms/error-banner';
+import { BusyButton } from '../forms/busy-button';
 
 /**
  * Asking for a link to set a new password. The answer is the same whether or not the address belongs to
@@ -19,12 +18,11 @@ import { ErrorBanner } from '../forms/error-banner';
 @Component({
   selector: 'app-forgot-password-page',
   imports: [
+    BusyButton,
     ErrorBanner,
-    MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressSpinnerModule,
     ReactiveFormsModule,
     RouterLink,
   ],
@@ -63,14 +61,13 @@ import { ErrorBanner } from '../forms/error-banner';
           />
           <mat-error>{{ errorMessage(form.controls.email) }}</mat-error>
         </mat-form-field>
-        <button matButton="filled" class="submit" type="submit" [disabled]="busy()">
-          @if (busy()) {
-            <mat-spinner diameter="20" aria-hidden="true" />
-            Sending…
-          } @else {
-            Send the link
-          }
-        </button>
+        <app-busy-button
+          class="submit"
+          type="submit"
+          [busy]="busy()"
+          label="Send the link"
+          busyLabel="Sending…"
+        />
       </form>
       <div class="links">
         <a routerLink="/sign-in">Back to sign in</a>

@@ -5,7 +5,6 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
 import { PasswordSchema } from '@counterpoise/api';
 import { formErrorOf, problemOf } from '../shell/server-errors';
@@ -14,17 +13,18 @@ import { AUTH_URLS } from './auth-session';
 import { PASSWORD_RULE } from './password-rule';
 import { PasswordToggle } from './password-toggle';
 import { ErrorBanner } from '../forms/error-banner';
+import { BusyButton } from '../forms/busy-button';
 
 /** Choosing a new password from the link of a reset e-mail (`/reset-password?token=…`). */
 @Component({
   selector: 'app-reset-password-page',
   imports: [
+    BusyButton,
     ErrorBanner,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressSpinnerModule,
     PasswordToggle,
     ReactiveFormsModule,
     RouterLink,
@@ -74,14 +74,13 @@ import { ErrorBanner } from '../forms/error-banner';
           <mat-hint>{{ passwordRule }}</mat-hint>
           <mat-error>{{ errorMessage(form.controls.password) }}</mat-error>
         </mat-form-field>
-        <button matButton="filled" class="submit" type="submit" [disabled]="busy()">
-          @if (busy()) {
-            <mat-spinner diameter="20" aria-hidden="true" />
-            Saving…
-          } @else {
-            Save the new password
-          }
-        </button>
+        <app-busy-button
+          class="submit"
+          type="submit"
+          [busy]="busy()"
+          label="Save the new password"
+          busyLabel="Saving…"
+        />
       </form>
     }
   `,

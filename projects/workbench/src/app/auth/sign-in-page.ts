@@ -1,11 +1,9 @@
 import { HttpErrorResponse } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { Router, RouterLink } from '@angular/router';
 import type { ACCOUNTS_PROBLEM_CODES } from '@counterpoise/api';
 import { formErrorOf, problemOf } from '../shell/server-errors';
@@ -14,17 +12,17 @@ import { safeReturnUrl } from './auth.guards';
 import { AuthSession } from './auth-session';
 import { PasswordToggle } from './password-toggle';
 import { ErrorBanner } from '../forms/error-banner';
+import { BusyButton } from '../forms/busy-button';
 
 /** Signing in with an e-mail address and a password, then back to the page the person asked for. */
 @Component({
   selector: 'app-sign-in-page',
   imports: [
+    BusyButton,
     ErrorBanner,
-    MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressSpinnerModule,
     PasswordToggle,
     ReactiveFormsModule,
     RouterLink,

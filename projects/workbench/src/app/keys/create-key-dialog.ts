@@ -20,7 +20,6 @@ import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import {
   type ApiKeySummary,
   ApiKeyNameSchema,
@@ -32,6 +31,7 @@ import { formErrorOf } from '../shell/server-errors';
 import { errorMessage, requiredWith, schemaError, schemaValidator } from '../shell/validators';
 import { type CreateApiKeyRequest, KeysApi } from './keys.api';
 import { ErrorBanner } from '../forms/error-banner';
+import { BusyButton } from '../forms/busy-button';
 
 /**
  * Creating an API key, then showing it the one time the server ever answers it, with a copy button. Once
@@ -41,13 +41,13 @@ import { ErrorBanner } from '../forms/error-banner';
 @Component({
   selector: 'app-create-key-dialog',
   imports: [
+    BusyButton,
     ErrorBanner,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressSpinnerModule,
     ReactiveFormsModule,
   ],
   templateUrl: './create-key-dialog.html',

@@ -2,7 +2,6 @@ import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/cor
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatRadioModule } from '@angular/material/radio';
 import { type Role, ROLES, type User } from '@counterpoise/api';
 import type { UpdatePerson } from '../auth/api-types';
@@ -10,6 +9,7 @@ import { ROLE_LABELS, ROLE_SUMMARIES } from '../auth/roles';
 import { httpErrorMessage, problemOf } from '../shell/server-errors';
 import { PeopleApi } from './people.api';
 import { ErrorBanner } from '../forms/error-banner';
+import { BusyButton } from '../forms/busy-button';
 
 /**
  * Giving a person another role, each role with what it does, so that the choice is made knowingly. The
@@ -17,14 +17,7 @@ import { ErrorBanner } from '../forms/error-banner';
  */
 @Component({
   selector: 'app-change-role-dialog',
-  imports: [
-    ErrorBanner,
-    FormsModule,
-    MatButtonModule,
-    MatDialogModule,
-    MatProgressSpinnerModule,
-    MatRadioModule,
-  ],
+  imports: [BusyButton, ErrorBanner, FormsModule, MatButtonModule, MatDialogModule, MatRadioModule],
   template: `
     <h2 mat-dialog-title>Change the role of {{ person.name }}</h2>
     <mat-dialog-content>
@@ -48,19 +41,13 @@ import { ErrorBanner } from '../forms/error-banner';
     </mat-dialog-content>
     <mat-dialog-actions align="end">
       <button matButton type="button" mat-dialog-close>Cancel</button>
-      <button
-        matButton="filled"
-        type="button"
-        [disabled]="busy() || chosen() === person.role"
+      <app-busy-button
+        [busy]="busy()"
+        [disabled]="chosen() === person.role"
+        [label]="'Make ' + roleLabels[chosen()].toLowerCase()"
+        busyLabel="Saving…"
         (click)="save()"
-      >
-        @if (busy()) {
-          <mat-spinner diameter="20" aria-hidden="true" />
-          Saving…
-        } @else {
-          Make {{ roleLabels[chosen()].toLowerCase() }}
-        }
-      </button>
+      />
     </mat-dialog-actions>
   `,
   styleUrl: './dialog.scss',

@@ -5,7 +5,6 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { MatSelectModule } from '@angular/material/select';
 import { EmailSchema, PersonNameSchema, type Role } from '@counterpoise/api';
 import type { InviteRequest } from '../auth/api-types';
@@ -14,6 +13,7 @@ import { formErrorOf, httpErrorMessage, problemOf } from '../shell/server-errors
 import { errorMessage, requiredWith, schemaValidator } from '../shell/validators';
 import { PeopleApi } from './people.api';
 import { ErrorBanner } from '../forms/error-banner';
+import { BusyButton } from '../forms/busy-button';
 
 /** What the invitation dialog needs to know. */
 export interface InviteDialogData {
@@ -37,12 +37,12 @@ export interface InviteOutcome {
 @Component({
   selector: 'app-invite-dialog',
   imports: [
+    BusyButton,
     ErrorBanner,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
     MatInputModule,
-    MatProgressSpinnerModule,
     MatSelectModule,
     ReactiveFormsModule,
   ],
@@ -89,14 +89,7 @@ export interface InviteOutcome {
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button matButton type="button" mat-dialog-close>Cancel</button>
-        <button matButton="filled" type="submit" [disabled]="busy()">
-          @if (busy()) {
-            <mat-spinner diameter="20" aria-hidden="true" />
-            Sending…
-          } @else {
-            Send the invitation
-          }
-        </button>
+        <app-busy-button type="submit" [busy]="busy()" label="Send the invitation" busyLabel="Sending…" />
       </mat-dialog-actions>
     </form>
   `,

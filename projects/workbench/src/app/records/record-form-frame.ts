@@ -11,6 +11,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
 import { ErrorBanner } from '../forms/error-banner';
+import { BusyButton } from '../forms/busy-button';
 
 /** What RecordFormFrame reads of a RecordForm: whether the record to edit is on its way or failed. */
 export interface RecordFormLoad {
@@ -84,18 +85,11 @@ export class RecordFormError {
  */
 @Component({
   selector: 'app-record-save-bar',
-  imports: [MatButtonModule, MatProgressSpinnerModule, RouterLink],
+  imports: [BusyButton, MatButtonModule, RouterLink],
   template: `
     <div class="save-bar">
       <a matButton [routerLink]="cancelLink()">Cancel</a>
-      <button matButton="filled" type="submit" [disabled]="busy()">
-        @if (busy()) {
-          <mat-spinner diameter="20" aria-hidden="true" />
-          Saving…
-        } @else {
-          {{ saveLabel() }}
-        }
-      </button>
+      <app-busy-button type="submit" [busy]="busy()" [label]="saveLabel()" busyLabel="Saving…" />
     </div>
   `,
   styleUrl: './record-form-frame.scss',

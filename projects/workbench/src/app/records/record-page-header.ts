@@ -4,6 +4,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import type { Permission } from '@counterpoise/api';
 import { AuthSession } from '../auth/auth-session';
+import { BusyButton } from '../forms/busy-button';
 
 /**
  * The top of a record's page (a customer, a machine family, a machine): the breadcrumb the page projects,
@@ -12,7 +13,7 @@ import { AuthSession } from '../auth/auth-session';
  */
 @Component({
   selector: 'app-record-page-header',
-  imports: [MatButtonModule, MatIconModule, RouterLink],
+  imports: [BusyButton, MatButtonModule, MatIconModule, RouterLink],
   template: `
     <header class="header">
       <div>
@@ -32,15 +33,13 @@ import { AuthSession } from '../auth/auth-session';
           </a>
         }
         @if (session.can('records:archive')) {
-          <button
-            matButton="outlined"
-            type="button"
-            [disabled]="archiving()"
+          <app-busy-button
+            appearance="outlined"
+            [icon]="archived() ? 'unarchive' : 'archive'"
+            [busy]="archiving()"
+            [label]="archived() ? 'Restore' : 'Archive'"
             (click)="archiveOrRestore.emit()"
-          >
-            <mat-icon aria-hidden="true">{{ archived() ? 'unarchive' : 'archive' }}</mat-icon>
-            {{ archived() ? 'Restore' : 'Archive' }}
-          </button>
+          />
         }
       </div>
     </header>
