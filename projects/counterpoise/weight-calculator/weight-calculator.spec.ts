@@ -173,10 +173,10 @@ describe('CpWeightCalculator with a test solver', SLOW, () => {
     expect((solver as FakeSolver).calls).toEqual([]);
     expect(await calculator.getErrors()).toEqual([
       'Enter the initial amplitude.',
-      'Enter the trial mass.',
-      'Enter the trial run amplitude.',
       'Enter the initial phase.',
+      'Enter the trial mass.',
       'Enter the trial angle.',
+      'Enter the trial run amplitude.',
       'Enter the trial run phase.',
     ]);
     expect(await calculator.getFieldError('withTrial.phaseDeg')).toBe('Enter the trial run phase.');
@@ -565,6 +565,8 @@ describe('CpWeightCalculator as a form control', SLOW, () => {
     control.reset();
     expect(await calculator.getFieldValue('withTrial.phaseDeg')).toBe('');
     expect(await calculator.getResult()).toBeNull();
+    // A new job does not show the last one's submitted errors.
+    expect(await calculator.getErrors()).toEqual([]);
     expect(control.errors?.['calculatorFields']).toMatchObject({ count: 6 });
 
     control.setValue(kept);

@@ -17,6 +17,7 @@ import {
   PendingTasks,
   signal,
   untracked,
+  viewChild,
 } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import {
@@ -24,6 +25,7 @@ import {
   type ControlValueAccessor,
   FormArray,
   FormGroup,
+  FormGroupDirective,
   NG_VALIDATORS,
   NG_VALUE_ACCESSOR,
   ReactiveFormsModule,
@@ -201,6 +203,7 @@ export class CpWeightCalculator implements ControlValueAccessor, Validator {
   private readonly _solver = inject(BALANCE_SOLVER);
   private readonly _localEngine = inject(LOCAL_BALANCE_SOLVER);
   private readonly _host: ElementRef<HTMLElement> = inject(ElementRef);
+  private readonly _formDirective = viewChild(FormGroupDirective);
   private readonly _injector = inject(Injector);
   private _running: Subscription | null = null;
   private readonly _formDisabled = signal(false);
@@ -365,7 +368,12 @@ export class CpWeightCalculator implements ControlValueAccessor, Validator {
     this._pending.set(false);
     this._quietly(() => {
       const typed = this._typed();
-      this._form.reset(draftOf(createCalculatorForm(typed.method, typed.massUnit, typed.amplitudeUnit)));
+      // Through the form directive, so that a new job does not show the last one's submitted errors.
+      const blank = draftOf(createCalculatorForm(typed.method, typed.massUnit, typed.amplitudeUnit));
+      const directive = this._formDirective();
+      // Before the first render the directive has no form yet, and nothing was submitted.
+      if (directive?.form) directive.resetForm(blank);
+      else this._form.reset(blank);
       const preset = untracked(() => this.sensitivity());
       if (preset !== null) this._applySensitivity(preset);
       if (value?.draft != null) this._form.patchValue(readDraft(value.draft));
@@ -461,7 +469,15 @@ export class CpWeightCalculator implements ControlValueAccessor, Validator {
   /** The message of a field's first error, or null while it has none to show. */
   protected _errorOf(control: AbstractControl, what: string): string | null {
     if (!control.invalid || !(control.touched || this._submitted())) return null;
-    return fieldErrorMessage(control.errors, what);
+    return this._messageOf(control, what);
+  }
+
+  /**
+   * The message of a field's first error, for a field that decides itself when to show it (the phase
+   * dial, in Material's error state); null while the field is valid.
+   */
+  protected _messageOf(control: AbstractControl, what: string): string | null {
+    return control.invalid ? fieldErrorMessage(control.errors, what) : null;
   }
 
   private _compute(solver: BalanceSolver): void {

@@ -79,8 +79,8 @@ export class CpWeightCalculatorHarness extends ComponentHarness {
     '.cp-weight-calculator__warning, .cp-weight-calculator__split-warning',
   );
   private readonly _solverNote = this.locatorForOptional('.cp-weight-calculator__solver');
+  // Every Material form field of the form, the phase dials' own included, in the order of the form.
   private readonly _formFields = this.locatorForAll(MatFormFieldHarness);
-  private readonly _angleErrors = this.locatorForAll('.cp-weight-calculator__angle-error');
 
   /** A predicate that finds a calculator by the method it shows. */
   static with(options: WeightCalculatorHarnessFilters = {}): HarnessPredicate<CpWeightCalculatorHarness> {
@@ -187,17 +187,19 @@ export class CpWeightCalculatorHarness extends ComponentHarness {
   /** The error shown under a field, or null when it shows none. */
   async getFieldError(field: string): Promise<string | null> {
     const error = await this.locatorForOptional(`[data-field-error="${field}"]`)();
-    if (!error) return null;
-    const text = (await error.text()).trim();
+    // An angle's error is the phase dial's own, shown in its form field.
+    const dial = error
+      ? null
+      : await this.locatorForOptional(CpPhaseDialHarness.with({ selector: `[data-field="${field}"]` }))();
+    const text = ((await error?.text()) ?? (await dial?.getErrorText()) ?? '').trim();
     return text === '' ? null : text;
   }
 
   /** Every field error shown, in the order of the form. */
   async getErrors(): Promise<string[]> {
-    const [fields, angles] = await parallel(() => [this._formFields(), this._angleErrors()]);
-    const fieldErrors = (await parallel(() => fields.map((field) => field.getTextErrors()))).flat();
-    const angleErrors = await parallel(() => angles.map((error) => error.text()));
-    return [...fieldErrors, ...angleErrors].map((text) => text.trim()).filter((text) => text !== '');
+    const fields = await this._formFields();
+    const errors = (await parallel(() => fields.map((field) => field.getTextErrors()))).flat();
+    return errors.map((text) => text.trim()).filter((text) => text !== '');
   }
 
   /** Computes the method shown, as the submit button does. */
