@@ -1,15 +1,14 @@
 import { ChangeDetectionStrategy, Component, inject, input, type OnInit, signal } from '@angular/core';
 import { HttpClient } from '@angular/common/http';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { formErrorOf } from '../shell/server-errors';
-import { errorMessage, requiredWith } from '../shell/validators';
+import { requiredWith } from '../shell/validators';
 import { AUTH_URLS } from './auth-session';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
+import { EmailField } from '../forms/email-field';
 
 /**
  * Asking for a link to set a new password. The answer is the same whether or not the address belongs to
@@ -17,15 +16,7 @@ import { BusyButton } from '../forms/busy-button';
  */
 @Component({
   selector: 'app-forgot-password-page',
-  imports: [
-    BusyButton,
-    ErrorBanner,
-    MatFormFieldModule,
-    MatIconModule,
-    MatInputModule,
-    ReactiveFormsModule,
-    RouterLink,
-  ],
+  imports: [EmailField, BusyButton, ErrorBanner, MatIconModule, ReactiveFormsModule, RouterLink],
   template: `
     <h1>Set a new password</h1>
     @if (sentTo(); as address) {
@@ -48,19 +39,7 @@ import { BusyButton } from '../forms/busy-button';
         @if (formError(); as message) {
           <app-error-banner class="form-error" [message]="message" />
         }
-        <mat-form-field appearance="outline" subscriptSizing="dynamic">
-          <mat-label>E-mail address</mat-label>
-          <input
-            matInput
-            type="email"
-            formControlName="email"
-            autocomplete="username"
-            inputmode="email"
-            autocapitalize="off"
-            spellcheck="false"
-          />
-          <mat-error>{{ errorMessage(form.controls.email) }}</mat-error>
-        </mat-form-field>
+        <app-email-field [control]="form.controls.email" autocomplete="username" subscriptSizing="dynamic" />
         <app-busy-button
           class="submit"
           type="submit"
@@ -91,7 +70,6 @@ export class ForgotPasswordPage implements OnInit {
   protected readonly formError = signal<string | null>(null);
   /** The address the link went to, once the server has taken the request. */
   protected readonly sentTo = signal<string | null>(null);
-  protected readonly errorMessage = errorMessage;
 
   ngOnInit(): void {
     const email = this.email();

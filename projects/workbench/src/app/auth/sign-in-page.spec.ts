@@ -38,7 +38,7 @@ describe('SignInPage', () => {
     const harness = await RouterTestingHarness.create(url);
     const loader = TestbedHarnessEnvironment.loader(harness.fixture);
     const element = harness.routeNativeElement as HTMLElement;
-    const email = await loader.getHarness(MatInputHarness.with({ selector: '[formControlName=email]' }));
+    const email = await loader.getHarness(MatInputHarness.with({ selector: '[type=email]' }));
     const password = await loader.getHarness(
       MatInputHarness.with({ selector: '[formControlName=password]' }),
     );

@@ -13,11 +13,13 @@ import { AuthSession } from './auth-session';
 import { PasswordToggle } from './password-toggle';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
+import { EmailField } from '../forms/email-field';
 
 /** Signing in with an e-mail address and a password, then back to the page the person asked for. */
 @Component({
   selector: 'app-sign-in-page',
   imports: [
+    EmailField,
     BusyButton,
     ErrorBanner,
     MatFormFieldModule,

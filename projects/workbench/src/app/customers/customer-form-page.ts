@@ -30,6 +30,7 @@ import {
   fillCustomerForm,
 } from './customer-form-model';
 import { CustomersApi } from './customers.api';
+import { EmailField } from '../forms/email-field';
 
 /**
  * Adding a customer or changing one: a name is enough, an e-mail address is usual; contact persons are
@@ -38,6 +39,7 @@ import { CustomersApi } from './customers.api';
 @Component({
   selector: 'app-customer-form-page',
   imports: [
+    EmailField,
     RecordFormError,
     RecordFormFrame,
     RecordSaveBar,

@@ -14,6 +14,7 @@ import { errorMessage, requiredWith, schemaValidator } from '../shell/validators
 import { PeopleApi } from './people.api';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
+import { EmailField } from '../forms/email-field';
 
 /** What the invitation dialog needs to know. */
 export interface InviteDialogData {
@@ -37,6 +38,7 @@ export interface InviteOutcome {
 @Component({
   selector: 'app-invite-dialog',
   imports: [
+    EmailField,
     BusyButton,
     ErrorBanner,
     MatButtonModule,
@@ -57,19 +59,7 @@ export interface InviteOutcome {
         @if (formError(); as message) {
           <app-error-banner class="form-error" [message]="message" />
         }
-        <mat-form-field appearance="outline" subscriptSizing="dynamic">
-          <mat-label>E-mail address</mat-label>
-          <input
-            matInput
-            type="email"
-            formControlName="email"
-            inputmode="email"
-            autocomplete="off"
-            autocapitalize="off"
-            spellcheck="false"
-          />
-          <mat-error>{{ errorMessage(form.controls.email) }}</mat-error>
-        </mat-form-field>
+        <app-email-field [control]="form.controls.email" autocomplete="off" subscriptSizing="dynamic" />
         <mat-form-field appearance="outline" subscriptSizing="dynamic">
           <mat-label>Role</mat-label>
           <mat-select formControlName="role">

@@ -202,7 +202,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
     await role.clickOptions({ text: 'Manager' });
 
     await (
-      await dialog.getHarness(MatInputHarness.with({ selector: '[formControlName=email]' }))
+      await dialog.getHarness(MatInputHarness.with({ selector: '[type=email]' }))
     ).setValue('kaito@example.com');
     await (
       await dialog.getHarness(MatInputHarness.with({ selector: '[formControlName=name]' }))
@@ -227,7 +227,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
     await (await loader.getHarness(MatButtonHarness.with({ text: /Invite someone/ }))).click();
     const dialog = await overlays.getHarness(MatDialogHarness);
     await (
-      await dialog.getHarness(MatInputHarness.with({ selector: '[formControlName=email]' }))
+      await dialog.getHarness(MatInputHarness.with({ selector: '[type=email]' }))
     ).setValue('kaito@example.com');
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Send the invitation' }))).click();
     http.expectOne(PEOPLE_URLS.invitations).flush(
@@ -261,7 +261,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
     const { loader, overlays, fixture } = await render('owner');
     await (await loader.getHarness(MatButtonHarness.with({ text: /Invite someone/ }))).click();
     const dialog = await overlays.getHarness(MatDialogHarness);
-    const email = await dialog.getHarness(MatInputHarness.with({ selector: '[formControlName=email]' }));
+    const email = await dialog.getHarness(MatInputHarness.with({ selector: '[type=email]' }));
     await email.setValue('suvi@example.com');
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Send the invitation' }))).click();
     http.expectOne(PEOPLE_URLS.invitations).flush(
