@@ -1,54 +1,23 @@
 import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
 import { type Meta, type StoryObj, moduleMetadata } from '@storybook/angular-vite';
 import { expect, fireEvent, fn, waitFor } from 'storybook/test';
-import { type RotationCounting, type RotationDirection, pointAtAngle } from '@counterpoise/ng/core';
+import {
+  type RotationCounting,
+  type RotationDirection,
+  _pointAtAngle as pointAtAngle,
+} from '@counterpoise/ng/core';
 import { CpCorrectionOverlay } from './correction-overlay';
-import type { BlockedSector, OverlayPoint, OverlayWeight, RotorPhoto } from './overlay-model';
-
-// Invented demo data: the left end of a forestry-mulcher drum balanced in one plane. Run 1 put the heavy
-// spot near 280 degrees; the correction is 84 g at 100 degrees, and the drum's tooth holders block part of
-// the rim, so the shop also fits it split across two free spots.
-const CORRECTION: readonly OverlayWeight[] = [{ mass: 84, angleDeg: 100, unit: 'g' }];
-const SPLIT: readonly OverlayWeight[] = [
-  { mass: 46, angleDeg: 75, unit: 'g', label: 'A' },
-  { mass: 52, angleDeg: 135, unit: 'g', label: 'B' },
-];
-const EXISTING: readonly OverlayWeight[] = [{ mass: 30, angleDeg: 210, unit: 'g' }];
-const HOLDERS: readonly BlockedSector[] = [
-  { fromDeg: 90, toDeg: 120, label: 'holder' },
-  { fromDeg: 170, toDeg: 185, label: 'weld' },
-  { fromDeg: 350, toDeg: 15, label: 'holder' },
-];
-
-/**
- * An illustration standing in for the technician's photo: the end plate of a drum, a little off-centre,
- * with bolt heads, two tooth holders and a strip of reflective tape at the reference mark.
- */
-const END_PLATE_PICTURE = `data:image/svg+xml,${encodeURIComponent(`
-<svg xmlns="http://www.w3.org/2000/svg" width="800" height="600" viewBox="0 0 800 600">
-  <rect width="800" height="600" fill="#3a3f36"/>
-  <rect y="430" width="800" height="170" fill="#4d5443"/>
-  <circle cx="420" cy="290" r="250" fill="#6b6f72"/>
-  <circle cx="420" cy="290" r="236" fill="#8a8f93"/>
-  <circle cx="420" cy="290" r="70" fill="#55595c"/>
-  <circle cx="420" cy="290" r="30" fill="#2e3133"/>
-  ${Array.from({ length: 8 }, (_, i) => {
-    const a = (i * Math.PI) / 4;
-    return `<circle cx="${420 + 120 * Math.cos(a)}" cy="${290 + 120 * Math.sin(a)}" r="11" fill="#404446"/>`;
-  }).join('')}
-  <rect x="580" y="90" width="40" height="60" fill="#505456" transform="rotate(40 600 120)"/>
-  <rect x="200" y="420" width="40" height="60" fill="#505456" transform="rotate(40 220 450)"/>
-  <rect x="600" y="292" width="44" height="14" fill="#e8eef0" transform="rotate(20 420 290)"/>
-</svg>`)}`;
-
-const CALIBRATED_PHOTO: RotorPhoto = {
-  src: END_PLATE_PICTURE,
-  calibration: {
-    centre: { x: 420 / 800, y: 290 / 600 },
-    rim: { x: 656 / 800, y: 290 / 600 },
-    referenceMark: { x: 0.79, y: 0.6 },
-  },
-};
+import {
+  CALIBRATED_PHOTO,
+  CORRECTION,
+  CROWDED_DRUM,
+  END_PLATE_PICTURE,
+  HOLDERS,
+  MULCHER_DEMO,
+  SPLIT,
+  SPLIT_AROUND_HOLDERS,
+} from './correction-overlay.fixtures';
+import type { OverlayPoint } from './overlay-model';
 
 /** The client point of a rotor angle and a fraction of the radius, from what the drawing says of itself. */
 function pointOnRotor(canvasElement: HTMLElement, angleDeg: number, radiusFraction: number) {
@@ -183,14 +152,7 @@ export const KeyboardMarking: Story = {
  * positions, hatched blocked sectors, heavy spot, sensor.
  */
 export const SplitAroundHolders: Story = {
-  args: {
-    corrections: SPLIT,
-    existingWeights: EXISTING,
-    blockedSectors: HOLDERS,
-    allowedPositions: { count: 24, firstDeg: 0 },
-    heavySpotDeg: 282,
-    sensorAngleDeg: 90,
-  },
+  args: { ...SPLIT_AROUND_HOLDERS },
   play: async ({ canvas, canvasElement }) => {
     await expect(canvas.getByText('A: 46 g at 75°')).toBeVisible();
     await expect(canvas.getByText('B: 52 g at 135°')).toBeVisible();
@@ -403,3 +365,63 @@ export const DealerBrand: Story = {
 
 /** The split in a portal of the dark colour scheme: every colour comes from the theme's tokens. */
 export const DarkScheme: Story = { ...SplitAroundHolders, globals: { scheme: 'dark' } };
+
+/** The client rectangles of every label drawn, and of the drawing. */
+function labelRects(canvasElement: HTMLElement) {
+  const svg = canvasElement.querySelector('.cp-correction-overlay__drawing')!;
+  const boxes = [...canvasElement.querySelectorAll('.cp-correction-overlay__label-box')];
+  return { drawing: svg.getBoundingClientRect(), labels: boxes.map((box) => box.getBoundingClientRect()) };
+}
+
+/** Checks what a crowded drawing promises: labels inside the drawing, and no two over each other. */
+async function expectLabelsApart(canvasElement: HTMLElement) {
+  const { drawing, labels } = labelRects(canvasElement);
+  for (const [i, a] of labels.entries()) {
+    await expect(a.left).toBeGreaterThanOrEqual(drawing.left - 0.5);
+    await expect(a.right).toBeLessThanOrEqual(drawing.right + 0.5);
+    await expect(a.top).toBeGreaterThanOrEqual(drawing.top - 0.5);
+    await expect(a.bottom).toBeLessThanOrEqual(drawing.bottom + 0.5);
+    for (const b of labels.slice(i + 1)) {
+      const apart =
+        a.right <= b.left + 0.5 ||
+        b.right <= a.left + 0.5 ||
+        a.bottom <= b.top + 0.5 ||
+        b.bottom <= a.top + 0.5;
+      await expect(apart).toBe(true);
+    }
+  }
+}
+
+/**
+ * The demo drum of the workbench: a correction split between two holders only ten degrees apart. Each part
+ * keeps its own label, clear of the other's and of the rim, with a leader line when it had to move.
+ */
+export const MulcherDemo: Story = {
+  args: { ...MULCHER_DEMO },
+  play: async ({ canvas, canvasElement }) => {
+    await expect(canvas.getByText('Holder 4: 41 g at 35°')).toBeVisible();
+    await expect(canvas.getByText('Holder 5: 23 g at 45°')).toBeVisible();
+    await expectLabelsApart(canvasElement);
+  },
+};
+
+/**
+ * The most crowded drum: 24 holders, a correction split three ways over neighbouring holders, two blocked
+ * sectors, earlier weights, the heavy spot and the sensor, on a phone held upright.
+ */
+export const CrowdedDrum: Story = {
+  args: { ...CROWDED_DRUM },
+  render: (args) => ({
+    props: args,
+    template: `<div style="width: 320px"><cp-correction-overlay ${argsToBindings(args)} /></div>`,
+  }),
+  play: async ({ canvas, canvasElement }) => {
+    for (const text of ['Part 1: 28 g at 30°', 'Part 2: 31 g at 45°', 'Part 3: 26 g at 60°']) {
+      await expect(canvas.getByText(text)).toBeVisible();
+    }
+    await expectLabelsApart(canvasElement);
+    await expect(description(canvasElement)).toContain(
+      'Blocked: Drive pulley bolts 80 to 110 degrees; Repair weld 160 to 185 degrees.',
+    );
+  },
+};

@@ -18,16 +18,16 @@ import {
 } from '@angular/core';
 import { type ControlValueAccessor, NG_VALUE_ACCESSOR } from '@angular/forms';
 import {
-  type RotationCounting,
   type DialConvention,
   type DialPositions,
+  type RotationCounting,
   type RotationDirection,
-  type ScreenPoint,
-  angleAtPoint,
-  describeAngle,
-  expandPositions,
-  normalizeDeg,
-  pointAtAngle,
+  type _ScreenPoint as ScreenPoint,
+  _angleAtPoint as angleAtPoint,
+  _describeAngle as describeAngle,
+  _expandPositions as expandPositions,
+  _normalizeDeg as normalizeDeg,
+  _pointAtAngle as pointAtAngle,
 } from '@counterpoise/ng/core';
 import { type PhotoState, describeOverlay } from './overlay-description';
 import {
@@ -499,7 +499,7 @@ export class CpCorrectionOverlay implements ControlValueAccessor {
   /** A pointer position in stage pixels; the stage's viewBox is its own size, so only its offset and zoom matter. */
   private _toStage(clientX: number, clientY: number): ScreenPoint {
     const rect = this._stage().nativeElement.getBoundingClientRect();
-    const { width, height } = this._size();
+    const { width, height } = this._scene();
     const scaleX = rect.width > 0 ? width / rect.width : 1;
     const scaleY = rect.height > 0 ? height / rect.height : 1;
     return { x: (clientX - rect.left) * scaleX, y: (clientY - rect.top) * scaleY };

@@ -4,7 +4,6 @@ import {
   clockPosition,
   describeOverlay,
   describePositions,
-  formatDegrees,
   weightLabel,
 } from './overlay-description';
 
@@ -31,11 +30,11 @@ describe('labels', () => {
     );
   });
 
-  it('brings angles into one turn with at most one decimal', () => {
-    expect(formatDegrees(360)).toBe('0');
-    expect(formatDegrees(-90)).toBe('270');
-    expect(formatDegrees(12.34)).toBe('12.3');
-    expect(formatDegrees(359.99)).toBe('0');
+  it('writes angles by the one rule of the library: one turn, at most one decimal', () => {
+    expect(weightLabel({ mass: 5, angleDeg: 360, unit: 'g' })).toBe('5 g at 0°');
+    expect(weightLabel({ mass: 5, angleDeg: -90, unit: 'g' })).toBe('5 g at 270°');
+    expect(weightLabel({ mass: 5, angleDeg: 12.34, unit: 'g' })).toBe('5 g at 12.3°');
+    expect(weightLabel({ mass: 5, angleDeg: 359.99, unit: 'g' })).toBe('5 g at 0°');
   });
 
   it('names screen angles by the hour of a clock face', () => {

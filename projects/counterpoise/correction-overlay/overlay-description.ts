@@ -2,7 +2,13 @@
  * The overlay's words: the short labels drawn beside each element, and the text alternative that says in
  * sentences everything the drawing shows. Framework-free, so both are tested without TestBed.
  */
-import { type RotationCounting, type RotationDirection, normalizeDeg } from '@counterpoise/ng/core';
+import {
+  type RotationCounting,
+  type RotationDirection,
+  _degreesText as degreesText,
+  _formatAngle as formatAngle,
+  _normalizeDeg as normalizeDeg,
+} from '@counterpoise/ng/core';
 import { sectorContaining, sectorSweepDeg } from './overlay-geometry';
 import type { BlockedSector, OverlayPoint, OverlayWeight } from './overlay-model';
 
@@ -11,14 +17,9 @@ export function formatMass(mass: number): string {
   return String(Math.round(mass * 10) / 10);
 }
 
-/** An angle as a number of degrees in [0, 360), at most one decimal. */
-export function formatDegrees(angleDeg: number): string {
-  return String(Math.round(normalizeDeg(angleDeg) * 10) / 10).replace(/^360$/, '0');
-}
-
 /** The short label drawn beside a weight: "84 g at 100°", or "Split A: 84 g at 100°". */
 export function weightLabel(weight: OverlayWeight): string {
-  const text = `${formatMass(weight.mass)} ${weight.unit} at ${formatDegrees(weight.angleDeg)}°`;
+  const text = `${formatMass(weight.mass)} ${weight.unit} at ${degreesText(weight.angleDeg, 1)}`;
   return weight.label ? `${weight.label}: ${text}` : text;
 }
 
@@ -39,10 +40,10 @@ function evenlySpaced(angles: readonly number[]): boolean {
 export function describePositions(positions: readonly number[]): string {
   if (positions.length === 0) return '';
   if (positions.length > 8 && evenlySpaced(positions)) {
-    const step = formatDegrees(360 / positions.length);
-    return `${positions.length} allowed positions, every ${step} degrees from ${formatDegrees(positions[0]!)} degrees.`;
+    const step = formatAngle(360 / positions.length);
+    return `${positions.length} allowed positions, every ${step} degrees from ${formatAngle(positions[0]!)} degrees.`;
   }
-  const list = positions.map(formatDegrees).join(', ');
+  const list = positions.map((angle) => formatAngle(angle)).join(', ');
   return positions.length === 1
     ? `One allowed position, at ${list} degrees.`
     : `${positions.length} allowed positions, at ${list} degrees.`;
@@ -51,7 +52,7 @@ export function describePositions(positions: readonly number[]): string {
 /** A blocked sector in words: "holder 20 to 40 degrees". */
 export function describeSector(sector: BlockedSector): string {
   if (sectorSweepDeg(sector.fromDeg, sector.toDeg) >= 360) return `${sector.label} all the way round`;
-  return `${sector.label} ${formatDegrees(sector.fromDeg)} to ${formatDegrees(sector.toDeg)} degrees`;
+  return `${sector.label} ${formatAngle(sector.fromDeg)} to ${formatAngle(sector.toDeg)} degrees`;
 }
 
 /** What the photo behind the drawing is like. */
@@ -93,7 +94,7 @@ function weightSentence(
 ): string {
   const direction = counting === 'withRotation' ? 'with' : 'against';
   const name = weight.label ? `${kind} ${weight.label}` : kind;
-  const at = `${formatMass(weight.mass)} ${weight.unit} at ${formatDegrees(weight.angleDeg)} degrees ${direction} rotation`;
+  const at = `${formatMass(weight.mass)} ${weight.unit} at ${formatAngle(weight.angleDeg)} degrees ${direction} rotation`;
   const blocked = sectorContaining(weight.angleDeg, sectors);
   return blocked
     ? `${name}: ${at}, inside the blocked sector ${describeSector(blocked)}.`
@@ -118,9 +119,9 @@ export function describeOverlay(input: OverlayDescriptionInput): string[] {
   for (const weight of input.existingWeights) {
     lines.push(weightSentence('Existing weight', weight, input.counting, input.blockedSectors));
   }
-  if (input.heavySpotDeg !== null) lines.push(`Heavy spot at ${formatDegrees(input.heavySpotDeg)} degrees.`);
+  if (input.heavySpotDeg !== null) lines.push(`Heavy spot at ${formatAngle(input.heavySpotDeg)} degrees.`);
   if (input.sensorAngleDeg !== null)
-    lines.push(`Sensor in line with ${formatDegrees(input.sensorAngleDeg)} degrees.`);
+    lines.push(`Sensor in line with ${formatAngle(input.sensorAngleDeg)} degrees.`);
   if (input.allowedPositions.length > 0) lines.push(describePositions(input.allowedPositions));
   if (input.blockedSectors.length > 0) {
     lines.push(`Blocked: ${input.blockedSectors.map(describeSector).join('; ')}.`);
@@ -128,7 +129,7 @@ export function describeOverlay(input: OverlayDescriptionInput): string[] {
   if (input.markedPoint) {
     const percent = Math.round(input.markedPoint.radiusFraction * 100);
     lines.push(
-      `Marked point: ${formatDegrees(input.markedPoint.angleDeg)} degrees, at ${percent}% of the radius.`,
+      `Marked point: ${formatAngle(input.markedPoint.angleDeg)} degrees, at ${percent}% of the radius.`,
     );
   }
   const photo: Record<PhotoState, string | null> = {

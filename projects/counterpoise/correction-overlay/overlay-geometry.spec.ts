@@ -1,21 +1,17 @@
 import { describe, expect, it } from 'vitest';
-import { type DialConvention, pointAtAngle, screenAngleOfPoint } from '@counterpoise/ng/core';
 import {
-  type Box,
-  type LabelRequest,
-  boxAtDistance,
+  type DialConvention,
+  _pointAtAngle as pointAtAngle,
+  _screenAngleOfPoint as screenAngleOfPoint,
+} from '@counterpoise/ng/core';
+import {
   defaultCalibration,
-  estimateLabelWidth,
   fittedFrame,
   frameFromCalibration,
   isInSector,
   labelMargin,
   nudgeHandle,
-  overlapArea,
   photoToStage,
-  placeLabels,
-  quietestScreenAngle,
-  rotationArrow,
   sectorContaining,
   sectorMidDeg,
   sectorPath,
@@ -27,10 +23,6 @@ import type { PhotoCalibration } from './overlay-model';
 
 const clockwiseWith: DialConvention = { rotation: 'clockwise', counting: 'withRotation', zeroAtDeg: 0 };
 const clockwiseAgainst: DialConvention = { rotation: 'clockwise', counting: 'againstRotation', zeroAtDeg: 0 };
-
-function inside(box: Box, size: { width: number; height: number }): boolean {
-  return box.x >= 0 && box.y >= 0 && box.x + box.width <= size.width && box.y + box.height <= size.height;
-}
 
 describe('frames', () => {
   it('keeps a label margin of 15 % of the smaller side, between 28 and 84 px', () => {
@@ -160,120 +152,5 @@ describe('sectors', () => {
     );
     expect(sectorPath({ x: 100, y: 100 }, 50, 100, 0, 360, clockwiseWith).match(/M /g)).toHaveLength(2);
     expect(sectorPath({ x: 100, y: 100 }, 50, 100, 30, 30, clockwiseWith)).toBe('');
-  });
-});
-
-describe('rotation arrow', () => {
-  it('points the way the rotor turns', () => {
-    const center = { x: 0, y: 0 };
-    const tipAngle = (rotation: 'clockwise' | 'counterClockwise') => {
-      const [x, y] = rotationArrow(center, 100, 90, 40, rotation).head.split(' ')[0]!.split(',').map(Number);
-      return screenAngleOfPoint(center, { x: x!, y: y! });
-    };
-    expect(tipAngle('clockwise')).toBeGreaterThan(110);
-    expect(tipAngle('counterClockwise')).toBeLessThan(70);
-    expect(rotationArrow(center, 100, 90, 40, 'clockwise').path).toMatch(
-      /^M 93\.97 -34\.2 A 100 100 0 0 1 93\.97 34\.2$/,
-    );
-  });
-
-  it('goes where the rim is emptiest, preferring the given angle on a tie', () => {
-    expect(quietestScreenAngle([0, 90, 180])).toBe(270);
-    expect(quietestScreenAngle([0, 180])).toBe(90);
-    expect(quietestScreenAngle([], 120)).toBe(120);
-    expect(quietestScreenAngle([350, 10, 20], 0)).toBe(185);
-  });
-});
-
-describe('label placement', () => {
-  const size = { width: 360, height: 360 };
-  const frame = fittedFrame(size, 0);
-  const request = (key: string, screenDeg: number, extra: Partial<LabelRequest> = {}): LabelRequest => ({
-    key,
-    screenDeg,
-    anchorRadius: frame.radius,
-    width: estimateLabelWidth('84 g at 100°', 15, 6),
-    height: 26,
-    ...extra,
-  });
-
-  it('puts a lone label just outside the rim in the direction of its element', () => {
-    const [label] = placeLabels([request('a', 0)], frame, size);
-    expect(label!.box.y + label!.box.height).toBeCloseTo(frame.center.y - frame.radius - 6, 6);
-    expect(label!.box.x + label!.box.width / 2).toBeCloseTo(frame.center.x, 6);
-    expect(label!.leader).toBeNull();
-  });
-
-  it('finds a box whose near edge is at the distance asked, whatever the direction', () => {
-    const up = boxAtDistance({ x: 0, y: 0 }, 0, 50, 40, 20, 'outside');
-    expect(up.y + up.height).toBeCloseTo(-50, 9);
-    const right = boxAtDistance({ x: 0, y: 0 }, 90, 50, 40, 20, 'inside');
-    expect(right.x + right.width).toBeCloseTo(50, 9);
-  });
-
-  it('keeps a crowd of labels at one angle apart from each other and on the stage', () => {
-    const crowd = Array.from({ length: 6 }, (_, i) => request(`w${i}`, 100 + i));
-    const placed = placeLabels(crowd, frame, size);
-    expect(placed).toHaveLength(6);
-    for (const [i, a] of placed.entries()) {
-      expect(inside(a.box, size)).toBe(true);
-      for (const b of placed.slice(i + 1)) expect(overlapArea(a.box, b.box)).toBe(0);
-    }
-    expect(placed.some((label) => label.leader !== null)).toBe(true);
-  });
-
-  it('keeps labels off obstacles and inside a narrow stage', () => {
-    const narrow = { width: 240, height: 240 };
-    const small = fittedFrame(narrow, 0);
-    const obstacle = {
-      key: 'other',
-      ...boxAtDistance(small.center, 90, small.radius + 6, 40, 26, 'outside'),
-    };
-    const [label] = placeLabels(
-      [{ key: 'a', screenDeg: 90, anchorRadius: small.radius, width: 110, height: 26 }],
-      small,
-      narrow,
-      [obstacle],
-    );
-    expect(inside(label!.box, narrow)).toBe(true);
-    expect(overlapArea(label!.box, obstacle)).toBe(0);
-  });
-
-  it('weighs covering an obstacle against moving away: a faint one is covered, a solid one avoided', () => {
-    const ideal = boxAtDistance(frame.center, 0, frame.radius + 6, 60, 20, 'outside');
-    const label = request('a', 0, { width: 60, height: 20 });
-    const [overFaint] = placeLabels([label], frame, size, [{ ...ideal, weight: 0.0005 }]);
-    const [clearOfSolid] = placeLabels([label], frame, size, [ideal]);
-    expect(overFaint!.box.x).toBeCloseTo(ideal.x, 6);
-    expect(overFaint!.box.y).toBeCloseTo(ideal.y, 6);
-    expect(overlapArea(clearOfSolid!.box, ideal)).toBe(0);
-  });
-
-  it('leaves out an optional label that has no free spot, never a required one', () => {
-    const tiny = { width: 100, height: 40 };
-    const tight = fittedFrame(tiny, 0);
-    const big = (key: string, optional: boolean): LabelRequest => ({
-      key,
-      screenDeg: 0,
-      anchorRadius: tight.radius,
-      width: 90,
-      height: 30,
-      optional,
-    });
-    expect(placeLabels([big('a', false), big('b', true)], tight, tiny).map((l) => l.key)).toEqual(['a']);
-    expect(placeLabels([big('a', false), big('b', false)], tight, tiny).map((l) => l.key)).toEqual([
-      'a',
-      'b',
-    ]);
-  });
-
-  it('measures overlaps and estimates widths', () => {
-    expect(overlapArea({ x: 0, y: 0, width: 10, height: 10 }, { x: 5, y: 5, width: 10, height: 10 })).toBe(
-      25,
-    );
-    expect(overlapArea({ x: 0, y: 0, width: 10, height: 10 }, { x: 10, y: 0, width: 10, height: 10 })).toBe(
-      0,
-    );
-    expect(estimateLabelWidth('Heavy spot', 12, 6)).toBe(84);
   });
 });

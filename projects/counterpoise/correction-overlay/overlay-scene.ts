@@ -3,24 +3,30 @@
  * that the component's template only copies numbers into SVG and the layout is tested without TestBed.
  */
 import {
-  type RotationCounting,
   type DialConvention,
+  type RotationCounting,
   type RotationDirection,
-  type ScreenPoint,
-  pointAtAngle,
-  pointAtScreenAngle,
-  screenAngleDeg,
+  type _Box as Box,
+  type _EndViewLabelRequest as EndViewLabelRequest,
+  type _EndViewObstacle as EndViewObstacle,
+  type _EndViewRim as EndViewRim,
+  type _ScreenPoint as ScreenPoint,
+  _boxAround as boxAround,
+  _boxInside as boxInside,
+  _degreesText as degreesText,
+  _estimateTextWidthPx as estimateTextWidthPx,
+  _formatAngle as formatAngle,
+  _placeEndViewLabels as placeEndViewLabels,
+  _pointAtAngle as pointAtAngle,
+  _referenceMark as referenceMark,
+  _rotationArrow as rotationArrow,
+  _scaleTicks as scaleTicks,
+  _screenAngleDeg as screenAngleDeg,
 } from '@counterpoise/ng/core';
-import { formatDegrees, weightLabel } from './overlay-description';
+import { weightLabel } from './overlay-description';
 import {
-  type LabelRequest,
-  type Obstacle,
   type OverlayFrame,
   type StageSize,
-  estimateLabelWidth,
-  placeLabels,
-  quietestScreenAngle,
-  rotationArrow,
   sectorContaining,
   sectorMidDeg,
   sectorPath,
@@ -121,7 +127,9 @@ export interface SceneCorrection extends SceneWeight {
 
 /** The whole drawing. */
 export interface OverlayScene {
+  /** The drawing's width: the stage's. */
   readonly width: number;
+  /** The drawing's height: the stage's, or more when labels needed rows below the rotor. */
   readonly height: number;
   /** The rotor's centre. */
   readonly center: ScreenPoint;
@@ -144,22 +152,38 @@ export interface OverlayScene {
   readonly corrections: readonly SceneCorrection[];
   /** Each existing weight's symbol. */
   readonly existing: readonly SceneWeight[];
-  /** The reference mark. */
-  readonly reference: { readonly line: SceneLine; readonly glyph: SceneGlyph };
-  /** The rotation arrow: its arc and head. */
-  readonly rotationArrow: { readonly path: string; readonly head: string };
+  /** The reference mark: a bar across the rim and a pointer beyond it. */
+  readonly reference: { readonly line: SceneLine; readonly pointerPath: string };
+  /** The rotation arrow: its arc and head, in the quietest stretch of rim. */
+  readonly rotationArrow: { readonly arcPath: string; readonly headPath: string };
   /** The marked point. */
   readonly marked: ScreenPoint | null;
   /** Every label, placed. */
   readonly labels: readonly SceneLabel[];
+  /** The keys of optional labels left out for want of room (the text alternative still names them). */
+  readonly droppedLabels: readonly string[];
 }
 
 /** Font sizes of the labels, in CSS pixels: the correction stands out, the rest stay readable in sunlight. */
 export const LABEL_FONT_PX = { correction: 15, other: 12, scale: 11 } as const;
+/** The smallest font a correction's label shrinks to on a narrow stage: still legible at arm's length. */
+const MIN_CORRECTION_FONT_PX = 12;
 const LABEL_PADDING_PX = 6;
 /** Weights sit just inside the rim, where they do the most per gram. */
 const WEIGHT_INSET_PX = 10;
 const WEIGHT_GLYPH = { tangential: 24, radial: 14 } as const;
+/** The rim as a band labels never cross: the ticks, the weights and the allowed positions inside it. */
+const RIM_BAND = { insidePx: 22, outsidePx: 4 } as const;
+/** How a label's priority ranks: the corrections first, the optional names of things last. */
+const PRIORITY: Readonly<Record<SceneLabelKind, number>> = {
+  correction: 100,
+  marked: 90,
+  heavySpot: 80,
+  existing: 70,
+  reference: 60,
+  sensor: 40,
+  blocked: 30,
+};
 
 function line(from: ScreenPoint, to: ScreenPoint): SceneLine {
   return { x1: from.x, y1: from.y, x2: to.x, y2: to.y };
@@ -169,8 +193,9 @@ function glyph(at: ScreenPoint, screenDeg: number): SceneGlyph {
   return { x: at.x, y: at.y, rotateDeg: screenDeg };
 }
 
-function squareAround(at: ScreenPoint, half: number, key: string): Obstacle {
-  return { key, x: at.x - half, y: at.y - half, width: 2 * half, height: 2 * half };
+/** A mark no label may cover: a square of `side` round a glyph's centre. */
+function mark(at: ScreenPoint, side: number): EndViewObstacle {
+  return { kind: 'mark', ...boxAround(at, side) };
 }
 
 /** The inner radius of a blocked sector's band, as a fraction of the radius: holders and welds sit near the rim. */
@@ -188,19 +213,19 @@ export function buildOverlayScene(input: OverlaySceneInput): OverlayScene {
   const at = (r: number, angleDeg: number) => pointAtAngle(center, r, angleDeg, convention);
   const screen = (angleDeg: number) => screenAngleDeg(angleDeg, convention);
   const weightRadius = Math.max(radius - WEIGHT_INSET_PX, radius * 0.5);
+  const obstacles: EndViewObstacle[] = [mark(center, 10)];
 
-  const ticks: (SceneLine & { major: boolean })[] = [];
+  const ticks = scaleTicks(center, radius, convention, { minorLengthPx: 5, majorLengthPx: 9 }).map(
+    ({ kind, angleDeg: _angleDeg, ...tick }) => ({ ...tick, major: kind === 'major' }),
+  );
   const scaleNumbers: { x: number; y: number; text: string }[] = [];
-  const obstacles: Obstacle[] = [];
   const numberStep = radius >= 120 ? 30 : 90;
-  for (let angle = 0; angle < 360; angle += 10) {
-    const major = angle % 30 === 0;
-    ticks.push({ ...line(at(radius, angle), at(radius - (major ? 9 : 5), angle)), major });
-    if (angle % numberStep === 0 && radius >= 40) {
+  if (radius >= 40) {
+    for (let angle = 0; angle < 360; angle += numberStep) {
       const p = at(radius - 26, angle);
-      scaleNumbers.push({ x: p.x, y: p.y, text: String(angle) });
-      // A scale number may be covered: the label of a weight right beside it matters more.
-      obstacles.push({ x: p.x - 11, y: p.y - 7, width: 22, height: 14, weight: 0.5 });
+      scaleNumbers.push({ x: p.x, y: p.y, text: formatAngle(angle, 0) });
+      // A label may cover a scale number when nothing else is free: the weights' labels matter more.
+      obstacles.push({ kind: 'soft', weight: 4, x: p.x - 11, y: p.y - 7, width: 22, height: 14 });
     }
   }
 
@@ -210,6 +235,7 @@ export function buildOverlayScene(input: OverlaySceneInput): OverlayScene {
   }));
 
   const allowed = input.allowedPositions.map((angle) => at(weightRadius, angle));
+  for (const position of allowed) obstacles.push(mark(position, 11));
 
   const sensor =
     input.sensorAngleDeg === null
@@ -218,7 +244,7 @@ export function buildOverlayScene(input: OverlaySceneInput): OverlayScene {
           line: line(center, at(radius + 10, input.sensorAngleDeg)),
           glyph: glyph(at(radius + 17, input.sensorAngleDeg), screen(input.sensorAngleDeg)),
         };
-  if (sensor) obstacles.push(squareAround(sensor.glyph, 8, 'sensor'));
+  if (sensor) obstacles.push(mark(sensor.glyph, 20));
 
   const heavySpot =
     input.heavySpotDeg === null
@@ -227,11 +253,11 @@ export function buildOverlayScene(input: OverlaySceneInput): OverlayScene {
           line: line(center, at(radius * 0.72, input.heavySpotDeg)),
           dot: at(radius * 0.72, input.heavySpotDeg),
         };
-  if (heavySpot) obstacles.push(squareAround(heavySpot.dot, 8, 'heavy-spot'));
+  if (heavySpot) obstacles.push(mark(heavySpot.dot, 16));
 
   const corrections = input.corrections.map((weight, i) => {
     const p = at(weightRadius, weight.angleDeg);
-    obstacles.push(squareAround(p, 10, `correction-${i}`));
+    obstacles.push(mark(p, 28));
     return {
       key: `correction-${i}`,
       line: line(center, at(weightRadius - WEIGHT_GLYPH.radial / 2, weight.angleDeg)),
@@ -242,7 +268,7 @@ export function buildOverlayScene(input: OverlaySceneInput): OverlayScene {
 
   const existing = input.existingWeights.map((weight, i) => {
     const p = at(weightRadius, weight.angleDeg);
-    obstacles.push(squareAround(p, 10, `existing-${i}`));
+    obstacles.push(mark(p, 28));
     return {
       key: `existing-${i}`,
       glyph: glyph(p, screen(weight.angleDeg)),
@@ -250,18 +276,20 @@ export function buildOverlayScene(input: OverlaySceneInput): OverlayScene {
     };
   });
 
-  const reference = {
-    line: line(at(radius - 16, 0), at(radius + 10, 0)),
-    glyph: glyph(at(radius + 10, 0), frame.zeroAtDeg),
-  };
-  obstacles.push(squareAround(reference.glyph, 9, 'reference'));
+  const referenceDrawn = referenceMark(center, radius, convention, {
+    insidePx: 16,
+    outsidePx: 4,
+    pointerPx: 12,
+  });
+  obstacles.push({ kind: 'mark', ...referenceDrawn.box });
+  const reference = { line: referenceDrawn.line, pointerPath: referenceDrawn.pointerPath };
 
   const marked = input.markedPoint
     ? at(radius * input.markedPoint.radiusFraction, input.markedPoint.angleDeg)
     : null;
-  if (marked) obstacles.push(squareAround(marked, 10, 'marked'));
+  if (marked) obstacles.push(mark(marked, 30));
 
-  const occupied = [
+  const taken = [
     frame.zeroAtDeg,
     ...input.corrections.map((w) => screen(w.angleDeg)),
     ...input.existingWeights.map((w) => screen(w.angleDeg)),
@@ -270,16 +298,26 @@ export function buildOverlayScene(input: OverlaySceneInput): OverlayScene {
       .filter((angle): angle is number => angle !== null)
       .map(screen),
   ];
-  const arrowAt = quietestScreenAngle(occupied, frame.zeroAtDeg + 45);
-  const outsideArrow = pointAtScreenAngle(center, radius + 22, arrowAt);
-  const arrowFits =
-    outsideArrow.x > 0 && outsideArrow.y > 0 && outsideArrow.x < size.width && outsideArrow.y < size.height;
-  const arrow = rotationArrow(center, arrowFits ? radius + 12 : radius - 40, arrowAt, 44, input.rotation);
+  const arrowAt = (arrowRadius: number) =>
+    rotationArrow(center, convention, {
+      radius: arrowRadius,
+      takenScreenDeg: taken,
+      preferredScreenDeg: frame.zeroAtDeg + 45,
+      maxHalfSpanDeg: 22,
+      minHalfSpanDeg: 10,
+      clearanceDeg: 8,
+      headLengthPx: 14,
+      headHalfWidthPx: 7,
+    });
+  const outside = arrowAt(radius + 12);
+  const stageBox = { x: 0, y: 0, width: size.width, height: size.height };
+  const arrow = boxInside(outside.box, stageBox) ? outside : arrowAt(radius * 0.55);
+  obstacles.push({ kind: 'mark', ...arrow.box });
 
-  const labels = labelScene(input, convention, weightRadius, obstacles);
+  const { labels, dropped, height } = labelScene(input, convention, weightRadius, obstacles);
   return {
     width: size.width,
-    height: size.height,
+    height,
     center,
     radius,
     convention,
@@ -292,13 +330,14 @@ export function buildOverlayScene(input: OverlaySceneInput): OverlayScene {
     corrections,
     existing,
     reference,
-    rotationArrow: arrow,
+    rotationArrow: { arcPath: arrow.arcPath, headPath: arrow.headPath },
     marked,
     labels,
+    droppedLabels: dropped,
   };
 }
 
-interface LabelDraft extends LabelRequest {
+interface LabelDraft extends EndViewLabelRequest {
   readonly kind: SceneLabelKind;
   readonly text: string;
   readonly fontSize: number;
@@ -309,76 +348,85 @@ function labelScene(
   input: OverlaySceneInput,
   convention: DialConvention,
   weightRadius: number,
-  obstacles: readonly Obstacle[],
-): SceneLabel[] {
+  obstacles: readonly EndViewObstacle[],
+): { labels: SceneLabel[]; dropped: string[]; height: number } {
   const { frame, size } = input;
-  const screen = (angleDeg: number) => screenAngleDeg(angleDeg, convention);
+  const { center } = frame;
+  const roomPx = size.width - 8;
   const draft = (
     key: string,
     kind: SceneLabelKind,
     text: string,
     angleDeg: number,
     anchorRadius: number,
-    extra: { gap?: number; optional?: boolean; conflict?: boolean } = {},
+    extra: { gapPx: number; optional?: boolean; conflict?: boolean },
   ): LabelDraft => {
-    const fontSize = kind === 'correction' ? LABEL_FONT_PX.correction : LABEL_FONT_PX.other;
+    const wanted = kind === 'correction' ? LABEL_FONT_PX.correction : LABEL_FONT_PX.other;
+    const fits = (fontSize: number) => estimateTextWidthPx(text, fontSize, LABEL_PADDING_PX) <= roomPx;
+    const fontSize = kind === 'correction' && !fits(wanted) ? MIN_CORRECTION_FONT_PX : wanted;
+    const screenDeg = screenAngleDeg(angleDeg, convention);
     return {
       key,
       kind,
       text,
       fontSize,
-      screenDeg: screen(angleDeg),
-      anchorRadius,
-      width: estimateLabelWidth(text, fontSize, LABEL_PADDING_PX),
+      anchor: pointAtAngle(center, anchorRadius, angleDeg, convention),
+      preferredDeg: screenDeg,
+      width: estimateTextWidthPx(text, fontSize, LABEL_PADDING_PX),
       height: Math.round(fontSize * 1.7),
-      gap: extra.gap,
+      gapPx: extra.gapPx,
+      priority: PRIORITY[kind],
       optional: extra.optional,
       conflict: extra.conflict ?? false,
     };
   };
   const r = frame.radius;
-  const drafts: LabelDraft[] = [
-    ...input.corrections.map((weight, i) =>
-      draft(`correction-${i}`, 'correction', weightLabel(weight), weight.angleDeg, weightRadius, {
-        gap: WEIGHT_GLYPH.radial / 2 + 8,
-        conflict: sectorContaining(weight.angleDeg, input.blockedSectors) !== undefined,
-      }),
-    ),
-  ];
+  const weightGap = WEIGHT_GLYPH.tangential / 2 + 4;
+  const drafts: LabelDraft[] = input.corrections.map((weight, i) =>
+    draft(`correction-${i}`, 'correction', weightLabel(weight), weight.angleDeg, weightRadius, {
+      gapPx: weightGap,
+      conflict: sectorContaining(weight.angleDeg, input.blockedSectors) !== undefined,
+    }),
+  );
   if (input.markedPoint) {
     const { angleDeg, radiusFraction } = input.markedPoint;
     drafts.push(
-      draft('marked', 'marked', `Marked ${formatDegrees(angleDeg)}°`, angleDeg, r * radiusFraction, {
-        gap: 12,
+      draft('marked', 'marked', `Marked ${degreesText(angleDeg)}`, angleDeg, r * radiusFraction, {
+        gapPx: 16,
       }),
     );
   }
   if (input.heavySpotDeg !== null) {
-    drafts.push(draft('heavy-spot', 'heavySpot', 'Heavy spot', input.heavySpotDeg, r * 0.72, { gap: 9 }));
+    drafts.push(draft('heavy-spot', 'heavySpot', 'Heavy spot', input.heavySpotDeg, r * 0.72, { gapPx: 10 }));
   }
   input.existingWeights.forEach((weight, i) =>
     drafts.push(
       draft(`existing-${i}`, 'existing', weightLabel(weight), weight.angleDeg, weightRadius, {
-        gap: WEIGHT_GLYPH.radial / 2 + 8,
+        gapPx: weightGap,
         conflict: sectorContaining(weight.angleDeg, input.blockedSectors) !== undefined,
       }),
     ),
   );
-  drafts.push(draft('reference', 'reference', 'Ref 0°', 0, r + 10, { gap: 11 }));
+  drafts.push(draft('reference', 'reference', `Ref ${degreesText(0, 0)}`, 0, r + 10, { gapPx: 12 }));
   if (input.sensorAngleDeg !== null) {
     drafts.push(
-      draft('sensor', 'sensor', 'Sensor', input.sensorAngleDeg, r + 17, { gap: 10, optional: true }),
+      draft('sensor', 'sensor', 'Sensor', input.sensorAngleDeg, r + 17, { gapPx: 12, optional: true }),
     );
   }
   input.blockedSectors.forEach((sector, i) =>
     drafts.push(
-      draft(`blocked-${i}`, 'blocked', sector.label, sectorMidDeg(sector), r, { gap: 4, optional: true }),
+      draft(`blocked-${i}`, 'blocked', sector.label, sectorMidDeg(sector), r * 0.84, {
+        gapPx: r * 0.16 + RIM_BAND.outsidePx + 2,
+        optional: true,
+      }),
     ),
   );
 
-  const placed = placeLabels(drafts, frame, size, obstacles);
+  const rim: EndViewRim = { center, radius: r, ...RIM_BAND };
+  const bounds: Box = { x: 0, y: 0, width: size.width, height: size.height };
+  const layout = placeEndViewLabels(drafts, { bounds, rim, obstacles });
   const byKey = new Map(drafts.map((d) => [d.key, d]));
-  return placed.map((label) => {
+  const labels = layout.placed.map((label) => {
     const d = byKey.get(label.key)!;
     return {
       key: label.key,
@@ -393,4 +441,5 @@ function labelScene(
       conflict: d.conflict,
     };
   });
+  return { labels, dropped: [...layout.dropped], height: Math.ceil(layout.height) };
 }

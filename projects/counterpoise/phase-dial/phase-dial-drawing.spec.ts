@@ -1,4 +1,4 @@
-import { type DialConvention, screenAngleOfPoint } from '@counterpoise/ng/core';
+import { type DialConvention, _screenAngleOfPoint as screenAngleOfPoint } from '@counterpoise/ng/core';
 import { describe, expect, it } from 'vitest';
 import {
   DIAL_CENTER,

@@ -5,14 +5,20 @@
  */
 import {
   type DialConvention,
-  type ScreenPoint,
-  angularDistanceDeg,
-  normalizeDeg,
-  pointAtAngle,
-  pointAtScreenAngle,
-  screenAngleDeg,
+  type _ScreenPoint as ScreenPoint,
+  _formatAngle as formatAngle,
+  _labelCentreBeside as labelCentreBeside,
+  _normalizeDeg as normalizeDeg,
+  _pointAtAngle as pointAtAngle,
+  _pointAtScreenAngle as pointAtScreenAngle,
+  _radialLine as radialLine,
+  _referenceMark as endViewReferenceMark,
+  _rotationArrow as endViewRotationArrow,
+  _roundPx as round,
+  _scaleTicks as scaleTicks,
+  _screenAngleDeg as screenAngleDeg,
 } from '@counterpoise/ng/core';
-import { type PhaseDialMarker, type PhaseDialMarkerKind, formatAngle } from './phase-dial-values';
+import type { PhaseDialMarker, PhaseDialMarkerKind } from './phase-dial-values';
 
 /** The side of the square view box. */
 export const DIAL_VIEW_SIZE = 256;
@@ -99,41 +105,18 @@ const MARKER_RADIUS: Readonly<Record<PhaseDialMarkerKind, number>> = {
   heavySpot: 54,
 };
 
-/** Two decimals are plenty for a drawing and keep the DOM short. */
-function round(n: number): number {
-  return Math.round(n * 100) / 100;
-}
-
-/** A line between two radii along a rotor angle. */
-function radialLine(angleDeg: number, inner: number, outer: number, convention: DialConvention): DialLine {
-  const from = pointAtAngle(DIAL_CENTER, inner, angleDeg, convention);
-  const to = pointAtAngle(DIAL_CENTER, outer, angleDeg, convention);
-  return { x1: round(from.x), y1: round(from.y), x2: round(to.x), y2: round(to.y) };
-}
-
 /**
  * The ticks round the rim: with positions, one notch per position; otherwise a graduation every 10
  * degrees, longer every 30. None at 0, where the reference mark is.
  */
 export function dialTicks(positions: readonly number[], convention: DialConvention): DialTick[] {
-  if (positions.length > 0) {
-    return positions.map((angleDeg) => ({
-      kind: 'position',
-      angleDeg,
-      ...radialLine(angleDeg, DIAL_RIM_RADIUS - 13, DIAL_RIM_RADIUS, convention),
-    }));
-  }
-  const ticks: DialTick[] = [];
-  for (let angleDeg = 10; angleDeg < 360; angleDeg += 10) {
-    const major = angleDeg % 30 === 0;
-    const length = major ? 14 : 8;
-    ticks.push({
-      kind: major ? 'major' : 'minor',
-      angleDeg,
-      ...radialLine(angleDeg, DIAL_RIM_RADIUS - length, DIAL_RIM_RADIUS, convention),
-    });
-  }
-  return ticks;
+  return scaleTicks(DIAL_CENTER, DIAL_RIM_RADIUS, convention, {
+    positions,
+    minorLengthPx: 8,
+    majorLengthPx: 14,
+    positionLengthPx: 13,
+    skipZero: true,
+  });
 }
 
 /**
@@ -148,25 +131,26 @@ export function labelledAngles(positions: readonly number[]): readonly number[] 
 /** The labels round the rim, at {@link labelledAngles}. */
 export function dialLabels(positions: readonly number[], convention: DialConvention): DialLabel[] {
   return labelledAngles(positions).map((angleDeg) => {
-    const text = formatAngle(angleDeg);
-    // A label beside the dial is wide and one above it is low: its centre moves out by what faces the rim.
-    const radians = (screenAngleDeg(angleDeg, convention) * Math.PI) / 180;
-    const extent =
-      Math.abs(Math.sin(radians)) * text.length * LABEL_HALF_DIGIT_WIDTH +
-      Math.abs(Math.cos(radians)) * LABEL_HALF_HEIGHT;
-    const point = pointAtAngle(DIAL_CENTER, LABEL_INNER_RADIUS + extent, angleDeg, convention);
+    const text = formatAngle(angleDeg, 1);
+    const width = text.length * 2 * LABEL_HALF_DIGIT_WIDTH;
+    const screenDeg = screenAngleDeg(angleDeg, convention);
+    const point = labelCentreBeside(DIAL_CENTER, LABEL_INNER_RADIUS, screenDeg, width, 2 * LABEL_HALF_HEIGHT);
     return { x: round(point.x), y: round(point.y), text };
   });
 }
 
 /** The reference mark: a bar across the rim at 0, like the strip of reflective tape it stands for. */
 export function referenceMark(convention: DialConvention): DialLine {
-  return radialLine(0, DIAL_RIM_RADIUS - 10, DIAL_RIM_RADIUS + 10, convention);
+  return endViewReferenceMark(DIAL_CENTER, DIAL_RIM_RADIUS, convention, {
+    insidePx: 10,
+    outsidePx: 10,
+    pointerPx: 0,
+  }).line;
 }
 
 /** The pointer of the value: from clear of the read-out to the rim, where the thumb or needle tip sits. */
 export function pointerLine(angleDeg: number, convention: DialConvention): DialLine {
-  return radialLine(angleDeg, POINTER_INNER_RADIUS, DIAL_RIM_RADIUS, convention);
+  return radialLine(DIAL_CENTER, angleDeg, POINTER_INNER_RADIUS, DIAL_RIM_RADIUS, convention);
 }
 
 /** The centre of the thumb for an angle. */
@@ -202,31 +186,6 @@ export interface RotationArrow {
   readonly head: string;
 }
 
-/** Half the arc of the rotation arrow, in degrees, when there is room for all of it. */
-const ROTATION_ARROW_HALF_SPAN_DEG = 20;
-/** The clearance the arrow keeps from a label or the reference mark, in degrees of arc. */
-const ROTATION_ARROW_CLEARANCE_DEG = 14;
-
-/** Where the arrow goes: the middle of the widest gap between labels, nearest 135 degrees from the mark. */
-function rotationArrowGap(convention: DialConvention, labelledDeg: readonly number[]) {
-  const preferred = normalizeDeg(convention.zeroAtDeg + 135);
-  const obstacles = [...new Set([0, ...labelledDeg].map((angle) => screenAngleDeg(angle, convention)))].sort(
-    (a, b) => a - b,
-  );
-  let best = { width: -1, middle: preferred };
-  obstacles.forEach((from, index) => {
-    const to = index + 1 < obstacles.length ? obstacles[index + 1]! : obstacles[0]! + 360;
-    const width = to - from;
-    const middle = normalizeDeg(from + width / 2);
-    const wider = width > best.width + 1;
-    const asWideButCloser =
-      Math.abs(width - best.width) <= 1 &&
-      angularDistanceDeg(middle, preferred) < angularDistanceDeg(best.middle, preferred);
-    if (wider || asWideButCloser) best = { width, middle };
-  });
-  return best;
-}
-
 /**
  * The rotation arrow: an arc outside the rim with its head in the direction of rotation, in the widest gap
  * between the labels and the reference mark (by default 135 degrees clockwise on screen from the mark).
@@ -235,23 +194,15 @@ export function rotationArrow(
   convention: DialConvention,
   labelledDeg: readonly number[] = [0, 90, 180, 270],
 ): RotationArrow {
-  const radius = DIAL_RIM_RADIUS + 14;
-  const { middle, width } = rotationArrowGap(convention, labelledDeg);
-  const halfSpan = Math.max(
-    8,
-    Math.min(ROTATION_ARROW_HALF_SPAN_DEG, width / 2 - ROTATION_ARROW_CLEARANCE_DEG),
-  );
-  const sense = convention.rotation === 'clockwise' ? 1 : -1;
-  const startDeg = middle - sense * halfSpan;
-  const endDeg = middle + sense * halfSpan;
-  const start = pointAtScreenAngle(DIAL_CENTER, radius, startDeg);
-  const end = pointAtScreenAngle(DIAL_CENTER, radius, endDeg);
-  // SVG's sweep flag 1 draws clockwise on screen.
-  const sweep = sense === 1 ? 1 : 0;
-  const arc = `M ${round(start.x)} ${round(start.y)} A ${radius} ${radius} 0 0 ${sweep} ${round(end.x)} ${round(end.y)}`;
-  const tip = pointAtScreenAngle(DIAL_CENTER, radius, endDeg + sense * 6);
-  const outer = pointAtScreenAngle(DIAL_CENTER, radius + 6, endDeg - sense * 2);
-  const inner = pointAtScreenAngle(DIAL_CENTER, radius - 6, endDeg - sense * 2);
-  const head = `M ${round(tip.x)} ${round(tip.y)} L ${round(outer.x)} ${round(outer.y)} L ${round(inner.x)} ${round(inner.y)} Z`;
-  return { arc, head };
+  const arrow = endViewRotationArrow(DIAL_CENTER, convention, {
+    radius: DIAL_RIM_RADIUS + 14,
+    takenScreenDeg: [0, ...labelledDeg].map((angle) => screenAngleDeg(angle, convention)),
+    preferredScreenDeg: convention.zeroAtDeg + 135,
+    maxHalfSpanDeg: 20,
+    minHalfSpanDeg: 8,
+    clearanceDeg: 14,
+    headLengthPx: 16,
+    headHalfWidthPx: 6,
+  });
+  return { arc: arrow.arcPath, head: arrow.headPath };
 }

@@ -1,18 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { type DialConvention, pointAtAngle } from '@counterpoise/ng/core';
+import { type DialConvention, _pointAtAngle as pointAtAngle } from '@counterpoise/ng/core';
 import {
   addVectors,
   clampRingCount,
   dashOf,
   fixedRingScale,
   formatAmplitude,
-  formatAngle,
   isDrawable,
-  labelBoxAt,
   markerPath,
   niceRingScale,
-  overlapArea,
-  placeLabels,
   POLAR_SERIES_KINDS,
   type PolarSeries,
   quietestDirectionDeg,
@@ -186,52 +182,7 @@ describe('markers and dashes', () => {
   });
 });
 
-describe('label placement', () => {
-  const bounds = { x: 0, y: 0, width: 200, height: 200 };
-
-  it('puts a label on the side it is asked for, anchored to match', () => {
-    const right = labelBoxAt({ x: 100, y: 100 }, 90, 'Run 2', 12, 6);
-    expect(right.textAnchor).toBe('start');
-    expect(right.box.x).toBeCloseTo(106, 9);
-    const left = labelBoxAt({ x: 100, y: 100 }, 270, 'Run 2', 12, 6);
-    expect(left.textAnchor).toBe('end');
-    expect(left.box.x + left.box.width).toBeCloseTo(94, 9);
-    const above = labelBoxAt({ x: 100, y: 100 }, 0, 'Run 2', 12, 6);
-    expect(above.textAnchor).toBe('middle');
-    expect(above.box.y + above.box.height).toBeCloseTo(94, 9);
-  });
-
-  it('keeps labels of points close together from covering each other', () => {
-    const placed = placeLabels(
-      [
-        { anchor: { x: 100, y: 60 }, text: 'Run 1', preferredDeg: 0 },
-        { anchor: { x: 104, y: 62 }, text: 'Run 2', preferredDeg: 0 },
-        { anchor: { x: 98, y: 64 }, text: 'Run 3', preferredDeg: 0 },
-      ],
-      { bounds, fontSize: 12, gap: 6 },
-    );
-    for (let i = 0; i < placed.length; i++) {
-      for (let j = i + 1; j < placed.length; j++) expect(overlapArea(placed[i]!.box, placed[j]!.box)).toBe(0);
-    }
-  });
-
-  it('turns a label away from the edge and from boxes already taken', () => {
-    const [atEdge] = placeLabels([{ anchor: { x: 195, y: 100 }, text: 'Trial', preferredDeg: 90 }], {
-      bounds,
-      fontSize: 12,
-      gap: 6,
-    });
-    expect(atEdge!.box.x + atEdge!.box.width).toBeLessThanOrEqual(200);
-    const taken = { x: 100, y: 80, width: 60, height: 40 };
-    const [aside] = placeLabels([{ anchor: { x: 100, y: 100 }, text: 'Run 1', preferredDeg: 90 }], {
-      bounds,
-      fontSize: 12,
-      gap: 6,
-      avoid: [taken],
-    });
-    expect(overlapArea(aside!.box, taken)).toBe(0);
-  });
-
+describe('ring labels', () => {
   it('tells whether a vector crosses a label box', () => {
     const box = { x: 10, y: 10, width: 20, height: 10 };
     expect(segmentHitsBox({ x: 0, y: 0 }, { x: 40, y: 40 }, box)).toBe(true);
@@ -255,12 +206,5 @@ describe('formatting', () => {
     expect(formatAmplitude(12.34)).toBe('12.3');
     expect(formatAmplitude(148.6)).toBe('149');
     expect(formatAmplitude(0)).toBe('0');
-  });
-
-  it('gives angles to a tenth, inside one turn', () => {
-    expect(formatAngle(141)).toBe('141');
-    expect(formatAngle(141.26)).toBe('141.3');
-    expect(formatAngle(359.96)).toBe('0');
-    expect(formatAngle(-30)).toBe('330');
   });
 });

@@ -1,15 +1,16 @@
 /**
- * The drawing of the polar plot as plain functions: ring scales, vector ends, marker shapes, label
- * placement. Framework-free, so it is tested without TestBed. Screen angles and the placement of rotor
+ * The drawing of the polar plot as plain functions: ring scales, vector ends, marker shapes, where ring
+ * labels go. Framework-free, so it is tested without TestBed. Screen angles and the placement of rotor
  * angles come from the shared end-view geometry of `@counterpoise/ng/core`.
  */
 import {
-  angularDistanceDeg,
   type DialConvention,
-  normalizeDeg,
-  pointAtAngle,
-  pointAtScreenAngle,
-  type ScreenPoint,
+  type _Box as Box,
+  type _ScreenPoint as ScreenPoint,
+  _angularDistanceDeg as angularDistanceDeg,
+  _normalizeDeg as normalizeDeg,
+  _pointAtAngle as pointAtAngle,
+  _pointAtScreenAngle as pointAtScreenAngle,
 } from '@counterpoise/ng/core';
 
 /** What a series shows; each kind has its own marker shape and line dash. */
@@ -272,131 +273,6 @@ export function dashOf(kind: PolarSeriesKind): string {
   }
 }
 
-/** A box on screen. */
-export interface Box {
-  /** Left edge. */
-  readonly x: number;
-  /** Top edge. */
-  readonly y: number;
-  /** Width. */
-  readonly width: number;
-  /** Height. */
-  readonly height: number;
-}
-
-/** A label to place beside a point. */
-export interface LabelRequest {
-  /** The point the label belongs to. */
-  readonly anchor: ScreenPoint;
-  /** The text of the label. */
-  readonly text: string;
-  /** The direction to try first, clockwise from 12 o'clock (usually away from the centre). */
-  readonly preferredDeg: number;
-}
-
-/** Where a label's text goes: `x`, `y` for SVG `text` with `dominant-baseline: central`. */
-export interface LabelPlacement {
-  /** The x of the text anchor. */
-  readonly x: number;
-  /** The y of the middle of the text. */
-  readonly y: number;
-  /** SVG `text-anchor`. */
-  readonly textAnchor: 'start' | 'middle' | 'end';
-  /** The box the text is expected to fill. */
-  readonly box: Box;
-}
-
-/** Options of {@link placeLabels}. */
-export interface LabelOptions {
-  /** The area labels must stay inside. */
-  readonly bounds: Box;
-  /** Font size, in screen units. */
-  readonly fontSize: number;
-  /** Distance from the anchor to the near edge of the text. */
-  readonly gap: number;
-  /** Boxes already taken (ring labels, markers). */
-  readonly avoid?: readonly Box[];
-}
-
-/** The width a text is expected to take, from its length: about 0.6 em per character. */
-export function estimateTextWidth(text: string, fontSize: number): number {
-  return text.length * fontSize * 0.6;
-}
-
-/** The box a text takes when anchored beside `anchor` in a screen direction. */
-export function labelBoxAt(
-  anchor: ScreenPoint,
-  directionDeg: number,
-  text: string,
-  fontSize: number,
-  gap: number,
-): LabelPlacement {
-  const width = estimateTextWidth(text, fontSize);
-  const height = fontSize * 1.2;
-  const toward = pointAtScreenAngle(anchor, gap, directionDeg);
-  const radians = (directionDeg * Math.PI) / 180;
-  const horizontal = Math.sin(radians);
-  const vertical = -Math.cos(radians);
-  const textAnchor = horizontal > 0.38 ? 'start' : horizontal < -0.38 ? 'end' : 'middle';
-  const left =
-    textAnchor === 'start' ? toward.x : textAnchor === 'end' ? toward.x - width : toward.x - width / 2;
-  const middleY =
-    vertical < -0.38 ? toward.y - height / 2 : vertical > 0.38 ? toward.y + height / 2 : toward.y;
-  return {
-    x: round(toward.x),
-    y: round(middleY),
-    textAnchor,
-    box: { x: left, y: middleY - height / 2, width, height },
-  };
-}
-
-/** The area two boxes share (0 when apart). */
-export function overlapArea(a: Box, b: Box): number {
-  const w = Math.min(a.x + a.width, b.x + b.width) - Math.max(a.x, b.x);
-  const h = Math.min(a.y + a.height, b.y + b.height) - Math.max(a.y, b.y);
-  return w > 0 && h > 0 ? w * h : 0;
-}
-
-function outsideArea(box: Box, bounds: Box): number {
-  const inside = overlapArea(box, bounds);
-  return box.width * box.height - inside;
-}
-
-const LABEL_TURNS_DEG = [0, 45, -45, 90, -90, 135, -135, 180] as const;
-
-/**
- * Places labels one after another beside their anchors: each tries its preferred direction, then turns
- * by 45 degrees each way, and takes the first spot that stays inside the bounds and clear of the labels
- * already placed and of the `avoid` boxes; when none is clear, the spot that overlaps least.
- */
-export function placeLabels(requests: readonly LabelRequest[], options: LabelOptions): LabelPlacement[] {
-  const taken: Box[] = [...(options.avoid ?? [])];
-  return requests.map((request) => {
-    let best: LabelPlacement | null = null;
-    let bestCost = Infinity;
-    for (const turn of LABEL_TURNS_DEG) {
-      const candidate = labelBoxAt(
-        request.anchor,
-        request.preferredDeg + turn,
-        request.text,
-        options.fontSize,
-        options.gap,
-      );
-      const cost =
-        taken.reduce((sum, box) => sum + overlapArea(candidate.box, box), 0) +
-        outsideArea(candidate.box, options.bounds) * 2;
-      if (cost < bestCost) {
-        best = candidate;
-        bestCost = cost;
-      }
-      if (cost === 0) break;
-    }
-    const placed = best as LabelPlacement;
-    taken.push(placed.box);
-    return placed;
-  });
-}
-
 /**
  * Whether the straight segment from `a` to `b` crosses or touches a box (Liang-Barsky clipping: the segment
  * is clipped against each edge in turn; what is left is inside).
@@ -457,10 +333,4 @@ export function formatAmplitude(value: number): string {
   if (value === 0) return '0';
   if (Math.abs(value) >= 100) return String(Math.round(value));
   return String(Number(value.toPrecision(3)));
-}
-
-/** An angle in degrees, to a tenth, in [0, 360). */
-export function formatAngle(angleDeg: number): string {
-  if (!Number.isFinite(angleDeg)) return String(angleDeg);
-  return String(normalizeDeg(Math.round(angleDeg * 10) / 10));
 }

@@ -1,7 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { type DialConvention } from '@counterpoise/ng/core';
-import { estimateTextWidth, overlapArea, type PolarSeries, segmentHitsBox } from './polar-plot-geometry';
-import { layoutPolarPlot, PLOT_FONT_SIZE, rotationGlyph } from './polar-plot-layout';
+import {
+  type DialConvention,
+  _boxesOverlap as boxesOverlap,
+  _estimateTextWidthPx as estimateTextWidth,
+  _screenAngleOfPoint as screenAngleOfPoint,
+} from '@counterpoise/ng/core';
+import { type PolarSeries, segmentHitsBox } from './polar-plot-geometry';
+import { layoutPolarPlot, PLOT_FONT_SIZE } from './polar-plot-layout';
 
 const convention: DialConvention = { rotation: 'clockwise', counting: 'againstRotation', zeroAtDeg: 0 };
 
@@ -133,8 +138,9 @@ describe('layoutPolarPlot', () => {
     const right = layout([runs], 400, { zeroAtDeg: 90 });
     const zero = right.angleLabels.find((label) => label.text === '0°')!;
     expect(zero.reference).toBe(true);
-    expect(zero.x).toBeGreaterThan(right.center.x + right.radius);
-    expect(zero.textAnchor).toBe('start');
+    const zeroWidth = estimateTextWidth(zero.text, PLOT_FONT_SIZE);
+    expect(zero.x - zeroWidth / 2).toBeGreaterThan(right.center.x + right.radius);
+    expect(zero.textAnchor).toBe('middle');
     // Against a clockwise rotor, 90 degrees is a quarter turn counter-clockwise from the mark: at the top.
     const ninety = right.angleLabels.find((label) => label.text === '90°')!;
     expect(ninety.y).toBeLessThan(right.center.y - right.radius);
@@ -145,26 +151,23 @@ describe('layoutPolarPlot', () => {
   });
 
   it('places point labels clear of each other and inside the plot', () => {
-    const { points, size } = layout([runs, otherSensor, weights], 280);
+    const { points, size, height } = layout([runs, otherSensor, weights], 280);
     const boxes = points
       .filter((point) => point.label)
       .map((point) => {
         const width = estimateTextWidth(point.label!.text, PLOT_FONT_SIZE);
-        const x =
-          point.label!.textAnchor === 'start'
-            ? point.label!.x
-            : point.label!.textAnchor === 'end'
-              ? point.label!.x - width
-              : point.label!.x - width / 2;
+        const x = point.label!.x - width / 2;
         return { x, y: point.label!.y - PLOT_FONT_SIZE * 0.6, width, height: PLOT_FONT_SIZE * 1.2 };
       });
+    expect(points.every((point) => point.label?.textAnchor !== 'start')).toBe(true);
     expect(boxes).toHaveLength(5);
     for (const box of boxes) {
       expect(box.x).toBeGreaterThanOrEqual(0);
       expect(box.x + box.width).toBeLessThanOrEqual(size);
+      expect(box.y + box.height).toBeLessThanOrEqual(height);
     }
     for (let i = 0; i < boxes.length; i++) {
-      for (let j = i + 1; j < boxes.length; j++) expect(overlapArea(boxes[i]!, boxes[j]!)).toBe(0);
+      for (let j = i + 1; j < boxes.length; j++) expect(boxesOverlap(boxes[i]!, boxes[j]!)).toBe(false);
     }
   });
 
@@ -185,12 +188,26 @@ describe('layoutPolarPlot', () => {
   });
 });
 
-describe('rotationGlyph', () => {
-  it('sweeps the arc the way the rotor turns', () => {
-    const clockwise = rotationGlyph({ x: 20, y: 20 }, 10, 'clockwise');
-    const counter = rotationGlyph({ x: 20, y: 20 }, 10, 'counterClockwise');
-    expect(clockwise.arcPath).toBe('M20 10A10 10 0 1 1 10 20');
-    expect(counter.arcPath).toBe('M20 10A10 10 0 1 0 30 20');
-    expect(clockwise.headPath).not.toBe(counter.headPath);
+describe('rotation arrow', () => {
+  it('sweeps just outside the outer ring the way the rotor turns', () => {
+    const clockwise = layout([runs], 400);
+    const counter = layout([runs], 400, { rotation: 'counterClockwise' });
+    expect(clockwise.rotationGlyph.arcPath).toMatch(/ 0 0 1 /);
+    expect(counter.rotationGlyph.arcPath).toMatch(/ 0 0 0 /);
+    const [, x, y] = /^M ([\d.-]+) ([\d.-]+)/.exec(clockwise.rotationGlyph.arcPath)!.map(Number);
+    const reach = Math.hypot(x! - clockwise.center.x, y! - clockwise.center.y);
+    expect(reach).toBeGreaterThan(clockwise.radius);
+    expect(reach).toBeLessThan(clockwise.radius + 11);
+  });
+
+  it('keeps clear of the directions the data takes', () => {
+    const { rotationGlyph, center, points } = layout([runs], 400);
+    const [, x, y] = /^M ([\d.-]+) ([\d.-]+)/.exec(rotationGlyph.arcPath)!.map(Number);
+    const arcDeg = screenAngleOfPoint(center, { x: x!, y: y! });
+    for (const point of points) {
+      const pointDeg = screenAngleOfPoint(center, point.head);
+      const apart = Math.min(Math.abs(arcDeg - pointDeg), 360 - Math.abs(arcDeg - pointDeg));
+      expect(apart).toBeGreaterThan(5);
+    }
   });
 });

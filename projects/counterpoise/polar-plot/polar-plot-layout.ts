@@ -4,23 +4,27 @@
  */
 import {
   type DialConvention,
-  normalizeDeg,
-  pointAtAngle,
-  pointAtScreenAngle,
-  type RotationDirection,
-  screenAngleDeg,
-  type ScreenPoint,
+  type _Box as Box,
+  type _EndViewObstacle as EndViewObstacle,
+  type _ScreenPoint as ScreenPoint,
+  _boxAround as boxAround,
+  _degreesText as degreesText,
+  _estimateTextWidthPx as estimateTextWidthPx,
+  _labelCentreBeside as labelCentreBeside,
+  _overlapArea as overlapArea,
+  _placeEndViewLabels as placeEndViewLabels,
+  _pointAtAngle as pointAtAngle,
+  _pointAtScreenAngle as pointAtScreenAngle,
+  _referenceMark as referenceMark,
+  _rotationArrow as rotationArrow,
+  _screenAngleDeg as screenAngleDeg,
+  _screenAngleOfPoint as screenAngleOfPoint,
 } from '@counterpoise/ng/core';
 import {
-  type Box,
   dashOf,
-  estimateTextWidth,
   fixedRingScale,
   formatAmplitude,
-  labelBoxAt,
   markerPath,
-  overlapArea,
-  placeLabels,
   type PolarSeries,
   type PolarSeriesKind,
   quietestDirectionDeg,
@@ -31,7 +35,7 @@ import {
   unitScales,
   vectorPath,
 } from './polar-plot-geometry';
-import { describePoint, KIND_NAMES, plottedPoints } from './polar-plot-model';
+import { describePoint, KIND_NAMES, plottedPoints, pointsWithDrawnLabels } from './polar-plot-model';
 
 /** What the layout needs to know. */
 export interface PolarPlotLayoutInput {
@@ -43,7 +47,7 @@ export interface PolarPlotLayoutInput {
   readonly maxAmplitude: number | null;
   /** How many rings to draw. */
   readonly ringCount: number;
-  /** The width and height of the drawing, in screen units (CSS pixels). */
+  /** The width of the drawing, and its height before labels ask for more, in screen units (CSS pixels). */
   readonly size: number;
 }
 
@@ -103,12 +107,21 @@ export interface LaidOutPoint {
   readonly offScale: boolean;
   /** The point in words. */
   readonly detail: string;
-  /** The point's own short label beside the head, when it has one. */
+  /** The point's own short label beside the head, when it is drawn (see `pointsWithDrawnLabels`). */
   readonly label: {
     readonly text: string;
+    /** The middle of the text. */
     readonly x: number;
+    /** The middle of the text. */
     readonly y: number;
     readonly textAnchor: string;
+    /** A line back to the marker when the label had to move away from it. */
+    readonly leader: {
+      readonly x1: number;
+      readonly y1: number;
+      readonly x2: number;
+      readonly y2: number;
+    } | null;
   } | null;
 }
 
@@ -132,8 +145,10 @@ export interface LaidOutLegendEntry {
 
 /** The whole drawing. */
 export interface PolarPlotLayout {
-  /** Width and height, in screen units. */
+  /** Width, in screen units. */
   readonly size: number;
+  /** Height, in screen units: the width, or more when point labels needed rows below the plot. */
+  readonly height: number;
   /** The centre of the rings. */
   readonly center: ScreenPoint;
   /** The radius of the outer ring. */
@@ -148,7 +163,7 @@ export interface PolarPlotLayout {
   readonly angleLabels: readonly LaidOutAngleLabel[];
   /** A triangle just outside the outer ring at the reference mark. */
   readonly referenceMarkPath: string;
-  /** A curved arrow in the top right corner, turning the way the rotor turns. */
+  /** A curved arrow just outside the outer ring, in its quietest stretch, turning the way the rotor turns. */
   readonly rotationGlyph: { readonly arcPath: string; readonly headPath: string };
   /** One scale per unit; the first labels the rings. */
   readonly scales: readonly UnitScale[];
@@ -164,13 +179,17 @@ const MARKER_SIZE = 11;
 /** The radius of the focus ring round a marker; labels keep outside it. */
 export const FOCUS_RING_RADIUS = 13;
 const ANGLE_LABEL_GAP = 11;
+/** The rotation arrow runs between the outer ring and the angle labels. */
+const ROTATION_ARROW_OFFSET = 6;
+/** Point labels keep off the outer ring: wholly inside it or wholly beyond it. */
+const RING_BAND_PX = 2;
 
 /** Works out the whole drawing. */
 export function layoutPolarPlot(input: PolarPlotLayoutInput): PolarPlotLayout {
   const size = input.size;
   const fontSize = PLOT_FONT_SIZE;
   const center = { x: size / 2, y: size / 2 };
-  const sideRoom = ANGLE_LABEL_GAP + estimateTextWidth('270°', fontSize) + 4;
+  const sideRoom = ANGLE_LABEL_GAP + estimateTextWidthPx(degreesText(270, 0), fontSize) + 4;
   const radius = Math.max(40, size / 2 - sideRoom);
   const frame = { center, radius, convention: input.convention };
   const scales = unitScales(input.series, input.ringCount, input.maxAmplitude);
@@ -192,12 +211,12 @@ export function layoutPolarPlot(input: PolarPlotLayoutInput): PolarPlotLayout {
   });
 
   const angleLabels = layoutAngleLabels(frame, fontSize);
-  const markerBoxes = markerAt.map((at) => squareAround(at, FOCUS_RING_RADIUS * 2));
+  const markerBoxes = markerAt.map((at) => boxAround(at, FOCUS_RING_RADIUS * 2));
   const segments = vectors.map((v, i) => [v.tail, markerAt[i]!] as const);
   const takenDirections = vectors
     .flatMap((v) => [v.head, v.tail])
     .filter((end) => !isAtCentre(center, end))
-    .map((end) => directionFrom(center, end));
+    .map((end) => screenAngleOfPoint(center, end));
   const rings = ringsInQuietestPlace(primary, input.ringCount, frame, fontSize, takenDirections, (boxes) =>
     boxes.reduce(
       (cost, box) =>
@@ -208,38 +227,61 @@ export function layoutPolarPlot(input: PolarPlotLayoutInput): PolarPlotLayout {
     ),
   );
 
+  const reference = referenceMark(center, radius, input.convention, {
+    insidePx: 0,
+    outsidePx: 1,
+    pointerPx: 8,
+  });
+  const arrow = rotationArrow(center, input.convention, {
+    radius: radius + ROTATION_ARROW_OFFSET,
+    takenScreenDeg: [...angleLabels.map((label) => label.screenDeg), ...takenDirections],
+    preferredScreenDeg: reference.screenDeg + 45,
+    maxHalfSpanDeg: 14,
+    minHalfSpanDeg: 6,
+    clearanceDeg: 6,
+    headLengthPx: 9,
+    headHalfWidthPx: 4.5,
+  });
+
   const ringLabelBoxes = rings
     .filter((ring) => ring.label !== null)
     .map((ring) => centredBox({ x: ring.x, y: ring.y }, ring.label as string, fontSize));
-  const glyphCenter = pointAtScreenAngle(center, radius * 1.2, 45);
+  const drawnLabels = pointsWithDrawnLabels(plotted);
   const labelled = plotted
     .map((p, i) => ({ p, vector: vectors[i]!, at: markerAt[i]! }))
-    .filter(({ p }) => Boolean(p.point.label));
-  const placements = placeLabels(
+    .filter(({ p }) => drawnLabels.has(p.index));
+  const obstacles: EndViewObstacle[] = [
+    ...ringLabelBoxes,
+    ...markerBoxes,
+    ...angleLabels.map((label) => label.box),
+    reference.box,
+    arrow.box,
+  ].map((box) => ({ kind: 'mark', ...box }));
+  const labelHeight = Math.ceil(fontSize * 1.3);
+  const placement = placeEndViewLabels(
     labelled.map(({ p, vector, at }) => ({
+      key: String(p.index),
       anchor: at,
-      text: p.point.label as string,
-      preferredDeg: isAtCentre(center, at) ? vector.directionDeg : directionFrom(center, at),
+      preferredDeg: isAtCentre(center, at) ? vector.directionDeg : screenAngleOfPoint(center, at),
+      width: estimateTextWidthPx(p.point.label as string, fontSize, 2),
+      height: labelHeight,
+      gapPx: FOCUS_RING_RADIUS - 2,
+      // Points read first keep the nearest room.
+      priority: -p.index,
+      optional: true,
     })),
     {
-      bounds: { x: 2, y: 2, width: size - 4, height: size - 4 },
-      fontSize,
-      gap: FOCUS_RING_RADIUS,
-      avoid: [
-        ...ringLabelBoxes,
-        ...markerBoxes,
-        ...angleLabels.map((label) => label.box),
-        squareAround(pointAtScreenAngle(center, radius + 5, screenAngleDeg(0, frame.convention)), 12),
-        squareAround(glyphCenter, 24),
-      ],
+      bounds: { x: 0, y: 0, width: size, height: size },
+      rim: { center, radius, insidePx: RING_BAND_PX, outsidePx: RING_BAND_PX },
+      obstacles,
     },
   );
-  const labelByIndex = new Map(labelled.map(({ p }, i) => [p.index, placements[i]!]));
+  const labelByIndex = new Map(placement.placed.map((label) => [Number(label.key), label]));
 
   const points: LaidOutPoint[] = plotted.map((p, i) => {
     const vector = vectors[i]!;
     const at = markerAt[i]!;
-    const placement = labelByIndex.get(p.index);
+    const placed = labelByIndex.get(p.index);
     return {
       index: p.index,
       seriesIndex: p.seriesIndex,
@@ -251,22 +293,36 @@ export function layoutPolarPlot(input: PolarPlotLayoutInput): PolarPlotLayout {
       head: at,
       offScale: vector.offScale,
       detail: describePoint(p.series, p.point, vector.offScale),
-      label: placement
-        ? { text: p.point.label as string, x: placement.x, y: placement.y, textAnchor: placement.textAnchor }
+      label: placed
+        ? {
+            text: p.point.label as string,
+            x: round(placed.box.x + placed.box.width / 2),
+            y: round(placed.box.y + placed.box.height / 2),
+            textAnchor: 'middle',
+            leader: placed.leader
+              ? {
+                  x1: round(placed.leader.from.x),
+                  y1: round(placed.leader.from.y),
+                  x2: round(placed.leader.to.x),
+                  y2: round(placed.leader.to.y),
+                }
+              : null,
+          }
         : null,
     };
   });
 
   return {
     size,
+    height: Math.max(size, Math.ceil(placement.height)),
     center,
     radius,
     fontSize,
     rings,
     spokes: layoutSpokes(frame),
-    angleLabels: angleLabels.map(({ box: _box, ...label }) => label),
-    referenceMarkPath: referenceMark(frame),
-    rotationGlyph: rotationGlyph(glyphCenter, 9, input.convention.rotation),
+    angleLabels: angleLabels.map(({ box: _box, screenDeg: _screenDeg, ...label }) => label),
+    referenceMarkPath: reference.pointerPath,
+    rotationGlyph: { arcPath: arrow.arcPath, headPath: arrow.headPath },
     scales,
     points,
     legend: input.series.map((one, i) => {
@@ -371,74 +427,37 @@ function layoutSpokes(frame: {
 function layoutAngleLabels(
   frame: { center: ScreenPoint; radius: number; convention: DialConvention },
   fontSize: number,
-): (LaidOutAngleLabel & { box: Box })[] {
+): (LaidOutAngleLabel & { box: Box; screenDeg: number })[] {
   const everyDeg = frame.radius >= 140 ? 30 : 90;
   return Array.from({ length: 360 / everyDeg }, (_, i) => {
     const angle = i * everyDeg;
     const screenDeg = screenAngleDeg(angle, frame.convention);
-    const anchor = pointAtScreenAngle(frame.center, frame.radius, screenDeg);
-    const text = `${angle}°`;
-    const placed = labelBoxAt(anchor, screenDeg, text, fontSize, ANGLE_LABEL_GAP);
+    const text = degreesText(angle, 0);
+    const width = estimateTextWidthPx(text, fontSize);
+    const height = fontSize * 1.2;
+    const at = labelCentreBeside(frame.center, frame.radius + ANGLE_LABEL_GAP, screenDeg, width, height);
     return {
       text,
-      x: placed.x,
-      y: placed.y,
-      textAnchor: placed.textAnchor,
+      x: round(at.x),
+      y: round(at.y),
+      textAnchor: 'middle' as const,
       reference: angle === 0,
-      box: placed.box,
+      box: { x: at.x - width / 2, y: at.y - height / 2, width, height },
+      screenDeg,
     };
   });
 }
 
-function referenceMark(frame: { center: ScreenPoint; radius: number; convention: DialConvention }): string {
-  const screenDeg = screenAngleDeg(0, frame.convention);
-  const tip = pointAtScreenAngle(frame.center, frame.radius + 1, screenDeg);
-  const left = pointAtScreenAngle(frame.center, frame.radius + 9, screenDeg - 2.2);
-  const right = pointAtScreenAngle(frame.center, frame.radius + 9, screenDeg + 2.2);
-  const r = (v: number) => Math.round(v * 100) / 100;
-  return `M${r(tip.x)} ${r(tip.y)}L${r(left.x)} ${r(left.y)}L${r(right.x)} ${r(right.y)}Z`;
-}
-
-/**
- * A three-quarter circle with an arrowhead, turning the way the rotor turns on screen. The arc starts at 12
- * o'clock and ends at 9 o'clock (clockwise) or 3 o'clock (counter-clockwise).
- */
-export function rotationGlyph(
-  center: ScreenPoint,
-  radius: number,
-  rotation: RotationDirection,
-): { arcPath: string; headPath: string } {
-  const clockwise = rotation === 'clockwise';
-  const r = (v: number) => Math.round(v * 100) / 100;
-  const start = pointAtScreenAngle(center, radius, 0);
-  const endDeg = clockwise ? 270 : 90;
-  const end = pointAtScreenAngle(center, radius, endDeg);
-  const tangentDeg = normalizeDeg(endDeg + (clockwise ? 90 : -90));
-  const tip = pointAtScreenAngle(end, radius * 0.55, tangentDeg);
-  const back1 = pointAtScreenAngle(end, radius * 0.45, tangentDeg + 120);
-  const back2 = pointAtScreenAngle(end, radius * 0.45, tangentDeg - 120);
-  return {
-    arcPath: `M${r(start.x)} ${r(start.y)}A${r(radius)} ${r(radius)} 0 1 ${clockwise ? 1 : 0} ${r(end.x)} ${r(end.y)}`,
-    headPath: `M${r(tip.x)} ${r(tip.y)}L${r(back1.x)} ${r(back1.y)}L${r(back2.x)} ${r(back2.y)}Z`,
-  };
-}
-
-function directionFrom(center: ScreenPoint, point: ScreenPoint): number {
-  const dx = point.x - center.x;
-  const dy = point.y - center.y;
-  return normalizeDeg((Math.atan2(dx, -dy) * 180) / Math.PI);
+function round(value: number): number {
+  return Math.round(value * 100) / 100;
 }
 
 function isAtCentre(center: ScreenPoint, point: ScreenPoint): boolean {
   return Math.hypot(point.x - center.x, point.y - center.y) < 1;
 }
 
-function squareAround(at: ScreenPoint, side: number): Box {
-  return { x: at.x - side / 2, y: at.y - side / 2, width: side, height: side };
-}
-
 function centredBox(at: ScreenPoint, text: string, fontSize: number): Box {
-  const width = estimateTextWidth(text, fontSize);
+  const width = estimateTextWidthPx(text, fontSize);
   const height = fontSize * 1.2;
   return { x: at.x - width / 2, y: at.y - height / 2, width, height };
 }

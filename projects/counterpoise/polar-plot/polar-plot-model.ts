@@ -2,10 +2,9 @@
  * What the polar plot says about its points, in words and in keyboard moves. Framework-free, so it is tested
  * without TestBed; the component only draws it.
  */
-import { type RotationCounting } from '@counterpoise/ng/core';
+import { type RotationCounting, _formatAngle as formatAngle } from '@counterpoise/ng/core';
 import {
   formatAmplitude,
-  formatAngle,
   isDrawable,
   type PolarPoint,
   type PolarSeries,
@@ -52,6 +51,39 @@ export function valueText(value: PolarValue, unit: string): string {
 /** The name of a point: its own label and its series' label, "Run 2, Sensor A". */
 export function pointName(series: PolarSeries, point: PolarPoint): string {
   return point.label ? `${point.label}, ${series.label}` : series.label;
+}
+
+/** A label as compared: trimmed, one case. */
+function labelKey(text: string): string {
+  return text.trim().toLowerCase();
+}
+
+/**
+ * The points whose own label is drawn beside them, by focus index: a label is drawn only when it tells its
+ * point apart, from the other points of its series or from the points of every other series. A label that
+ * repeats its series' name, or that every series gives its lone point alike (each run "Drive end"), says
+ * nothing the legend does not, and would only crowd the plot; the point's name, its detail and the table
+ * still carry it.
+ */
+export function pointsWithDrawnLabels(points: readonly PlottedPoint[]): Set<number> {
+  const seriesOfLabel = new Map<string, Set<number>>();
+  const labelsInSeries = new Map<number, string[]>();
+  for (const p of points) {
+    const key = labelKey(p.point.label ?? '');
+    if (!seriesOfLabel.has(key)) seriesOfLabel.set(key, new Set());
+    seriesOfLabel.get(key)!.add(p.seriesIndex);
+    labelsInSeries.set(p.seriesIndex, [...(labelsInSeries.get(p.seriesIndex) ?? []), key]);
+  }
+  const drawn = new Set<number>();
+  for (const p of points) {
+    const key = labelKey(p.point.label ?? '');
+    if (key === '' || key === labelKey(p.series.label)) continue;
+    const ownSeries = labelsInSeries.get(p.seriesIndex) ?? [];
+    const apartInSeries = ownSeries.length > 1 && ownSeries.some((other) => other !== key);
+    const apartAcrossSeries = (seriesOfLabel.get(key)?.size ?? 0) === 1 && labelsInSeries.size > 1;
+    if (apartInSeries || apartAcrossSeries) drawn.add(p.index);
+  }
+  return drawn;
 }
 
 /**

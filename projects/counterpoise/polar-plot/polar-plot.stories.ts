@@ -1,69 +1,7 @@
 import type { Meta, StoryObj } from '@storybook/angular-vite';
 import { expect, waitFor } from 'storybook/test';
 import { CpPolarPlot } from './polar-plot';
-import { type PolarSeries } from './polar-plot-geometry';
-
-// Invented demo data: a mulcher drum balanced in one plane with a trial weight. Run 1 is the initial reading,
-// Run 2 the reading with a 60 g trial weight at 0 degrees, Run 3 the check after the correction weight.
-
-const SENSOR_A_RUNS: PolarSeries = {
-  id: 'sensor-a',
-  label: 'Sensor A',
-  kind: 'run',
-  unit: 'in/s',
-  points: [
-    { amplitude: 0.42, angleDeg: 128, label: 'Run 1' },
-    { amplitude: 0.29, angleDeg: 196, label: 'Run 2' },
-    { amplitude: 0.04, angleDeg: 62, label: 'Run 3' },
-  ],
-};
-
-const TRIAL_EFFECT: PolarSeries = {
-  id: 'trial-effect',
-  label: 'Trial effect',
-  kind: 'trialEffect',
-  unit: 'in/s',
-  points: [{ amplitude: 0.411, angleDeg: 267.2, from: { amplitude: 0.42, angleDeg: 128 } }],
-};
-
-const RESIDUAL: PolarSeries = {
-  id: 'residual',
-  label: 'Predicted residual',
-  kind: 'residual',
-  unit: 'in/s',
-  points: [{ amplitude: 0.032, angleDeg: 56 }],
-};
-
-const WEIGHTS: PolarSeries = {
-  id: 'weights',
-  label: 'Weights',
-  kind: 'weight',
-  unit: 'g',
-  points: [
-    { amplitude: 60, angleDeg: 0, label: 'Trial' },
-    { amplitude: 61, angleDeg: 41, label: 'Ideal' },
-    { amplitude: 60, angleDeg: 45, label: 'Installed' },
-  ],
-};
-
-const JOB: readonly PolarSeries[] = [SENSOR_A_RUNS, TRIAL_EFFECT, RESIDUAL, WEIGHTS];
-
-const TWO_SENSORS: readonly PolarSeries[] = [
-  {
-    id: 'sensor-a',
-    label: 'Sensor A, drive end',
-    kind: 'reading',
-    unit: 'mm/s',
-    points: [{ amplitude: 9.6, angleDeg: 74, label: 'A' }],
-  },
-  {
-    id: 'sensor-b',
-    label: 'Sensor B, free end',
-    kind: 'reading',
-    unit: 'mm/s',
-    points: [{ amplitude: 6.1, angleDeg: 302, label: 'B' }],
-  },
-];
+import { CROWDED_JOB, DRIVE_END_RUNS, JOB, SENSOR_A_RUNS, TWO_SENSORS } from './polar-plot.fixtures';
 
 /**
  * Readings and weights as vectors on the rotor's end view: amplitude rings with their unit, angles from the
@@ -245,3 +183,56 @@ export const DealerBrand: Story = {
 
 /** The job in a portal of the dark colour scheme: every colour comes from the theme's tokens. */
 export const DarkScheme: Story = { ...Job, globals: { scheme: 'dark' } };
+
+/** The client rectangles of the point labels drawn, and of the chart. */
+function pointLabelRects(canvasElement: HTMLElement) {
+  const chart = canvasElement.querySelector('.cp-polar-plot__chart')!.getBoundingClientRect();
+  const labels = [...canvasElement.querySelectorAll('.cp-polar-plot__point-label')].map((label) =>
+    label.getBoundingClientRect(),
+  );
+  return { chart, labels };
+}
+
+/**
+ * The runs of the workbench's Widgets page, all read at the drive end: a label every point shares tells no
+ * point apart, so none is drawn; the table and each point's name still say "Drive end".
+ */
+export const DriveEndRuns: Story = {
+  args: { series: DRIVE_END_RUNS, caption: 'Drive-end readings' },
+  play: async ({ canvas, canvasElement }) => {
+    await expect(canvasElement.querySelectorAll('.cp-polar-plot__point-label')).toHaveLength(0);
+    await expect(canvas.getAllByRole('img')[0]).toHaveAccessibleName(
+      'Drive end, Initial run: 0.52 in/s at 74 degrees',
+    );
+  },
+};
+
+/** Two sensors with eight runs each, bunched together, on a phone: every label clear of every other. */
+export const CrowdedJob: Story = {
+  args: { series: CROWDED_JOB, caption: 'Flail mower, two sensors' },
+  render: (args) => ({
+    props: args,
+    template: `
+      <div style="max-width: 320px">
+        <cp-polar-plot [series]="series" [caption]="caption" [rotation]="rotation" [counting]="counting"
+          [zeroAtDeg]="zeroAtDeg" [maxAmplitude]="maxAmplitude" [ringCount]="ringCount" [showTable]="showTable" />
+      </div>`,
+  }),
+  play: async ({ canvasElement }) => {
+    const { chart, labels } = pointLabelRects(canvasElement);
+    await expect(labels.length).toBeGreaterThan(0);
+    for (const [i, a] of labels.entries()) {
+      await expect(a.left).toBeGreaterThanOrEqual(chart.left - 0.5);
+      await expect(a.right).toBeLessThanOrEqual(chart.right + 0.5);
+      await expect(a.bottom).toBeLessThanOrEqual(chart.bottom + 0.5);
+      for (const b of labels.slice(i + 1)) {
+        const apart =
+          a.right <= b.left + 0.5 ||
+          b.right <= a.left + 0.5 ||
+          a.bottom <= b.top + 0.5 ||
+          b.bottom <= a.top + 0.5;
+        await expect(apart).toBe(true);
+      }
+    }
+  },
+};

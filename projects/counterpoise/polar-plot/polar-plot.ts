@@ -12,11 +12,15 @@ import {
   viewChild,
   viewChildren,
 } from '@angular/core';
-import { type RotationCounting, normalizeDeg, type RotationDirection } from '@counterpoise/ng/core';
+import {
+  type RotationCounting,
+  type RotationDirection,
+  _degreesText as degreesText,
+  _normalizeDeg as normalizeDeg,
+} from '@counterpoise/ng/core';
 import {
   dashOf,
   formatAmplitude,
-  formatAngle,
   markerPath,
   POLAR_SERIES_KINDS,
   type PolarSeries,
@@ -130,7 +134,7 @@ export class CpPolarPlot {
       series: p.series.label,
       point: p.point.label ?? `Point ${p.pointIndex + 1}`,
       amplitude: amplitudeText(p.point, p.series.unit),
-      angle: `${formatAngle(p.point.angleDeg)}°`,
+      angle: degreesText(p.point.angleDeg),
       from: p.point.from ? valueText(p.point.from, p.series.unit) : 'Origin',
     })),
   );

@@ -6,7 +6,11 @@ import {
   TestKey,
   parallel,
 } from '@angular/cdk/testing';
-import { type RotationCounting, type RotationDirection, pointAtAngle } from '@counterpoise/ng/core';
+import {
+  type RotationCounting,
+  type RotationDirection,
+  _pointAtAngle as pointAtAngle,
+} from '@counterpoise/ng/core';
 import type { CalibrationHandle, OverlayPoint, PhotoPoint } from '@counterpoise/ng/correction-overlay';
 
 /** Filters for finding a `cp-correction-overlay`. */
@@ -154,8 +158,11 @@ export class CpCorrectionOverlayHarness extends ComponentHarness {
   async dragHandle(handle: CalibrationHandle, to: PhotoPoint): Promise<void> {
     const element = await this._handle(handle);
     const from = await this.getHandlePosition(handle);
-    const viewBox = await (await this._drawing()).getAttribute('viewBox');
-    const [, , width = 0, height = 0] = (viewBox ?? '').split(' ').map(Number);
+    const drawing = await this._drawing();
+    const viewBox = await drawing.getAttribute('viewBox');
+    const [, , width = 0, drawnHeight = 0] = (viewBox ?? '').split(' ').map(Number);
+    // The photo fills the stage's own height; rows of labels below it make the drawing taller.
+    const height = Number(await drawing.getAttribute('data-stage-height')) || drawnHeight;
     const { scaleX, scaleY, left, top } = await this._stageScale(viewBox);
     const client = (p: PhotoPoint) => ({
       clientX: left + p.x * width * scaleX,
