@@ -7,6 +7,7 @@ import type { RotationCounting, DialPositions, RotationDirection } from '@counte
 import { CpPhaseDialHarness } from '@counterpoise/ng/phase-dial/testing';
 import { describe, expect, it } from 'vitest';
 import { CpPhaseDial } from './phase-dial';
+import { INITIAL_RUN_PHASE_MESSAGE } from './phase-dial.fixtures';
 import type { PhaseDialMarker } from './phase-dial-values';
 
 @Component({
@@ -357,13 +358,13 @@ describe('CpPhaseDial', () => {
 
   it("shows the page's own message in place of its own, and only in error state", async () => {
     const { dial, host, change } = await setUp();
-    await change(() => host.errorText.set('Enter the phase of the initial run'));
+    await change(() => host.errorText.set(INITIAL_RUN_PHASE_MESSAGE));
     expect(await dial.getErrorText()).toBeNull();
     host.angle.markAsTouched();
-    expect(await dial.getErrorText()).toBe('Enter the phase of the initial run');
+    expect(await dial.getErrorText()).toBe(INITIAL_RUN_PHASE_MESSAGE);
     await change(() => host.errorText.set(null));
     expect(await dial.getErrorText()).toBe('Enter an angle, or set it on the dial.');
-    await change(() => host.errorText.set('Enter the phase of the initial run'));
+    await change(() => host.errorText.set(INITIAL_RUN_PHASE_MESSAGE));
     await dial.pressKey('Home');
     expect(await dial.getErrorText()).toBeNull();
   });

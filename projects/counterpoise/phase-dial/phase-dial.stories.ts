@@ -1,18 +1,21 @@
-import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
 import { type Meta, type StoryObj, moduleMetadata } from '@storybook/angular-vite';
 import { expect, waitFor } from 'storybook/test';
 import { CpPhaseDial } from './phase-dial';
-import { type PhaseDialMarker } from './phase-dial-values';
+import {
+  INITIAL_RUN_PHASE_MESSAGE,
+  SCALE_LABEL_MIN_PX,
+  SIX_HOLDERS,
+  THUMB_DIAL_MIN_PX,
+  TRIAL_RUN_MARKERS,
+} from './phase-dial.fixtures';
+import { DIAL_VIEW_SIZE } from './phase-dial-drawing';
+import { phaseDialErrorMessage } from './phase-dial-values';
 
-// Invented demo data: the left bearing of a mulcher drum, balanced in one plane with a trial weight. The
-// reading of run 1, the heavy spot the influence coefficient puts behind it, the 40 g trial weight of run 2
-// and the correction weight the calculation asks for.
-const TRIAL_RUN_MARKERS: readonly PhaseDialMarker[] = [
-  { kind: 'reading', angleDeg: 212, label: 'Run 1' },
-  { kind: 'heavySpot', angleDeg: 247 },
-  { kind: 'trialWeight', angleDeg: 90, label: '40 g' },
-  { kind: 'correction', angleDeg: 67, label: '58 g' },
-];
+/** What the dial says, in its own words, when an angle is required and none is set. */
+const REQUIRED_MESSAGE = phaseDialErrorMessage({ required: true })!;
 
 /** The centre of the slider on screen, and a point at `share` of its radius towards a screen angle. */
 function pointOn(slider: HTMLElement, screenDeg: number, share = 0.7) {
@@ -35,7 +38,7 @@ const meta: Meta<CpPhaseDial> = {
   title: 'Widgets/Phase dial',
   component: CpPhaseDial,
   tags: ['autodocs'],
-  decorators: [moduleMetadata({ imports: [ReactiveFormsModule] })],
+  decorators: [moduleMetadata({ imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule] })],
   argTypes: {
     value: { control: { type: 'number', min: 0, max: 359 } },
     rotation: { control: 'inline-radio', options: ['clockwise', 'counterClockwise'] },
@@ -48,6 +51,7 @@ const meta: Meta<CpPhaseDial> = {
     readonly: { control: 'boolean' },
     required: { control: 'boolean' },
     label: { control: 'text' },
+    errorText: { control: 'text' },
     size: { control: { type: 'range', min: 160, max: 320, step: 8 } },
   },
   args: {
@@ -197,25 +201,62 @@ export const ReadOnly: Story = {
   },
 };
 
-/** Compact: a small dial with a numeric field beside it, for typing the angle off the meter's display. */
+/**
+ * Compact: a Material outlined field to type the angle off the meter's display (a decimal keypad on a
+ * phone), and a thumb-sized dial beside it. Tab into the field, type, Tab on to the dial and use arrows.
+ */
 export const Compact: Story = {
   args: { label: 'Phase, left bearing', compact: true, counting: 'withRotation' },
   play: async ({ canvas, userEvent }) => {
     const field = canvas.getByRole('textbox', { name: 'Phase, left bearing' });
     const dial = canvas.getByRole('slider', { name: 'Phase, left bearing' });
+    await expect(field).toHaveAttribute('inputmode', 'decimal');
     await expect(field).toHaveAccessibleDescription('Degrees with rotation from the mark');
-    await userEvent.type(field, '212');
+    await userEvent.tab();
+    await expect(field).toHaveFocus();
+    await userEvent.keyboard('212');
     await expect(dial).toHaveAttribute('aria-valuenow', '212');
     await userEvent.clear(field);
     await userEvent.type(field, '372{Tab}');
+    await expect(dial).toHaveFocus();
     await expect(dial).toHaveAttribute('aria-valuenow', '12');
     await expect(field).toHaveValue('12');
+    await userEvent.keyboard('{ArrowUp}{PageUp}');
+    await expect(field).toHaveValue('23');
   },
 };
 
 /**
- * In a reactive form: required, and on one of six holder positions. Touched and empty, the dial shows the
- * error; a position clears it. The message is the page's own, tied to the form control's errors.
+ * Compact, required and left empty: the field turns to Material's error colours and says why under it,
+ * here in the page's own words (`errorText`), linked to the field and the dial by `aria-describedby`.
+ */
+export const CompactWithError: Story = {
+  render: (args) => ({
+    props: { ...args, phase: new FormControl<number | null>(null, Validators.required) },
+    template: `
+      <cp-phase-dial [formControl]="phase" [label]="label" [compact]="true" [errorText]="errorText" />`,
+  }),
+  args: { label: 'Phase, run 1', errorText: INITIAL_RUN_PHASE_MESSAGE },
+  play: async ({ canvas, userEvent }) => {
+    const field = canvas.getByRole('textbox', { name: 'Phase, run 1' });
+    const dial = canvas.getByRole('slider', { name: 'Phase, run 1' });
+    await expect(field).toBeRequired();
+    await userEvent.tab();
+    await userEvent.tab();
+    await userEvent.tab();
+    await expect(dial).toHaveAttribute('aria-invalid', 'true');
+    await expect(field).toHaveAccessibleDescription(INITIAL_RUN_PHASE_MESSAGE);
+    await expect(dial).toHaveAccessibleDescription(new RegExp(`${INITIAL_RUN_PHASE_MESSAGE}$`));
+    await userEvent.type(field, '4o{Tab}');
+    await expect(field).toHaveValue('4o');
+    await expect(field).toHaveAttribute('aria-invalid', 'true');
+    await expect(field).toHaveAccessibleDescription(INITIAL_RUN_PHASE_MESSAGE);
+  },
+};
+
+/**
+ * In a reactive form, on one of six holder positions, with no messages of the page's own: touched and
+ * empty, or off the holders, the dial says why in its own words; a holder clears it.
  */
 export const FormValidation: Story = {
   render: (args) => ({
@@ -229,15 +270,9 @@ export const FormValidation: Story = {
           [compact]="compact"
           [required]="true"
         />
-        @if (angle.touched && angle.errors?.['required']) {
-          <p role="alert" style="margin: 0; color: var(--mat-sys-error)">Set the angle of the correction weight.</p>
-        }
-        @if (angle.errors?.['cpPhasePosition']) {
-          <p role="alert" style="margin: 0; color: var(--mat-sys-error)">Choose one of the six holder positions.</p>
-        }
       </form>`,
   }),
-  args: { label: 'Correction angle', positions: { count: 6, firstDeg: 0 }, compact: true },
+  args: { label: 'Correction angle', positions: SIX_HOLDERS, compact: true },
   play: async ({ canvas, userEvent }) => {
     const dial = canvas.getByRole('slider', { name: 'Correction angle' });
     const field = canvas.getByRole('textbox', { name: 'Correction angle' });
@@ -246,19 +281,150 @@ export const FormValidation: Story = {
     await userEvent.tab();
     await userEvent.tab();
     await expect(dial).toHaveAttribute('aria-invalid', 'true');
-    await expect(canvas.getByRole('alert')).toHaveTextContent('Set the angle of the correction weight.');
+    await expect(field).toHaveAccessibleDescription(REQUIRED_MESSAGE);
 
     await userEvent.type(field, '100{Tab}');
-    await expect(canvas.getByRole('alert')).toHaveTextContent('Choose one of the six holder positions.');
-    dial.focus();
+    await expect(field).toHaveAccessibleDescription(
+      phaseDialErrorMessage({ cpPhasePosition: { allowed: [0, 60, 120, 180, 240, 300] } })!,
+    );
     await userEvent.keyboard('{ArrowUp}');
     await expect(dial).toHaveAttribute('aria-valuenow', '120');
-    await waitFor(() => expect(canvas.queryByRole('alert')).toBeNull());
-    await expect(dial).not.toHaveAttribute('aria-invalid');
+    await waitFor(() => expect(dial).not.toHaveAttribute('aria-invalid'));
+    await expect(canvas.queryByText(/Choose one/)).toBeNull();
   },
 };
 
-/** The smallest and the largest dial the layout is made for, side by side. */
+/**
+ * The full-size dial in error: the message sits under the dial in the form field's error style, in a
+ * polite live region, and the dial's `aria-describedby` and `aria-invalid` point at it.
+ */
+export const FullSizeWithError: Story = {
+  render: (args) => ({
+    props: { ...args, angle: new FormControl<number | null>(null, Validators.required) },
+    template: `<cp-phase-dial [formControl]="angle" [label]="label" [required]="true" />`,
+  }),
+  args: { label: 'Trial weight angle' },
+  play: async ({ canvas, canvasElement, userEvent }) => {
+    const dial = canvas.getByRole('slider', { name: 'Trial weight angle' });
+    await userEvent.tab();
+    await userEvent.tab();
+    await expect(dial).toHaveAttribute('aria-invalid', 'true');
+    const error = canvas.getByText(REQUIRED_MESSAGE);
+    await expect(dial).toHaveAccessibleDescription(new RegExp(`${REQUIRED_MESSAGE}$`));
+    await expect(error.closest('[aria-live="polite"]')).not.toBeNull();
+    await expect(canvasElement.querySelector('[role="alert"]')).toBeNull();
+    dial.focus();
+    await userEvent.keyboard('{Home}');
+    await waitFor(() => expect(canvas.queryByText(REQUIRED_MESSAGE)).toBeNull());
+  },
+};
+
+/**
+ * A reading in a row of the page's own outlined Material fields: the phase field has their height, label
+ * and error style, and its outline lines up with theirs; all three say why when the form is submitted.
+ */
+export const CompactInFieldRow: Story = {
+  render: () => ({
+    props: {
+      reading: new FormGroup({
+        amplitude: new FormControl<number | null>(null, Validators.required),
+        phase: new FormControl<number | null>(null, Validators.required),
+        mass: new FormControl<number | null>(null, Validators.required),
+      }),
+      phaseMessage: INITIAL_RUN_PHASE_MESSAGE,
+    },
+    template: `
+      <form [formGroup]="reading" style="display: flex; flex-wrap: wrap; gap: 16px; align-items: flex-start">
+        <mat-form-field appearance="outline" subscriptSizing="dynamic" style="flex: 1 1 10rem">
+          <mat-label>Amplitude</mat-label>
+          <input matInput formControlName="amplitude" inputmode="decimal" />
+          <span matTextSuffix>mm/s</span>
+          <mat-error>Enter the amplitude of the initial run</mat-error>
+        </mat-form-field>
+        <cp-phase-dial formControlName="phase" label="Phase" [compact]="true" [required]="true"
+          [errorText]="phaseMessage" style="flex: 2 1 20rem" />
+        <mat-form-field appearance="outline" subscriptSizing="dynamic" style="flex: 1 1 10rem">
+          <mat-label>Trial mass</mat-label>
+          <input matInput formControlName="mass" inputmode="decimal" />
+          <span matTextSuffix>g</span>
+          <mat-error>Enter the trial mass</mat-error>
+        </mat-form-field>
+        <button type="submit">Calculate</button>
+      </form>`,
+  }),
+  play: async ({ canvas, canvasElement, userEvent }) => {
+    const boxes = Array.from(canvasElement.querySelectorAll('.mdc-notched-outline')).map((outline) =>
+      outline.getBoundingClientRect(),
+    );
+    await expect(boxes).toHaveLength(3);
+    // Side by side (a tablet) the three outlines share their top; on a phone each field has its own line.
+    const oneRow = boxes[2]!.top < boxes[0]!.bottom;
+    for (const box of boxes.slice(1)) {
+      if (oneRow) await expect(box.top).toBeCloseTo(boxes[0]!.top, 0);
+      await expect(box.height).toBeCloseTo(boxes[0]!.height, 0);
+    }
+    await userEvent.click(canvas.getByRole('button', { name: 'Calculate' }));
+    await expect(canvas.getByText(INITIAL_RUN_PHASE_MESSAGE)).toBeVisible();
+    const errors = Array.from(canvasElement.querySelectorAll('mat-error')).map((error) => ({
+      top: Math.round(error.getBoundingClientRect().top),
+      font: getComputedStyle(error).font,
+      color: getComputedStyle(error).color,
+    }));
+    await expect(errors).toHaveLength(3);
+    await expect(new Set(errors.map((error) => JSON.stringify(error))).size).toBe(1);
+  },
+};
+
+/**
+ * The compact dial at its default size on a tablet: wide enough to drag with a thumb (the whole dial is
+ * the target), with scale labels of at least 12 px.
+ */
+export const TabletCompact: Story = {
+  args: { label: 'Phase, right bearing', compact: true, value: 130 },
+  globals: { viewport: { value: 'tablet' } },
+  play: async ({ canvas, canvasElement, userEvent }) => {
+    const dial = canvas.getByRole('slider', { name: 'Phase, right bearing' });
+    const width = dial.getBoundingClientRect().width;
+    await expect(width).toBeGreaterThanOrEqual(THUMB_DIAL_MIN_PX);
+    const label = canvasElement.querySelector('.cp-phase-dial__label')!;
+    const renderedPx = (Number.parseFloat(getComputedStyle(label).fontSize) * width) / DIAL_VIEW_SIZE;
+    await expect(renderedPx).toBeGreaterThanOrEqual(SCALE_LABEL_MIN_PX);
+    // Counted against a clockwise rotor, a touch at 9 o'clock is 90 degrees.
+    await userEvent.pointer({ keys: '[MouseLeft]', target: dial, coords: pointOn(dial, 270) });
+    await expect(dial).toHaveAttribute('aria-valuenow', '90');
+    await expect(canvas.getByRole('textbox', { name: 'Phase, right bearing' })).toHaveValue('90');
+  },
+};
+
+/**
+ * On a phone (a 390 px screen less the page's margins) the dial goes under its field, which takes the
+ * whole width as the page's other fields do; nothing runs off the screen.
+ */
+export const PhoneCompact: Story = {
+  render: (args) => ({
+    props: args,
+    template: `
+      <div style="width: 358px; outline: 1px dashed var(--mat-sys-outline-variant)">
+        <cp-phase-dial [label]="label" [compact]="true" [value]="value" />
+      </div>`,
+  }),
+  args: { label: 'Phase, left bearing', value: 212 },
+  play: async ({ canvas, canvasElement }) => {
+    const dial = canvas.getByRole('slider', { name: 'Phase, left bearing' });
+    const field = canvasElement.querySelector('.mat-mdc-form-field')!;
+    const host = canvasElement.querySelector('cp-phase-dial')!;
+    await expect(dial.getBoundingClientRect().top).toBeGreaterThanOrEqual(
+      field.getBoundingClientRect().bottom,
+    );
+    await expect(field.getBoundingClientRect().width).toBeCloseTo(host.getBoundingClientRect().width, 0);
+    await expect(host.scrollWidth).toBeLessThanOrEqual(host.clientWidth);
+    await expect(host.getBoundingClientRect().right).toBeLessThanOrEqual(
+      host.parentElement!.getBoundingClientRect().right,
+    );
+  },
+};
+
+/** The smallest and the largest dial the layout is made for, and the compact one's default, side by side. */
 export const Sizes: Story = {
   render: (args) => ({
     props: args,
@@ -266,6 +432,7 @@ export const Sizes: Story = {
       <div style="display: flex; flex-wrap: wrap; gap: 24px; align-items: flex-start">
         <cp-phase-dial label="Small dial" [size]="160" [value]="value" [markers]="markers" />
         <cp-phase-dial label="Large dial" [size]="320" [value]="value" [markers]="markers" />
+        <cp-phase-dial label="Compact dial" [compact]="true" [value]="value" />
       </div>`,
   }),
   args: { value: 67, markers: TRIAL_RUN_MARKERS },
@@ -274,6 +441,8 @@ export const Sizes: Story = {
     const large = canvas.getByRole('slider', { name: 'Large dial' });
     await expect(small.getBoundingClientRect().width).toBe(160);
     await expect(large.getBoundingClientRect().width).toBe(320);
+    const compact = canvas.getByRole('slider', { name: 'Compact dial' });
+    await expect(compact.getBoundingClientRect().width).toBe(160);
   },
 };
 

@@ -28,6 +28,7 @@ import {
   NgForm,
   type ValidationErrors,
   type Validator,
+  Validators,
 } from '@angular/forms';
 import { ErrorStateMatcher } from '@angular/material/core';
 import { MatError, MatFormField, MatHint, MatLabel, MatSuffix } from '@angular/material/form-field';
@@ -191,6 +192,10 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges, 
 
   /** The drag in progress: the pointer and the angle it started from. */
   protected readonly _dragging = signal<{ pointerId: number; startValue: number | null } | null>(null);
+  /** Whether the form control carries `Validators.required`, which makes the dial required too. */
+  private readonly _controlRequired = signal(false);
+  /** Whether an angle must be set: by the input, or by the form control's validators, as for matInput. */
+  protected readonly _required = computed(() => this.required() || this._controlRequired());
   /** Whether the control is in error state (by default invalid and touched, or its form submitted). */
   protected readonly _errorState = signal(false);
   /** The dial's own words for the control's errors, kept while the control is watched. */
@@ -447,5 +452,6 @@ export class CpPhaseDial implements ControlValueAccessor, Validator, OnChanges, 
     const form = this._parentFormGroup ?? this._parentForm;
     this._errorState.set(control !== null && matcher.isErrorState(control, form));
     this._ownErrorText.set(phaseDialErrorMessage(control?.errors ?? null));
+    this._controlRequired.set(control?.hasValidator(Validators.required) ?? false);
   }
 }

@@ -1,8 +1,10 @@
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
+import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
 import { CpPhaseDial } from '@counterpoise/ng/phase-dial';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
+import { INITIAL_RUN_PHASE_MESSAGE, SIX_HOLDERS } from '../phase-dial.fixtures';
 import { CpPhaseDialHarness } from './phase-dial-harness';
 
 @Component({
@@ -15,6 +17,21 @@ import { CpPhaseDialHarness } from './phase-dial-harness';
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 class Host {}
+
+@Component({
+  imports: [CpPhaseDial, ReactiveFormsModule],
+  template: `
+    <cp-phase-dial label="Phase, run 1" compact [formControl]="phase" [errorText]="message" />
+    <cp-phase-dial label="Holder" [formControl]="holder" [positions]="holders" />
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+class FormHost {
+  readonly phase = new FormControl<number | null>(null, Validators.required);
+  readonly holder = new FormControl<number | null>(100);
+  readonly holders = SIX_HOLDERS;
+  readonly message = INITIAL_RUN_PHASE_MESSAGE;
+}
 
 async function setUp() {
   const fixture = TestBed.createComponent(Host);
@@ -63,5 +80,36 @@ describe('CpPhaseDialHarness', () => {
     await expect(dial.typeInField('10')).rejects.toThrow(/not compact/);
     await expect(dial.getFieldText()).rejects.toThrow(/not compact/);
     expect(await dial.getMarkers()).toEqual([]);
+  });
+
+  it('reads the error a dial shows, and whether it is in error state', async () => {
+    const fixture = TestBed.createComponent(FormHost);
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    const phase = await loader.getHarness(CpPhaseDialHarness.with({ label: 'Phase, run 1' }));
+    const holder = await loader.getHarness(CpPhaseDialHarness.with({ label: 'Holder' }));
+    expect(await phase.isInvalid()).toBe(false);
+    expect(await phase.getErrorText()).toBeNull();
+
+    await phase.typeInField('');
+    expect(await phase.isInvalid()).toBe(true);
+    expect(await phase.getErrorText()).toBe(INITIAL_RUN_PHASE_MESSAGE);
+    const formField = (await phase.getFormField())!;
+    expect(await formField.getTextErrors()).toEqual([INITIAL_RUN_PHASE_MESSAGE]);
+
+    fixture.componentInstance.holder.markAsTouched();
+    expect(await holder.getErrorText()).toBe(
+      'Choose one of the allowed positions: 0°, 60°, 120°, 180°, 240°, 300°.',
+    );
+    expect(await holder.getFormField()).toBeNull();
+  });
+
+  it('measures the dial as laid out', async () => {
+    const fixture = TestBed.createComponent(Host);
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    const dial = await loader.getHarness(CpPhaseDialHarness.with({ label: 'Correction' }));
+    const slider: HTMLElement = fixture.nativeElement.querySelectorAll('[role="slider"]')[2];
+    // The test DOM lays nothing out: give the dial the box a browser would.
+    vi.spyOn(slider, 'getBoundingClientRect').mockReturnValue(new DOMRect(10, 20, 168, 168));
+    expect(await dial.getSizePx()).toBe(168);
   });
 });
