@@ -118,7 +118,7 @@ export const LEADER_AFTER_PX = 10;
 const TURNS_DEG = [0, 22.5, -22.5, 45, -45, 67.5, -67.5, 90, -90, 135, -135, 180];
 /** How many label heights a label may step away from its anchor before it is sent beyond the rim. */
 const NEAR_STEPS = 2;
-/** The turns tried round the rim, from the anchor's own direction, when a label goes beyond the rim. */
+/** The step round the rim, in degrees, between the places tried for a label beyond it. */
 const RIM_TURN_STEP_DEG = 4;
 /** How many rows of labels are tried outward from the rim. */
 const RIM_ROWS = 8;
@@ -228,6 +228,10 @@ class Placer {
   private readonly usable: Box;
   /** The bottom of the rows added below the bounds for required labels. */
   grownBottom: number;
+  /** Sizes that found no room in the margin: a label at least as large finds none either, later. */
+  private readonly marginFull: { width: number; height: number }[] = [];
+  /** Sizes that found no room on the rows beyond the rim. */
+  private readonly rimFull: { width: number; height: number }[] = [];
 
   constructor(private readonly stage: EndViewLabelStage) {
     this.spacing = stage.spacingPx ?? 2;
@@ -276,22 +280,41 @@ class Placer {
     return best?.box ?? null;
   }
 
-  /** The nearest free box beyond the rim, round from the anchor's direction and outward row by row. */
+  /**
+   * The nearest free box beyond the rim, on rows outward from it and every few degrees round it. The
+   * candidates depend on the label's size alone, so a size that found none is not searched again.
+   */
   beyondRim(request: EndViewLabelRequest): Box | null {
+    const full = this.rimFull.some((size) => request.width >= size.width && request.height >= size.height);
+    if (full) return null;
+    const found = this.searchBeyondRim(request);
+    if (!found) this.rimFull.push({ width: request.width, height: request.height });
+    return found;
+  }
+
+  private searchBeyondRim(request: EndViewLabelRequest): Box | null {
     const { rim } = this.stage;
-    const anchorDeg = screenDegOf(rim.center, request.anchor, request.preferredDeg);
     const start = rim.radius + rim.outsidePx + this.spacing;
+    const anchorRadius = Math.hypot(request.anchor.x - rim.center.x, request.anchor.y - rim.center.y);
+    // The same places round the rim for every label, tried from the anchor's direction outward.
+    const steps = Math.round(360 / RIM_TURN_STEP_DEG);
+    const first = Math.round(
+      screenDegOf(rim.center, request.anchor, request.preferredDeg) / RIM_TURN_STEP_DEG,
+    );
+    const order = Array.from({ length: steps }, (_, i) => first + (i % 2 === 0 ? i / 2 : -(i + 1) / 2));
     let best: Candidate | null = null;
     for (let row = 0; row < RIM_ROWS; row++) {
       const distance = start + row * (request.height + this.spacing);
-      for (let turn = 0; turn <= 180; turn += RIM_TURN_STEP_DEG) {
-        for (const sign of turn === 0 || turn === 180 ? [1] : [1, -1]) {
-          const deg = anchorDeg + sign * turn;
-          const box = boxBeside(rim.center, deg, distance, request.width, request.height);
-          if (!this.free(box)) continue;
-          const cost = distanceToBox(box, request.anchor) + this.softCost(box);
-          if (!best || cost < best.cost) best = { box, cost };
-        }
+      // Every box of this row and the next lies at least this far from the anchor.
+      if (best && best.cost <= distance - anchorRadius) break;
+      for (const step of order) {
+        const deg = (((step % steps) + steps) % steps) * RIM_TURN_STEP_DEG;
+        const box = boxBeside(rim.center, deg, distance, request.width, request.height);
+        const away = distanceToBox(box, request.anchor);
+        if (best && away >= best.cost) continue;
+        if (!this.free(box)) continue;
+        const cost = away + this.softCost(box);
+        if (!best || cost < best.cost) best = { box, cost };
       }
     }
     return best?.box ?? null;
@@ -299,6 +322,14 @@ class Placer {
 
   /** The nearest free box anywhere in the margin beyond the rim, on a grid over the widget's box. */
   inMargin(request: EndViewLabelRequest): Box | null {
+    const full = this.marginFull.some((size) => request.width >= size.width && request.height >= size.height);
+    if (full) return null;
+    const found = this.searchMargin(request);
+    if (!found) this.marginFull.push({ width: request.width, height: request.height });
+    return found;
+  }
+
+  private searchMargin(request: EndViewLabelRequest): Box | null {
     const { usable } = this;
     const stepX = 6;
     const stepY = Math.max(4, request.height / 3);

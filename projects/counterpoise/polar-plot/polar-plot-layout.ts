@@ -115,6 +115,8 @@ export interface LaidOutPoint {
     /** The middle of the text. */
     readonly y: number;
     readonly textAnchor: string;
+    /** The box the text is expected to fill. */
+    readonly box: { readonly x: number; readonly y: number; readonly width: number; readonly height: number };
     /** A line back to the marker when the label had to move away from it. */
     readonly leader: {
       readonly x1: number;
@@ -299,6 +301,7 @@ export function layoutPolarPlot(input: PolarPlotLayoutInput): PolarPlotLayout {
             x: round(placed.box.x + placed.box.width / 2),
             y: round(placed.box.y + placed.box.height / 2),
             textAnchor: 'middle',
+            box: placed.box,
             leader: placed.leader
               ? {
                   x1: round(placed.leader.from.x),
