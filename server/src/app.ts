@@ -39,6 +39,9 @@ import { MachineFamiliesService } from './machine-families/machine-families.serv
 import { MachinesRepo } from './machines/machines.repo';
 import { machinesRouter } from './machines/machines.router';
 import { MachinesService } from './machines/machines.service';
+import { JobsRepo } from './jobs/jobs.repo';
+import { jobsRouter } from './jobs/jobs.router';
+import { JobsService } from './jobs/jobs.service';
 import { buildOpenApiDocument, openApiRouter } from './openapi/openapi';
 import { UsageLog } from './usage/usage-log';
 import { documentedPaths } from './usage/usage.recorder';
@@ -197,6 +200,11 @@ export function createApp(deps: AppDeps): Express {
   ];
   // The shop's records, each change written to one change log.
   const recordChanges = new ChangeLog(deps.database.orm);
+  const families = new MachineFamiliesService(
+    new MachineFamiliesRepo(deps.database.orm),
+    recordChanges,
+    clock,
+  );
   const recordFeatures: FeatureRoutes[] = [
     customersRouter({
       access: recordAccess(auth, 'customers:write'),
@@ -204,11 +212,20 @@ export function createApp(deps: AppDeps): Express {
     }),
     machineFamiliesRouter({
       access: recordAccess(auth, 'families:write'),
-      families: new MachineFamiliesService(new MachineFamiliesRepo(deps.database.orm), recordChanges, clock),
+      families,
     }),
     machinesRouter({
       access: recordAccess(auth, 'machines:write'),
       machines: new MachinesService(new MachinesRepo(deps.database.orm), recordChanges, clock),
+    }),
+    // The balancing jobs; completing one refines its machine family's stored sensitivity.
+    jobsRouter({
+      access: {
+        read: signedInAccess(auth, 'jobs:read'),
+        write: signedInAccess(auth, 'jobs:write', 'jobs:write-any'),
+        manage: signedInAccess(auth, 'jobs:write-any'),
+      },
+      jobs: new JobsService(new JobsRepo(deps.database.orm), families, clock),
     }),
   ];
   // The usage report sits behind the keyed chain, which has checked the key or the access token; its

@@ -353,7 +353,12 @@ export const JobCorrectionSchema = z
     /** The runs it was computed from. */
     runIds: z.array(IdSchema),
     /** The calculator route and request it was computed with: the calculator answers the same. */
-    calc: z.object({ route: z.enum(['one-run', 'single-plane', 'multi-plane']), request: z.unknown() }),
+    calc: z.object({
+      route: z.enum(['one-run', 'single-plane', 'multi-plane']),
+      request: z.unknown(),
+      /** The sensors whose readings it used, in the order of the request's readings. */
+      sensorSides: z.array(SideSchema),
+    }),
     /** The calculator's answer to `calc.request`, as computed by the server. */
     result: z.record(z.string(), z.unknown()),
     /** The weights to add now, per plane, in grams at the plane's correction radius. */

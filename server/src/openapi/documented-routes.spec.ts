@@ -28,7 +28,9 @@ describe('the routes Express serves and the OpenAPI document', () => {
       .filter((route) => !NOT_API.has(route));
 
   it('documents every route the app serves under /api', () => {
-    const undocumented = served().filter((route) => !documented().includes(route));
+    // The document is built once: building the app for each served route would take seconds.
+    const routes = documented();
+    const undocumented = served().filter((route) => !routes.includes(route));
     expect(undocumented).toEqual([]);
   });
 

@@ -1,0 +1,645 @@
+import {
+  type AcceptanceLevel,
+  type AddRun,
+  type AmplitudeUnit,
+  type CalcResponse,
+  calculate,
+  type CorrectionMethod,
+  type InstalledWeight,
+  type JobCorrection,
+  type MachineSide,
+  type StoredSensitivity,
+} from '@counterpoise/api';
+import {
+  add,
+  averageReadings,
+  balanceTolerance,
+  convertReadingPhase,
+  convertVibration,
+  ISO_10816_3_ZONE_LIMITS_MM_S_RMS,
+  magnitude,
+  multiply,
+  phasor,
+  type Phasor,
+  phasorToReading,
+  type Reading,
+  readingToPhasor,
+  refineFamilySensitivity,
+  speedDrift,
+  subtract,
+  trimRun,
+  weightSign,
+  weightToModel,
+  modelToWeight,
+  normalizeAngleDeg,
+} from '@counterpoise/engine';
+import { HttpProblem } from '../http/problem';
+import { JOBS_PROBLEM_CODES } from '@counterpoise/api';
+import type { StoredPlaneWeight, StoredSensorReading, StoredSetup } from './job-records';
+import type { CorrectionRow, RunRow } from './jobs.repo';
+
+/*
+ * What the server computes for a job, from what is stored: averages of repeated readings, corrections
+ * through the calculator's own routes (so that a stored correction is the calculator's answer for the
+ * same readings), predictions for what was installed, the verdict against the acceptance level, and the
+ * coefficients a completed job measured. The balancing itself is the engine's; this is the glue that
+ * picks the runs and readings.
+ */
+
+/** Sides in the order the engine numbers sensors: left first. */
+const SIDE_ORDER: readonly MachineSide[] = ['left', 'right'];
+
+/** A 409 the technician can act on. */
+function notPossible(detail: string): HttpProblem {
+  return new HttpProblem(
+    409,
+    'Conflict',
+    detail,
+    undefined,
+    'about:blank',
+    JOBS_PROBLEM_CODES.methodNotPossible,
+  );
+}
+
+/** A reading as the engine counts phase (a lag), from the instrument's. */
+export function toLag(reading: Reading, setup: StoredSetup): Reading {
+  return setup.phaseSense === 'lead' ? convertReadingPhase(reading, 'lead', 'lag') : reading;
+}
+
+/** A reading back in the instrument's phase counting. */
+export function fromLag(reading: Reading, setup: StoredSetup): Reading {
+  return setup.phaseSense === 'lead' ? convertReadingPhase(reading, 'lag', 'lead') : reading;
+}
+
+/**
+ * The readings of a run as stored: each sensor's repeats averaged as vectors (`averageReadings`) with
+ * their spread, and the warnings of repeats that disagree or a speed that drifted from the first run's
+ * (`speedDrift`, 2 % by default, a product default).
+ */
+export function averageRun(
+  readings: AddRun['readings'],
+  referenceSpeedRpm: number | undefined,
+): { readings: StoredSensorReading[]; warnings: string[] } {
+  const warnings: string[] = [];
+  const stored = readings.map((sensor) => {
+    const average = averageReadings({
+      readings: sensor.repeats.map(({ amplitude, phaseDeg }) => ({ amplitude, phaseDeg })),
+    });
+    for (const warning of average.warnings)
+      warnings.push(`${capitalised(sensor.sensorSide)} sensor: ${warning}`);
+    const speedRpm = sensor.repeats.reduce((sum, repeat) => sum + repeat.speedRpm, 0) / sensor.repeats.length;
+    return {
+      sensorSide: sensor.sensorSide,
+      repeats: sensor.repeats.map(({ amplitude, phaseDeg, speedRpm }) => ({ amplitude, phaseDeg, speedRpm })),
+      average: average.mean,
+      spread: average.spread,
+      spreadRatio: Number.isFinite(average.spreadRatio) ? average.spreadRatio : null,
+      trusted: average.trusted,
+      speedRpm,
+    };
+  });
+  const speeds = readings.flatMap((sensor) => sensor.repeats.map((repeat) => repeat.speedRpm));
+  const drift = speedDrift({
+    speedsRpm: speeds,
+    ...(referenceSpeedRpm === undefined ? {} : { referenceSpeedRpm }),
+  });
+  warnings.push(...drift.warnings);
+  return { readings: stored, warnings };
+}
+
+function capitalised(text: string): string {
+  return `${text[0]!.toUpperCase()}${text.slice(1)}`;
+}
+
+/** The mean speed of a stored run. */
+export function runSpeedRpm(run: Pick<RunRow, 'readings'>): number {
+  return run.readings.reduce((sum, reading) => sum + reading.speedRpm, 0) / run.readings.length;
+}
+
+/**
+ * An installed weight as the plane's model sees it: the same unbalance (mass x radius) as a mass at the
+ * plane's correction radius, at the same angle.
+ */
+export function equivalentAtPlane(
+  weight: InstalledWeight,
+  planeRadiiMm: readonly number[],
+): StoredPlaneWeight {
+  const radius = planeRadiiMm[weight.planeIndex];
+  if (radius === undefined) {
+    throw new HttpProblem(400, 'Bad Request', 'The machine has no such plane.', [
+      { path: 'weights', message: `The machine has ${planeRadiiMm.length} plane(s).` },
+    ]);
+  }
+  return {
+    planeIndex: weight.planeIndex,
+    massGrams: (weight.massGrams * weight.radiusMm) / radius,
+    angleDeg: weight.angleDeg,
+  };
+}
+
+/** Every weight of this job installed so far, at its plane's radius. */
+export function installedSoFar(
+  corrections: readonly CorrectionRow[],
+  planeRadiiMm: readonly number[],
+): StoredPlaneWeight[] {
+  return corrections.flatMap((correction) =>
+    (correction.installed ?? []).map((weight) => equivalentAtPlane(weight, planeRadiiMm)),
+  );
+}
+
+/** The sum of the weights in one plane, as a model phasor. */
+function planeSum(weights: readonly StoredPlaneWeight[], planeIndex: number, sign: 1 | -1): Phasor {
+  return weights
+    .filter((weight) => weight.planeIndex === planeIndex)
+    .reduce<Phasor>((sum, weight) => add(sum, weightToModel(weight.massGrams, weight.angleDeg, sign)), {
+      re: 0,
+      im: 0,
+    });
+}
+
+/** The reading of one side in a run, or undefined when that sensor was not read. */
+function sideReading(run: RunRow, side: MachineSide, setup: StoredSetup): Reading | undefined {
+  const found = run.readings.find((reading) => reading.sensorSide === side);
+  return found && toLag(found.average, setup);
+}
+
+/** The last run that is not a trial: the initial run, or the latest verification. */
+export function baseRun(runs: readonly RunRow[]): RunRow | undefined {
+  return [...runs].reverse().find((run) => run.kind !== 'trial');
+}
+
+/** The side with the higher amplitude in a run (the one worked first), of the sides read. */
+function worseSide(run: RunRow): MachineSide {
+  return [...run.readings].sort((a, b) => b.average.amplitude - a.average.amplitude)[0]!.sensorSide;
+}
+
+/** The plane a side's sensor answers most: its own plane on a two-plane rotor, the only one otherwise. */
+function planeOfSide(side: MachineSide, planeCount: number): number {
+  return planeCount === 2 && side === 'right' ? 1 : 0;
+}
+
+/** What a correction is computed from. */
+export interface CorrectionContext {
+  readonly method: CorrectionMethod;
+  readonly setup: StoredSetup;
+  readonly planeRadiiMm: readonly number[];
+  readonly runs: readonly RunRow[];
+  readonly corrections: readonly CorrectionRow[];
+  readonly familySensitivities: readonly StoredSensitivity[];
+}
+
+/** A correction as the server computed it, ready to store. */
+export type ComputedCorrection = Pick<
+  JobCorrection,
+  'method' | 'basis' | 'runIds' | 'calc' | 'result' | 'plan' | 'warnings'
+>;
+
+/** One calculator answer, or the engine's refusal as a 409 on the stored readings. */
+function calc<Name extends 'one-run' | 'single-plane' | 'multi-plane'>(
+  name: Name,
+  request: object,
+): CalcResponse<Name> {
+  const outcome = calculate(name, request);
+  if (outcome.status === 200) return outcome.result as CalcResponse<Name>;
+  throw new HttpProblem(
+    409,
+    'Conflict',
+    `The stored readings do not give a correction: ${outcome.problem.detail ?? outcome.problem.title}`,
+    outcome.problem.errors,
+    'about:blank',
+    outcome.problem.code ?? JOBS_PROBLEM_CODES.methodNotPossible,
+  );
+}
+
+/**
+ * Computes a correction from the stored runs with the method asked for, through the calculator's routes:
+ * - `one-run`: the latest reading of the worse side and the family's stored sensitivity for that sensor
+ *   and plane (converted to the job's unit);
+ * - `single-plane`: from the initial run and the latest trial run in the plane (`trial`), or, once a
+ *   correction has been fitted and verified, from the run before it and the verification run with the
+ *   weights added between them as the trial (`trim`: the engine's `trimRun` relation);
+ * - `multi-plane`: both sensors, the initial run, every trial run and every verification run (with the
+ *   job's weights on the rotor during each): more runs than planes are fitted by least squares.
+ * The plan is what to add now, on top of the weights already fitted.
+ */
+export function computeCorrection(context: CorrectionContext): ComputedCorrection {
+  const { setup, runs, planeRadiiMm } = context;
+  const sign = weightSign(setup.weightAngles);
+  const initial = runs.find((run) => run.kind === 'initial');
+  if (initial === undefined) throw notPossible('Take the initial run first.');
+  const base = baseRun(runs)!;
+  const onRotor = installedSoFar(context.corrections, planeRadiiMm);
+  if (onRotor.length !== base.weightsOnRotor.length) {
+    throw notPossible('Weights were fitted since the last run: take a verification run with them on first.');
+  }
+  const weightAngles = setup.weightAngles;
+  const planeCount = planeRadiiMm.length;
+
+  if (context.method === 'one-run') {
+    const side = worseSide(base);
+    const planeIndex = planeOfSide(side, planeCount);
+    const figure = context.familySensitivities.find(
+      (stored) => stored.sensorSide === side && stored.planeIndex === planeIndex,
+    );
+    if (figure === undefined) {
+      throw notPossible(
+        `The machine's family has no stored sensitivity for the ${side} sensor and plane ${planeIndex}: ` +
+          'use a trial weight.',
+      );
+    }
+    const massPerAmplitude = figure.gramsPerUnit * convertVibration(1, setup.amplitudeUnit, figure.unit);
+    const request = {
+      reading: sideReading(base, side, setup)!,
+      sensitivity: { massPerAmplitude, offsetDeg: figure.phaseLagDeg },
+      weightAngles,
+    };
+    const result = calc('one-run', request);
+    return {
+      method: 'one-run',
+      basis: 'sensitivity',
+      runIds: [base.id],
+      calc: { route: 'one-run', request, sensorSides: [side] },
+      result,
+      plan: [{ planeIndex, massGrams: result.correction.mass, angleDeg: result.correction.angleDeg }],
+      warnings: [...result.warnings],
+    };
+  }
+
+  if (context.method === 'single-plane') {
+    const side = worseSide(base);
+    const planeIndex = planeOfSide(side, planeCount);
+    if (base.kind === 'verification') {
+      const before = [...runs].reverse().find((run) => run.kind !== 'trial' && run.sequence < base.sequence)!;
+      const added = subtract(
+        planeSum(base.weightsOnRotor, planeIndex, sign),
+        planeSum(before.weightsOnRotor, planeIndex, sign),
+      );
+      const beforeReading = sideReading(before, side, setup);
+      const afterReading = sideReading(base, side, setup);
+      if (magnitude(added) === 0 || beforeReading === undefined || afterReading === undefined) {
+        throw notPossible(
+          `No weight was added in plane ${planeIndex} between runs ${before.sequence} and ${base.sequence}, ` +
+            `or the ${side} sensor was not read in both: the trim cannot be computed.`,
+        );
+      }
+      const addedWeight = modelToWeight(added, sign);
+      const request = {
+        initial: beforeReading,
+        trialWeight: { mass: addedWeight.mass, angleDeg: addedWeight.angleDeg },
+        withTrial: afterReading,
+        trialWeightRemoved: false,
+        weightAngles,
+      };
+      const result = calc('single-plane', request);
+      const previous = latestCoefficient(context.corrections, side, planeIndex);
+      const trim = trimRun({
+        before: beforeReading,
+        added: [addedWeight],
+        after: afterReading,
+        weightAngles,
+        ...(previous === undefined ? {} : { previous }),
+      });
+      return {
+        method: 'single-plane',
+        basis: 'trim',
+        runIds: [before.id, base.id],
+        calc: { route: 'single-plane', request, sensorSides: [side] },
+        result,
+        plan: [{ planeIndex, massGrams: result.correction.mass, angleDeg: result.correction.angleDeg }],
+        warnings: [...new Set([...result.warnings, ...trim.warnings])],
+      };
+    }
+    const trial = [...runs]
+      .reverse()
+      .find((run) => run.kind === 'trial' && run.trialWeight?.planeIndex === planeIndex);
+    if (trial === undefined) {
+      throw notPossible(`Take a trial run with a trial weight in plane ${planeIndex} first.`);
+    }
+    const withTrial = sideReading(trial, side, setup);
+    if (withTrial === undefined) {
+      throw notPossible(`The trial run ${trial.sequence} has no reading of the ${side} sensor.`);
+    }
+    const request = {
+      initial: sideReading(initial, side, setup)!,
+      trialWeight: { mass: trial.trialWeight!.massGrams, angleDeg: trial.trialWeight!.angleDeg },
+      withTrial,
+      weightAngles,
+    };
+    const result = calc('single-plane', request);
+    return {
+      method: 'single-plane',
+      basis: 'trial',
+      runIds: [initial.id, trial.id],
+      calc: { route: 'single-plane', request, sensorSides: [side] },
+      result,
+      plan: [{ planeIndex, massGrams: result.correction.mass, angleDeg: result.correction.angleDeg }],
+      warnings: [...result.warnings],
+    };
+  }
+
+  // Two planes: every sensor, every trial and verification run.
+  if (planeCount < 2) throw notPossible('The machine has one plane: use single-plane or one-run.');
+  const sides = SIDE_ORDER.filter((side) => initial.readings.some((reading) => reading.sensorSide === side));
+  if (sides.length < planeCount) {
+    throw notPossible('Two planes need both sensors read in the initial run.');
+  }
+  const used = runs.filter((run) => run.kind !== 'initial');
+  for (let plane = 0; plane < planeCount; plane++) {
+    if (!used.some((run) => run.kind === 'trial' && run.trialWeight?.planeIndex === plane)) {
+      throw notPossible(`Take a trial run with a trial weight in plane ${plane} first.`);
+    }
+  }
+  const readingsOf = (run: RunRow): Reading[] =>
+    sides.map((side) => {
+      const reading = sideReading(run, side, setup);
+      if (reading === undefined)
+        throw notPossible(`Run ${run.sequence} has no reading of the ${side} sensor.`);
+      return reading;
+    });
+  const request = {
+    planes: planeCount,
+    initial: readingsOf(initial),
+    runs: used.map((run) => ({
+      weights: [...run.weightsOnRotor, ...(run.trialWeight ? [run.trialWeight] : [])].map((weight) => ({
+        plane: weight.planeIndex + 1,
+        mass: weight.massGrams,
+        angleDeg: weight.angleDeg,
+      })),
+      readings: readingsOf(run),
+    })),
+    weightAngles,
+  };
+  const result = calc('multi-plane', request);
+  const plan = result.corrections.map((correction) => {
+    const planeIndex = correction.plane - 1;
+    const toAdd = subtract(
+      weightToModel(correction.mass, correction.angleDeg, sign),
+      planeSum(onRotor, planeIndex, sign),
+    );
+    const weight = modelToWeight(toAdd, sign);
+    return { planeIndex, massGrams: weight.mass, angleDeg: weight.angleDeg };
+  });
+  return {
+    method: 'multi-plane',
+    basis: used.some((run) => run.kind === 'verification') ? 'trim' : 'trial',
+    runIds: [initial.id, ...used.map((run) => run.id)],
+    calc: { route: 'multi-plane', request, sensorSides: sides },
+    result,
+    plan,
+    warnings: [...result.warnings],
+  };
+}
+
+/** An influence coefficient of one sensor for one plane, in the engine's model (per gram). */
+export interface SideCoefficient {
+  readonly sensorSide: MachineSide;
+  readonly planeIndex: number;
+  readonly amplitudePerMass: number;
+  readonly phaseDeg: number;
+}
+
+/** The influence coefficients a stored correction stands on. */
+export function coefficientsOf(
+  correction: Pick<CorrectionRow, 'calc' | 'result' | 'plan'>,
+): SideCoefficient[] {
+  const { route, request, sensorSides } = correction.calc;
+  if (route === 'one-run') {
+    const sensitivity = (request as { sensitivity: { massPerAmplitude: number; offsetDeg: number } })
+      .sensitivity;
+    return [
+      {
+        sensorSide: sensorSides[0]!,
+        planeIndex: correction.plan[0]!.planeIndex,
+        amplitudePerMass: 1 / sensitivity.massPerAmplitude,
+        phaseDeg: sensitivity.offsetDeg,
+      },
+    ];
+  }
+  if (route === 'single-plane') {
+    const coefficient = (correction.result as CalcResponse<'single-plane'>).influenceCoefficient;
+    return [{ sensorSide: sensorSides[0]!, planeIndex: correction.plan[0]!.planeIndex, ...coefficient }];
+  }
+  return (correction.result as CalcResponse<'multi-plane'>).influenceCoefficients.map((coefficient) => ({
+    sensorSide: sensorSides[coefficient.sensor - 1]!,
+    planeIndex: coefficient.plane - 1,
+    amplitudePerMass: coefficient.amplitudePerMass,
+    phaseDeg: coefficient.phaseDeg,
+  }));
+}
+
+/** The coefficient of a side and plane in the latest correction that measured it, if any. */
+function latestCoefficient(corrections: readonly CorrectionRow[], side: MachineSide, planeIndex: number) {
+  for (const correction of [...corrections].reverse()) {
+    if (correction.basis === 'sensitivity') continue;
+    const found = coefficientsOf(correction).find(
+      (coefficient) => coefficient.sensorSide === side && coefficient.planeIndex === planeIndex,
+    );
+    if (found) return { amplitudePerMass: found.amplitudePerMass, phaseDeg: found.phaseDeg };
+  }
+  return undefined;
+}
+
+/**
+ * The reading each sensor of a correction should show once `installed` is on: the base run's reading
+ * (the last run without a trial weight that the correction used) plus the model's effect of the installed
+ * weights, V + sum_p H_p w_p, in the instrument's phase counting.
+ */
+export function predictInstalled(
+  correction: Pick<CorrectionRow, 'calc' | 'result' | 'plan' | 'runIds'>,
+  installed: readonly InstalledWeight[],
+  runs: readonly RunRow[],
+  setup: StoredSetup,
+  planeRadiiMm: readonly number[],
+): { sensorSide: MachineSide; reading: Reading }[] {
+  const sign = weightSign(setup.weightAngles);
+  const used = runs.filter((run) => correction.runIds.includes(run.id));
+  const base = baseRun(used);
+  if (base === undefined) throw new Error('A correction always uses a run without a trial weight.');
+  const weights = installed.map((weight) => equivalentAtPlane(weight, planeRadiiMm));
+  const coefficients = coefficientsOf(correction);
+  return correction.calc.sensorSides.map((side) => {
+    let predicted = readingToPhasor(sideReading(base, side, setup)!);
+    for (const coefficient of coefficients.filter((c) => c.sensorSide === side)) {
+      const effect = multiply(
+        phasor(coefficient.amplitudePerMass, coefficient.phaseDeg),
+        planeSum(weights, coefficient.planeIndex, sign),
+      );
+      predicted = add(predicted, effect);
+    }
+    return { sensorSide: side, reading: fromLag(phasorToReading(predicted), setup) };
+  });
+}
+
+/** The acceptance level as an amplitude limit in the job's unit, or null when it cannot be read so. */
+function amplitudeLimit(
+  level: AcceptanceLevel,
+  unit: AmplitudeUnit,
+  side: MachineSide,
+  grade: { rotorMassKg: number | null; speedRpm: number; planeRadiiMm: readonly number[] },
+  coefficients: readonly SideCoefficient[],
+): number | null {
+  if (level.kind === 'shop-target') return convertVibration(level.amplitude, level.unit, unit);
+  if (level.kind === 'severity-zone') {
+    const [ab, bc] = ISO_10816_3_ZONE_LIMITS_MM_S_RMS[level.group][level.foundation];
+    return convertVibration(level.zone === 'A' ? ab : bc, 'mm/s-rms', unit);
+  }
+  // A balance grade is a permissible unbalance per plane: as an amplitude, U_per / r x |H| of the side.
+  const planeIndex = planeOfSide(side, grade.planeRadiiMm.length);
+  const coefficient = coefficients.find((c) => c.sensorSide === side && c.planeIndex === planeIndex);
+  if (grade.rotorMassKg === null || coefficient === undefined) return null;
+  const radiusMm = grade.planeRadiiMm[planeIndex]!;
+  const tolerance = balanceTolerance({
+    grade: level.grade,
+    rotorMassKg: grade.rotorMassKg,
+    speedRpm: grade.speedRpm,
+  });
+  const perPlaneGmm =
+    grade.planeRadiiMm.length === 1
+      ? tolerance.permissibleUnbalanceGmm
+      : (tolerance.planes[planeIndex]?.permissibleUnbalanceGmm ?? tolerance.permissibleUnbalanceGmm / 2);
+  return (perPlaneGmm / radiusMm) * coefficient.amplitudePerMass;
+}
+
+/** The verdict on a run against the acceptance level, with the side to work next and why. */
+export function verdictOf(
+  run: RunRow,
+  level: AcceptanceLevel,
+  setup: StoredSetup,
+  grade: { rotorMassKg: number | null; speedRpm: number; planeRadiiMm: readonly number[] },
+  corrections: readonly CorrectionRow[],
+) {
+  const measured = corrections.filter((c) => c.basis !== 'sensitivity').flatMap(coefficientsOf);
+  const unit = setup.amplitudeUnit;
+  const sides = SIDE_ORDER.flatMap((side) => {
+    const reading = run.readings.find((r) => r.sensorSide === side);
+    if (reading === undefined) return [];
+    const limit = amplitudeLimit(level, unit, side, grade, measured);
+    const amplitude = reading.average.amplitude;
+    return [{ sensorSide: side, amplitude, limit, accepted: limit !== null && amplitude <= limit }];
+  });
+  const open = sides.filter((side) => !side.accepted).sort((a, b) => b.amplitude - a.amplitude);
+  const format = (value: number) => `${Number(value.toPrecision(3))} ${unit}`;
+  let why: string;
+  const next = open[0];
+  if (next === undefined) {
+    why = `Every side is within the acceptance level (${sides
+      .map((side) => `${side.sensorSide} ${format(side.amplitude)} ≤ ${format(side.limit!)}`)
+      .join(', ')}).`;
+  } else if (next.limit === null) {
+    why =
+      `The ${next.sensorSide} side cannot be judged against the balance grade yet: it needs the rotor's mass ` +
+      'and an influence coefficient measured with a trial weight.';
+  } else {
+    const other = sides.find((side) => side.sensorSide !== next.sensorSide);
+    why =
+      `The ${next.sensorSide} side reads ${format(next.amplitude)}, above its limit of ${format(next.limit)}` +
+      (other === undefined
+        ? '.'
+        : other.accepted
+          ? `; the ${other.sensorSide} side is within its limit.`
+          : `, and above the ${other.sensorSide} side (${format(other.amplitude)}): work the worse side first.`);
+  }
+  return {
+    runId: run.id,
+    acceptance: level,
+    sides,
+    accepted: open.length === 0 && sides.length > 0,
+    nextSide: next?.sensorSide ?? null,
+    why,
+  };
+}
+
+/**
+ * The influence coefficients a job measured, in its unit per gram: from the latest two-plane correction,
+ * else from the latest verification against the run before it (the last fitted weights as a trim run,
+ * `trimRun`), else from the latest trial-weight correction. A job balanced by a stored sensitivity
+ * alone, never verified, measured nothing.
+ */
+export function measuredCoefficients(
+  runs: readonly RunRow[],
+  corrections: readonly CorrectionRow[],
+  setup: StoredSetup,
+  planeRadiiMm: readonly number[],
+): SideCoefficient[] {
+  const latest = [...corrections].reverse().find((correction) => correction.basis !== 'sensitivity');
+  if (latest?.method === 'multi-plane') return coefficientsOf(latest);
+  const sign = weightSign(setup.weightAngles);
+  const base = baseRun(runs);
+  if (base?.kind === 'verification') {
+    const before = [...runs].reverse().find((run) => run.kind !== 'trial' && run.sequence < base.sequence);
+    const side = corrections.at(-1)?.calc.sensorSides[0] ?? worseSide(base);
+    const planeIndex = planeOfSide(side, planeRadiiMm.length);
+    const added = before
+      ? subtract(
+          planeSum(base.weightsOnRotor, planeIndex, sign),
+          planeSum(before.weightsOnRotor, planeIndex, sign),
+        )
+      : { re: 0, im: 0 };
+    const beforeReading = before && sideReading(before, side, setup);
+    const afterReading = sideReading(base, side, setup);
+    if (magnitude(added) > 0 && beforeReading && afterReading) {
+      try {
+        const trim = trimRun({
+          before: beforeReading,
+          added: [modelToWeight(added, sign)],
+          after: afterReading,
+          weightAngles: setup.weightAngles,
+        });
+        return [{ sensorSide: side, planeIndex, ...trim.influenceCoefficient }];
+      } catch {
+        // A verification that did not move the reading measured nothing; fall back to the trial.
+      }
+    }
+  }
+  return latest === undefined ? [] : coefficientsOf(latest);
+}
+
+/**
+ * A family's stored sensitivities refined with every completed job's coefficients (this one's included):
+ * `refineFamilySensitivity` per sensor and plane (vector mean, count, spread, outliers set aside), in the
+ * unit of the figure already stored (the job's unit for a new one). The spread's phase is the angle a
+ * vector of that relative size subtends, asin(spread), capped at 180 degrees.
+ */
+export function refinedSensitivities(
+  stored: readonly StoredSensitivity[],
+  jobCoefficients: readonly {
+    sensorSide: MachineSide;
+    planeIndex: number;
+    amplitudePerGram: number;
+    phaseDeg: number;
+    unit: AmplitudeUnit;
+  }[],
+  fallbackUnit: AmplitudeUnit,
+): StoredSensitivity[] {
+  const keys = new Set(jobCoefficients.map((c) => `${c.sensorSide}/${c.planeIndex}`));
+  const next = stored.filter((figure) => !keys.has(`${figure.sensorSide}/${figure.planeIndex}`));
+  for (const key of [...keys].sort()) {
+    const [side, plane] = key.split('/') as [MachineSide, string];
+    const planeIndex = Number(plane);
+    const unit =
+      stored.find((f) => f.sensorSide === side && f.planeIndex === planeIndex)?.unit ?? fallbackUnit;
+    const coefficients = jobCoefficients
+      .filter((c) => c.sensorSide === side && c.planeIndex === planeIndex)
+      .map((c) => ({
+        amplitudePerMass: convertVibration(c.amplitudePerGram, c.unit, unit),
+        phaseDeg: c.phaseDeg,
+      }));
+    const refined = refineFamilySensitivity({ coefficients });
+    next.push({
+      sensorSide: side,
+      planeIndex,
+      gramsPerUnit: refined.sensitivity.massPerAmplitude,
+      unit,
+      phaseLagDeg: normalizeAngleDeg(refined.sensitivity.offsetDeg),
+      jobCount: refined.count,
+      spread:
+        refined.count < 2
+          ? null
+          : {
+              massPercent: refined.spreadRatio * 100,
+              phaseDeg: Math.min(180, (Math.asin(Math.min(1, refined.spreadRatio)) * 180) / Math.PI),
+            },
+    });
+  }
+  return next.sort((a, b) => a.planeIndex - b.planeIndex || a.sensorSide.localeCompare(b.sensorSide));
+}
