@@ -8,7 +8,8 @@ import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { AuthSession } from '../auth/auth-session';
 import { recordList } from '../records/record-list';
-import { RecordListFilters, RecordListFrame } from '../records/record-list-frame';
+import { RecordListFilters } from '../records/record-list-filters';
+import { ListPage } from '../shell/list-page';
 import { type Customer, CustomersApi, type CustomerSortField } from './customers.api';
 
 /**
@@ -19,13 +20,13 @@ import { type Customer, CustomersApi, type CustomerSortField } from './customers
 @Component({
   selector: 'app-customers-page',
   imports: [
+    ListPage,
     DatePipe,
     MatButtonModule,
     MatIconModule,
     MatSortModule,
     MatTableModule,
     RecordListFilters,
-    RecordListFrame,
     RouterLink,
   ],
   templateUrl: './customers-page.html',

@@ -27,6 +27,7 @@ import { API_REFERENCE_URL } from '../status/health.api';
 import { CreateKeyDialog } from './create-key-dialog';
 import { KeysApi } from './keys.api';
 import { ErrorBanner } from '../forms/error-banner';
+import { ListPage, resourceSource } from '../shell/list-page';
 
 /**
  * The organisation's API keys: creating one (shown once, with a copy button), what each is called, how it
@@ -35,6 +36,7 @@ import { ErrorBanner } from '../forms/error-banner';
 @Component({
   selector: 'app-keys-page',
   imports: [
+    ListPage,
     ErrorBanner,
     DatePipe,
     MatButtonModule,
@@ -56,6 +58,8 @@ export class KeysPage {
   private readonly injector = inject(Injector);
 
   protected readonly list = this.api.listResource();
+  /** The keys as ListPage frames them. */
+  protected readonly source = resourceSource(this.list);
   /** Keys in use first, the newest at the top; revoked keys after them, kept for the record. */
   protected readonly keys = computed(() =>
     // value() throws while the resource is in error, hence hasValue() first.

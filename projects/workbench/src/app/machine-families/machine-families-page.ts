@@ -8,7 +8,8 @@ import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { AuthSession } from '../auth/auth-session';
 import { recordList } from '../records/record-list';
-import { RecordListFilters, RecordListFrame } from '../records/record-list-frame';
+import { RecordListFilters } from '../records/record-list-filters';
+import { ListPage } from '../shell/list-page';
 import { formatNumber, ROTOR_TYPE_LABELS } from '../records/record-labels';
 import { MachineFamiliesApi, type MachineFamily, type MachineFamilySortField } from './machine-families.api';
 
@@ -19,13 +20,13 @@ import { MachineFamiliesApi, type MachineFamily, type MachineFamilySortField } f
 @Component({
   selector: 'app-machine-families-page',
   imports: [
+    ListPage,
     DatePipe,
     MatButtonModule,
     MatIconModule,
     MatSortModule,
     MatTableModule,
     RecordListFilters,
-    RecordListFrame,
     RouterLink,
   ],
   templateUrl: './machine-families-page.html',

@@ -12,7 +12,8 @@ import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { AuthSession } from '../auth/auth-session';
 import { recordList } from '../records/record-list';
-import { RecordListFilters, RecordListFrame } from '../records/record-list-frame';
+import { RecordListFilters } from '../records/record-list-filters';
+import { ListPage } from '../shell/list-page';
 import { type CustomerChoice, CustomerPicker, isCustomerRef } from '../customers/customer-picker';
 import { CustomersApi } from '../customers/customers.api';
 import { MachineFamiliesApi } from '../machine-families/machine-families.api';
@@ -29,6 +30,7 @@ const FAMILIES_OFFERED = 100;
 @Component({
   selector: 'app-machines-page',
   imports: [
+    ListPage,
     CustomerPicker,
     DatePipe,
     MatButtonModule,
@@ -38,7 +40,6 @@ const FAMILIES_OFFERED = 100;
     MatSortModule,
     MatTableModule,
     RecordListFilters,
-    RecordListFrame,
     RouterLink,
   ],
   templateUrl: './machines-page.html',

@@ -26,6 +26,7 @@ import type { Invitation, UpdatePerson } from '../auth/api-types';
 import { AuthSession } from '../auth/auth-session';
 import { ROLE_LABELS } from '../auth/roles';
 import { askToConfirm } from '../shell/confirm-dialog';
+import { ListPage, resourceSource } from '../shell/list-page';
 import { httpErrorMessage } from '../shell/server-errors';
 import { ChangeRoleDialog } from './change-role-dialog';
 import { InviteDialog, type InviteDialogData, type InviteOutcome } from './invite-dialog';
@@ -40,6 +41,7 @@ import { ErrorBanner } from '../forms/error-banner';
 @Component({
   selector: 'app-people-page',
   imports: [
+    ListPage,
     ErrorBanner,
     DatePipe,
     MatButtonModule,
@@ -70,6 +72,16 @@ export class PeoplePage {
   protected readonly rows = computed(() =>
     sortAndFilterPeople(this.people.hasValue() ? this.people.value().people : [], this.filter(), this.sort()),
   );
+  /** The people list as ListPage frames it. */
+  protected readonly source = resourceSource(this.people);
+  protected readonly count = computed(() => {
+    const shown = this.rows().length;
+    if (this.filter().trim()) {
+      const all = this.people.hasValue() ? this.people.value().people.length : 0;
+      return `${shown} of ${all} people match.`;
+    }
+    return `${shown} ${shown === 1 ? 'person' : 'people'}.`;
+  });
   protected readonly pendingInvitations = computed(() =>
     (this.people.hasValue() ? this.people.value().invitations : []).filter(
       (invitation) => invitation.acceptedAt === null,

@@ -13,6 +13,7 @@ import {
   type ListQueryState,
   PAGE_SIZES,
 } from './list-query';
+import type { ListPaging, ListSource } from '../shell/list-page';
 import { type ListPage, pagedList, type PagedList } from './paged-list';
 import type { ArchivedFilter } from './records-api';
 import { searchBox } from './search-box';
@@ -35,15 +36,18 @@ export interface RecordList<T, S extends string = string> {
   readonly state: Signal<ListQueryState<S>>;
   readonly list: PagedList<T>;
   readonly search: FormControl<string>;
+  /** The list as ListPage frames it: shown while a page is there, and why not. */
+  readonly source: ListSource;
+  /** The count sentence above the table, once a page is there. */
+  readonly count: Signal<string | null>;
+  /** The paginator's state and its turning, once a page is there. */
+  readonly paging: Signal<ListPaging | null>;
   /** The rows of the page shown, none while the first page is on its way. */
   readonly rows: Signal<readonly T[]>;
   /** "in use", "archived" or "in all", as the empty table's sentence names the archived filter. */
   readonly archivedNoun: Signal<string>;
-  readonly pageSizes: readonly number[];
-  countSentence(total: number): string;
   sortBy(sort: Sort): void;
   showArchived(archived: ArchivedFilter): void;
-  turnPage(event: PageEvent): void;
   /** The table's trackBy: a record is the same row while its id is. */
   trackById(index: number, record: T): number;
 }
@@ -63,14 +67,34 @@ export function recordList<T extends { readonly id: number }, S extends string>(
       computed(() => state().q),
       (q) => query.change({ q }, { replaceUrl: true }),
     ),
+    source: {
+      error: list.error,
+      loading: list.loading,
+      ready: computed(() => list.page() !== null),
+      reload: () => list.reload(),
+    },
+    count: computed(() => {
+      const page = list.page();
+      return page ? listCount(page.total, options.nouns, state()) : null;
+    }),
+    paging: computed(() => {
+      const page = list.page();
+      return page
+        ? {
+            length: page.total,
+            pageIndex: state().page - 1,
+            pageSize: state().pageSize,
+            pageSizes: PAGE_SIZES,
+            turnPage: (event: PageEvent) =>
+              query.change({ page: event.pageIndex + 1, pageSize: event.pageSize }),
+          }
+        : null;
+    }),
     rows: computed<readonly T[]>(() => list.page()?.items ?? []),
     archivedNoun: computed(() => ARCHIVED_NOUNS[state().archived]),
-    pageSizes: PAGE_SIZES,
-    countSentence: (total) => listCount(total, options.nouns, state()),
     sortBy: (sort) =>
       query.change({ sort: sort.active as S, order: sort.direction === 'desc' ? 'desc' : 'asc' }),
     showArchived: (archived) => query.change({ archived }),
-    turnPage: (event) => query.change({ page: event.pageIndex + 1, pageSize: event.pageSize }),
     trackById: (_index, record) => record.id,
   };
 }
