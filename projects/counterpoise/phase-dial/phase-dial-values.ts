@@ -5,14 +5,11 @@
  */
 import {
   type RotationCounting,
-  describeAngle,
-  formatAngle,
+  _describeAngle as describeAngle,
+  _formatAngle as formatAngle,
+  _normalizeDeg as normalizeDeg,
   isAllowedPosition,
-  normalizeDeg,
 } from '@counterpoise/ng/core';
-
-// phase-dial-drawing.ts still imports formatAngle from here; the one formatter is core's.
-export { formatAngle } from '@counterpoise/ng/core';
 
 /** What a marker on the dial stands for. */
 export type PhaseDialMarkerKind = 'heavySpot' | 'trialWeight' | 'correction' | 'reading';

@@ -38,9 +38,9 @@ import {
   type DialConvention,
   type DialPositions,
   type RotationDirection,
-  angleAtPoint,
-  expandPositions,
-  formatAngle,
+  _angleAtPoint as angleAtPoint,
+  _expandPositions as expandPositions,
+  _formatAngle as formatAngle,
   snapAngle,
 } from '@counterpoise/ng/core';
 import {

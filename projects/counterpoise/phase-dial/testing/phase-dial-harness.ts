@@ -7,7 +7,12 @@ import {
   parallel,
 } from '@angular/cdk/testing';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
-import { type DialConvention, normalizeDeg, pointAtScreenAngle, screenAngleDeg } from '@counterpoise/ng/core';
+import {
+  type DialConvention,
+  _normalizeDeg as normalizeDeg,
+  _pointAtScreenAngle as pointAtScreenAngle,
+  _screenAngleDeg as screenAngleDeg,
+} from '@counterpoise/ng/core';
 import type { PhaseDialMarkerKind } from '@counterpoise/ng/phase-dial';
 
 /** A key the dial handles, for `pressKey`. */
