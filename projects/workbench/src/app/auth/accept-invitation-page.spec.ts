@@ -70,7 +70,7 @@ describe('AcceptInvitationPage', () => {
       await loader.getHarness(MatInputHarness.with({ selector: '[formControlName=name]' }))
     ).setValue(' Suvi Achterberg ');
     await (
-      await loader.getHarness(MatInputHarness.with({ selector: '[formControlName=password]' }))
+      await loader.getHarness(MatInputHarness.with({ selector: '[autocomplete=new-password]' }))
     ).setValue('the kettle sings at dawn');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Join and sign in' }))).click();
 
@@ -89,7 +89,7 @@ describe('AcceptInvitationPage', () => {
     http.expectOne('/api/v1/invitations/inv-42').flush(PREVIEW);
     await harness.fixture.whenStable();
     await (
-      await loader.getHarness(MatInputHarness.with({ selector: '[formControlName=password]' }))
+      await loader.getHarness(MatInputHarness.with({ selector: '[autocomplete=new-password]' }))
     ).setValue('short');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Join and sign in' }))).click();
     await harness.fixture.whenStable();
@@ -116,7 +116,7 @@ describe('AcceptInvitationPage', () => {
     http.expectOne('/api/v1/invitations/inv-42').flush(PREVIEW);
     await harness.fixture.whenStable();
     const password = await loader.getHarness(
-      MatInputHarness.with({ selector: '[formControlName=password]' }),
+      MatInputHarness.with({ selector: '[autocomplete=new-password]' }),
     );
     await (
       await loader.getHarness(MatInputHarness.with({ selector: '[formControlName=name]' }))

@@ -13,7 +13,7 @@ import { errorMessage, requiredWith, schemaValidator } from '../shell/validators
 import type { InvitationPreview } from './api-types';
 import { AuthSession } from './auth-session';
 import { PASSWORD_RULE } from './password-rule';
-import { PasswordToggle } from './password-toggle';
+import { PasswordField } from '../forms/password-field';
 import { ROLE_LABELS, ROLE_SUMMARIES } from './roles';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
@@ -32,7 +32,7 @@ import { BusyButton } from '../forms/busy-button';
     MatIconModule,
     MatInputModule,
     MatProgressSpinnerModule,
-    PasswordToggle,
+    PasswordField,
     ReactiveFormsModule,
     RouterLink,
   ],

@@ -2,16 +2,14 @@ import { HttpClient } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { PasswordSchema } from '@counterpoise/api';
 import { formErrorOf, problemOf } from '../shell/server-errors';
-import { errorMessage, requiredWith, schemaValidator } from '../shell/validators';
+import { requiredWith, schemaValidator } from '../shell/validators';
 import { AUTH_URLS } from './auth-session';
 import { PASSWORD_RULE } from './password-rule';
-import { PasswordToggle } from './password-toggle';
+import { PasswordField } from '../forms/password-field';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
 
@@ -22,10 +20,8 @@ import { BusyButton } from '../forms/busy-button';
     BusyButton,
     ErrorBanner,
     MatButtonModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
-    PasswordToggle,
+    PasswordField,
     ReactiveFormsModule,
     RouterLink,
   ],
@@ -59,21 +55,12 @@ import { BusyButton } from '../forms/busy-button';
             }
           </app-error-banner>
         }
-        <mat-form-field appearance="outline" subscriptSizing="dynamic">
-          <mat-label>New password</mat-label>
-          <input
-            #passwordInput
-            matInput
-            type="password"
-            formControlName="password"
-            autocomplete="new-password"
-            autocapitalize="off"
-            spellcheck="false"
-          />
-          <app-password-toggle matSuffix [input]="passwordInput" />
-          <mat-hint>{{ passwordRule }}</mat-hint>
-          <mat-error>{{ errorMessage(form.controls.password) }}</mat-error>
-        </mat-form-field>
+        <app-password-field
+          [control]="form.controls.password"
+          label="New password"
+          autocomplete="new-password"
+          [hint]="passwordRule"
+        />
         <app-busy-button
           class="submit"
           type="submit"
@@ -101,7 +88,6 @@ export class ResetPasswordPage {
   /** Whether the server refused the link itself (used, expired or unknown), not the password. */
   protected readonly linkSpent = signal(false);
   protected readonly passwordRule = PASSWORD_RULE;
-  protected readonly errorMessage = errorMessage;
 
   protected submit(): void {
     const token = this.token();

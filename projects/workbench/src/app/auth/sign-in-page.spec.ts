@@ -40,7 +40,7 @@ describe('SignInPage', () => {
     const element = harness.routeNativeElement as HTMLElement;
     const email = await loader.getHarness(MatInputHarness.with({ selector: '[type=email]' }));
     const password = await loader.getHarness(
-      MatInputHarness.with({ selector: '[formControlName=password]' }),
+      MatInputHarness.with({ selector: '[autocomplete=current-password]' }),
     );
     const submit = await loader.getHarness(MatButtonHarness.with({ text: 'Sign in' }));
     const fields = await loader.getAllHarnesses(MatFormFieldHarness);

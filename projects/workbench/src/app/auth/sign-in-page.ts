@@ -1,16 +1,14 @@
 import { HttpErrorResponse } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { Router, RouterLink } from '@angular/router';
 import type { ACCOUNTS_PROBLEM_CODES } from '@counterpoise/api';
 import { formErrorOf, problemOf } from '../shell/server-errors';
-import { errorMessage, requiredWith } from '../shell/validators';
+import { requiredWith } from '../shell/validators';
 import { safeReturnUrl } from './auth.guards';
 import { AuthSession } from './auth-session';
-import { PasswordToggle } from './password-toggle';
+import { PasswordField } from '../forms/password-field';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
 import { EmailField } from '../forms/email-field';
@@ -22,10 +20,8 @@ import { EmailField } from '../forms/email-field';
     EmailField,
     BusyButton,
     ErrorBanner,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
-    PasswordToggle,
+    PasswordField,
     ReactiveFormsModule,
     RouterLink,
   ],
@@ -52,7 +48,6 @@ export class SignInPage {
   });
   protected readonly busy = signal(false);
   protected readonly formError = signal<string | null>(null);
-  protected readonly errorMessage = errorMessage;
 
   protected submit(): void {
     if (this.busy()) return;

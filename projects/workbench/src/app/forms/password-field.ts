@@ -1,0 +1,60 @@
+import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { type FormControl, ReactiveFormsModule } from '@angular/forms';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { errorMessage } from '../shell/validators';
+import { PasswordToggle } from './password-toggle';
+
+/**
+ * A password field: no capitals or spelling correction, the autocomplete that tells a password manager
+ * whether to fill (`current-password`) or to offer a new one (`new-password`), the button that reads it back,
+ * an optional rule under it and the control's first message. Like EmailField it brings no validators and
+ * no API schema, so that the sign-in page stays light.
+ *
+ * `<app-password-field [control]="form.controls.password" autocomplete="new-password" [hint]="passwordRule" />`
+ */
+@Component({
+  selector: 'app-password-field',
+  imports: [MatFormFieldModule, MatInputModule, PasswordToggle, ReactiveFormsModule],
+  template: `
+    <mat-form-field appearance="outline" subscriptSizing="dynamic">
+      <mat-label>{{ label() }}</mat-label>
+      <input
+        #passwordInput
+        matInput
+        type="password"
+        [formControl]="control()"
+        [attr.autocomplete]="autocomplete()"
+        autocapitalize="off"
+        spellcheck="false"
+      />
+      <app-password-toggle matSuffix [input]="passwordInput" />
+      @if (hint(); as hint) {
+        <mat-hint>{{ hint }}</mat-hint>
+      }
+      <mat-error>{{ errorMessage(control()) }}</mat-error>
+    </mat-form-field>
+  `,
+  styles: `
+    :host {
+      display: block;
+    }
+
+    mat-form-field {
+      width: 100%;
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class PasswordField {
+  /** The form's control of the password, with its validators. */
+  readonly control = input.required<FormControl<string>>();
+  /** The field's label. */
+  readonly label = input('Password');
+  /** `current-password` to sign in, `new-password` where one is chosen. */
+  readonly autocomplete = input.required<'current-password' | 'new-password'>();
+  /** The rule of a new password, under the field. */
+  readonly hint = input<string | null>(null);
+
+  protected readonly errorMessage = errorMessage;
+}
