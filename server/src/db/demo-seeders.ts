@@ -2,6 +2,7 @@ import { seedDemoAccounts } from '../auth/accounts.seed';
 import { seedDemoCustomers } from '../customers/customers.seed';
 import { seedDemoApiKey } from '../keys/keys.seed';
 import { seedDemoMachineFamilies } from '../machine-families/machine-families.seed';
+import { seedDemoJobs } from '../jobs/jobs.seed';
 import { seedDemoMachines } from '../machines/machines.seed';
 import type { DemoSeeder } from './seed';
 
@@ -16,4 +17,5 @@ export const DEMO_SEEDERS: readonly DemoSeeder[] = [
   seedDemoCustomers,
   seedDemoMachineFamilies,
   seedDemoMachines,
+  seedDemoJobs,
 ];

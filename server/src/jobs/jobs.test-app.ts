@@ -1,18 +1,12 @@
-import {
-  add,
-  multiply,
-  phasor,
-  phasorToReading,
-  type Reading,
-  readingToPhasor,
-  weightToModel,
-} from '@counterpoise/engine';
+import type { Reading } from '@counterpoise/engine';
 import request from 'supertest';
 import { expect } from 'vitest';
 import { AccountsRepo } from '../accounts/accounts.repo';
 import { hashPasswordSync } from '../auth/passwords';
 import { as, customerBody, familyBody, machineBody, type RecordsTestApp } from '../records/records.test-app';
 import { signIn, TEST_HASH_COST, TEST_PASSWORD } from '../testing/accounts';
+
+export { type ModelRotor, modelReadings } from './model-rotor';
 
 /*
  * What the jobs' specs share: a machine of a family to balance, a second technician, the steps before
@@ -152,31 +146,6 @@ export function setupBody(sides: ('left' | 'right')[]): object {
     phaseSense: 'lag',
     weightAngles: 'againstRotation',
   };
-}
-
-/** A modelled rotor: readings r = r0 + sum_p H[sensor][plane] w_p (weights in grams, angles against rotation). */
-export interface ModelRotor {
-  readonly initial: Reading[];
-  /** H[sensor][plane] as amplitude per gram and phase. */
-  readonly coefficients: { amplitudePerMass: number; phaseDeg: number }[][];
-}
-
-/** What the modelled rotor reads with these weights on. */
-export function modelReadings(
-  rotor: ModelRotor,
-  weights: readonly { planeIndex: number; massGrams: number; angleDeg: number }[],
-): Reading[] {
-  return rotor.initial.map((initial, sensor) => {
-    let z = readingToPhasor(initial);
-    for (const weight of weights) {
-      const h = rotor.coefficients[sensor]![weight.planeIndex]!;
-      z = add(
-        z,
-        multiply(phasor(h.amplitudePerMass, h.phaseDeg), weightToModel(weight.massGrams, weight.angleDeg, 1)),
-      );
-    }
-    return phasorToReading(z);
-  });
 }
 
 /** The readings of a run body: each sensor's reading, repeated `repeats` times at `speedRpm`. */
