@@ -436,7 +436,7 @@ export class JobsService {
       let reason: string | undefined;
       if (row.status === 'abandoned') reason = `The last job (${row.scheduledFor}) was abandoned.`;
       else if (row.status === 'completed' && row.completion?.accepted === false) {
-        reason = `The last job (${row.scheduledFor}) ended above the acceptance level.`;
+        reason = `The last job (${row.scheduledFor}) did not end within the acceptance level.`;
       } else if (row.status === 'completed' && row.scheduledFor < dueBefore) {
         reason = `The last job was on ${row.scheduledFor}, more than ${DUE_AFTER_DAYS} days ago.`;
       }
