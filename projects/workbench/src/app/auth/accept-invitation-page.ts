@@ -1,6 +1,6 @@
 import { DatePipe } from '@angular/common';
 import { HttpErrorResponse, httpResource } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -8,7 +8,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { Router, RouterLink } from '@angular/router';
 import { PasswordSchema, PersonNameSchema } from '@counterpoise/api';
-import { formErrorOf, httpErrorMessage } from '../shell/server-errors';
+import { httpErrorMessage } from '../shell/server-errors';
 import { errorMessage, requiredWith, schemaValidator } from '../shell/validators';
 import type { InvitationPreview } from './api-types';
 import { AuthSession } from './auth-session';
@@ -17,6 +17,7 @@ import { PasswordField } from '../forms/password-field';
 import { ROLE_LABELS, ROLE_SUMMARIES } from './roles';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
+import { FormRequest } from '../forms/form-request';
 
 /**
  * Joining an organisation from the link of an invitation (`/accept-invitation?token=…`): the person sees
@@ -65,8 +66,7 @@ export class AcceptInvitationPage {
     name: ['', [requiredWith('Enter your name.'), schemaValidator(PersonNameSchema)]],
     password: ['', [requiredWith('Choose a password.'), schemaValidator(PasswordSchema)]],
   });
-  protected readonly busy = signal(false);
-  protected readonly formError = signal<string | null>(null);
+  protected readonly request = new FormRequest();
   protected readonly passwordRule = PASSWORD_RULE;
   protected readonly roleLabels = ROLE_LABELS;
   protected readonly roleSummaries = ROLE_SUMMARIES;
@@ -74,18 +74,12 @@ export class AcceptInvitationPage {
 
   protected submit(): void {
     const token = this.token();
-    if (this.busy() || !token) return;
-    this.form.markAllAsTouched();
-    if (this.form.invalid) return;
-    this.busy.set(true);
-    this.formError.set(null);
+    if (!token) return;
     const { name, password } = this.form.getRawValue();
-    this.session.acceptInvitation(token, { name: name.trim(), password }).subscribe({
-      next: () => void this.router.navigateByUrl('/'),
-      error: (error: unknown) => {
-        this.formError.set(formErrorOf(this.form, error));
-        this.busy.set(false);
-      },
-    });
+    this.request.send(
+      this.form,
+      () => this.session.acceptInvitation(token, { name: name.trim(), password }),
+      { sent: () => void this.router.navigateByUrl('/'), leaves: true },
+    );
   }
 }

@@ -3,12 +3,12 @@ import { HttpClient } from '@angular/common/http';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
-import { formErrorOf } from '../shell/server-errors';
 import { requiredWith } from '../shell/validators';
 import { AUTH_URLS } from './auth-session';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
 import { EmailField } from '../forms/email-field';
+import { FormRequest } from '../forms/form-request';
 
 /**
  * Asking for a link to set a new password. The answer is the same whether or not the address belongs to
@@ -36,14 +36,14 @@ import { EmailField } from '../forms/email-field';
         Enter the e-mail address you sign in with. We send a link to it that lets you choose a new password.
       </p>
       <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
-        @if (formError(); as message) {
+        @if (request.formError(); as message) {
           <app-error-banner class="form-error" [message]="message" />
         }
         <app-email-field [control]="form.controls.email" autocomplete="username" subscriptSizing="dynamic" />
         <app-busy-button
           class="submit"
           type="submit"
-          [busy]="busy()"
+          [busy]="request.busy()"
           label="Send the link"
           busyLabel="Sending…"
         />
@@ -66,8 +66,7 @@ export class ForgotPasswordPage implements OnInit {
     // server answers a malformed address with the contract's own message, shown on the field.
     email: ['', requiredWith('Enter your e-mail address.')],
   });
-  protected readonly busy = signal(false);
-  protected readonly formError = signal<string | null>(null);
+  protected readonly request = new FormRequest();
   /** The address the link went to, once the server has taken the request. */
   protected readonly sentTo = signal<string | null>(null);
 
@@ -77,21 +76,9 @@ export class ForgotPasswordPage implements OnInit {
   }
 
   protected submit(): void {
-    if (this.busy()) return;
-    this.form.markAllAsTouched();
-    if (this.form.invalid) return;
-    this.busy.set(true);
-    this.formError.set(null);
     const email = this.form.controls.email.value.trim();
-    this.http.post(AUTH_URLS.passwordReset, { email }).subscribe({
-      next: () => {
-        this.sentTo.set(email);
-        this.busy.set(false);
-      },
-      error: (error: unknown) => {
-        this.formError.set(formErrorOf(this.form, error));
-        this.busy.set(false);
-      },
+    this.request.send(this.form, () => this.http.post(AUTH_URLS.passwordReset, { email }), {
+      sent: () => this.sentTo.set(email),
     });
   }
 }

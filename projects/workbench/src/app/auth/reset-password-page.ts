@@ -5,13 +5,14 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import { PasswordSchema } from '@counterpoise/api';
-import { formErrorOf, problemOf } from '../shell/server-errors';
+import { problemOf } from '../shell/server-errors';
 import { requiredWith, schemaValidator } from '../shell/validators';
 import { AUTH_URLS } from './auth-session';
 import { PASSWORD_RULE } from './password-rule';
 import { PasswordField } from '../forms/password-field';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
+import { FormRequest } from '../forms/form-request';
 
 /** Choosing a new password from the link of a reset e-mail (`/reset-password?token=…`). */
 @Component({
@@ -48,7 +49,7 @@ import { BusyButton } from '../forms/busy-button';
     } @else {
       <p class="lead">Your new password replaces the old one everywhere you sign in.</p>
       <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
-        @if (formError(); as message) {
+        @if (request.formError(); as message) {
           <app-error-banner class="form-error" [message]="message">
             @if (linkSpent()) {
               <a routerLink="/forgot-password">Ask for a new link</a>.
@@ -64,7 +65,7 @@ import { BusyButton } from '../forms/busy-button';
         <app-busy-button
           class="submit"
           type="submit"
-          [busy]="busy()"
+          [busy]="request.busy()"
           label="Save the new password"
           busyLabel="Saving…"
         />
@@ -82,35 +83,32 @@ export class ResetPasswordPage {
   protected readonly form = inject(NonNullableFormBuilder).group({
     password: ['', [requiredWith('Enter a new password.'), schemaValidator(PasswordSchema)]],
   });
-  protected readonly busy = signal(false);
+  protected readonly request = new FormRequest();
   protected readonly done = signal(false);
-  protected readonly formError = signal<string | null>(null);
   /** Whether the server refused the link itself (used, expired or unknown), not the password. */
   protected readonly linkSpent = signal(false);
   protected readonly passwordRule = PASSWORD_RULE;
 
   protected submit(): void {
     const token = this.token();
-    if (this.busy() || !token) return;
-    this.form.markAllAsTouched();
-    if (this.form.invalid) return;
-    this.busy.set(true);
-    this.formError.set(null);
-    this.linkSpent.set(false);
+    if (!token) return;
     const password = this.form.controls.password.value;
-    this.http.post(AUTH_URLS.passwordResetConfirm, { token, password }).subscribe({
-      next: () => {
-        this.done.set(true);
-        this.busy.set(false);
+    this.request.send(
+      this.form,
+      () => {
+        this.linkSpent.set(false);
+        return this.http.post(AUTH_URLS.passwordResetConfirm, { token, password });
       },
-      error: (error: unknown) => {
-        const fields = problemOf(error)?.errors ?? [];
-        const aboutPassword = fields.some((field) => field.path.replace(/^\//, '') === 'password');
-        const status = problemOf(error)?.status ?? 0;
-        this.linkSpent.set(!aboutPassword && status >= 400 && status < 500 && status !== 429);
-        this.formError.set(formErrorOf(this.form, error));
-        this.busy.set(false);
+      {
+        sent: () => this.done.set(true),
+        refused: (error) => {
+          const fields = problemOf(error)?.errors ?? [];
+          const aboutPassword = fields.some((field) => field.path.replace(/^\//, '') === 'password');
+          const status = problemOf(error)?.status ?? 0;
+          this.linkSpent.set(!aboutPassword && status >= 400 && status < 500 && status !== 429);
+          return null;
+        },
       },
-    });
+    );
   }
 }

@@ -1,10 +1,10 @@
 import { HttpErrorResponse } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatIconModule } from '@angular/material/icon';
 import { Router, RouterLink } from '@angular/router';
 import type { ACCOUNTS_PROBLEM_CODES } from '@counterpoise/api';
-import { formErrorOf, problemOf } from '../shell/server-errors';
+import { problemOf } from '../shell/server-errors';
 import { requiredWith } from '../shell/validators';
 import { safeReturnUrl } from './auth.guards';
 import { AuthSession } from './auth-session';
@@ -12,6 +12,7 @@ import { PasswordField } from '../forms/password-field';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
 import { EmailField } from '../forms/email-field';
+import { FormRequest } from '../forms/form-request';
 
 /** Signing in with an e-mail address and a password, then back to the page the person asked for. */
 @Component({
@@ -46,23 +47,14 @@ export class SignInPage {
     email: ['', requiredWith('Enter your e-mail address.')],
     password: ['', requiredWith('Enter your password.')],
   });
-  protected readonly busy = signal(false);
-  protected readonly formError = signal<string | null>(null);
+  protected readonly request = new FormRequest();
 
   protected submit(): void {
-    if (this.busy()) return;
-    this.form.markAllAsTouched();
-    if (this.form.invalid) return;
-    this.busy.set(true);
-    this.formError.set(null);
     const { email, password } = this.form.getRawValue();
-    this.session.signIn(email.trim(), password).subscribe({
-      next: () => void this.router.navigateByUrl(safeReturnUrl(this.returnUrl())),
-      error: (error: unknown) => {
-        // The typed values stay in the form whatever went wrong.
-        this.formError.set(signInRefusal(error) ?? formErrorOf(this.form, error));
-        this.busy.set(false);
-      },
+    this.request.send(this.form, () => this.session.signIn(email.trim(), password), {
+      sent: () => void this.router.navigateByUrl(safeReturnUrl(this.returnUrl())),
+      refused: signInRefusal,
+      leaves: true,
     });
   }
 }

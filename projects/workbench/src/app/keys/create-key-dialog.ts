@@ -27,11 +27,11 @@ import {
   MAX_LIMIT_PER_MINUTE,
 } from '@counterpoise/api';
 import type { CreatedApiKey } from '../auth/api-types';
-import { formErrorOf } from '../shell/server-errors';
 import { errorMessage, requiredWith, schemaError, schemaValidator } from '../shell/validators';
 import { type CreateApiKeyRequest, KeysApi } from './keys.api';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
+import { FormRequest } from '../forms/form-request';
 
 /**
  * Creating an API key, then showing it the one time the server ever answers it, with a copy button. Once
@@ -69,8 +69,7 @@ export class CreateKeyDialog {
     // Empty means the server's default limit; the field holds text so that a half-typed number is kept.
     limitPerMinute: ['', validLimit],
   });
-  protected readonly busy = signal(false);
-  protected readonly formError = signal<string | null>(null);
+  protected readonly request = new FormRequest();
   /** The new key, present from the server's answer until the dialog closes. */
   protected readonly created = signal<CreatedApiKey | null>(null);
   protected readonly copied = signal<'yes' | 'failed' | null>(null);
@@ -78,28 +77,18 @@ export class CreateKeyDialog {
   protected readonly errorMessage = errorMessage;
 
   protected submit(): void {
-    if (this.busy()) return;
-    this.form.markAllAsTouched();
-    if (this.form.invalid) return;
-    this.busy.set(true);
-    this.formError.set(null);
     const { name, limitPerMinute } = this.form.getRawValue();
     const limit = limitPerMinute.trim();
     const request: CreateApiKeyRequest = {
       name: name.trim(),
       ...(limit ? { limitPerMinute: Number(limit) } : {}),
     };
-    this.api.create(request).subscribe({
-      next: (created) => {
+    this.request.send(this.form, () => this.api.create(request), {
+      sent: (created) => {
         this.dialogRef.disableClose = true;
         this.created.set(created);
-        this.busy.set(false);
         // The focused submit button has just gone with the form; the copy button is the next step.
         afterNextRender(() => this.copyButton()?.nativeElement.focus(), { injector: this.injector });
-      },
-      error: (error: unknown) => {
-        this.formError.set(formErrorOf(this.form, error));
-        this.busy.set(false);
       },
     });
   }

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -9,12 +9,13 @@ import { MatSelectModule } from '@angular/material/select';
 import { EmailSchema, PersonNameSchema, type Role } from '@counterpoise/api';
 import type { InviteRequest } from '../auth/api-types';
 import { ROLE_LABELS, ROLE_SUMMARIES } from '../auth/roles';
-import { formErrorOf, httpErrorMessage, problemOf } from '../shell/server-errors';
+import { httpErrorMessage, problemOf } from '../shell/server-errors';
 import { errorMessage, requiredWith, schemaValidator } from '../shell/validators';
 import { PeopleApi } from './people.api';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
 import { EmailField } from '../forms/email-field';
+import { FormRequest } from '../forms/form-request';
 
 /** What the invitation dialog needs to know. */
 export interface InviteDialogData {
@@ -56,7 +57,7 @@ export interface InviteOutcome {
           They receive an e-mail with a link. Opening it, they choose their password and join with the role
           you give here.
         </p>
-        @if (formError(); as message) {
+        @if (request.formError(); as message) {
           <app-error-banner class="form-error" [message]="message" />
         }
         <app-email-field [control]="form.controls.email" autocomplete="off" subscriptSizing="dynamic" />
@@ -79,7 +80,12 @@ export interface InviteOutcome {
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button matButton type="button" mat-dialog-close>Cancel</button>
-        <app-busy-button type="submit" [busy]="busy()" label="Send the invitation" busyLabel="Sending…" />
+        <app-busy-button
+          type="submit"
+          [busy]="request.busy()"
+          label="Send the invitation"
+          busyLabel="Sending…"
+        />
       </mat-dialog-actions>
     </form>
   `,
@@ -100,34 +106,26 @@ export class InviteDialog {
     initialValue: this.form.controls.role.value,
   });
   protected readonly roleSummary = computed(() => ROLE_SUMMARIES[this.role()]);
-  protected readonly busy = signal(false);
-  protected readonly formError = signal<string | null>(null);
+  protected readonly request = new FormRequest();
   protected readonly roleLabels = ROLE_LABELS;
   protected readonly errorMessage = errorMessage;
 
   protected submit(): void {
-    if (this.busy()) return;
-    this.form.markAllAsTouched();
-    if (this.form.invalid) return;
-    this.busy.set(true);
-    this.formError.set(null);
     const { email, role, name } = this.form.getRawValue();
     const request: InviteRequest = {
       email: email.trim(),
       role,
       ...(name.trim() ? { name: name.trim() } : {}),
     };
-    this.api.invite(request).subscribe({
-      next: (invitation) => this.dialogRef.close({ email: invitation.email, mailProblem: null }),
-      error: (error: unknown) => {
+    this.request.send(this.form, () => this.api.invite(request), {
+      sent: (invitation) => this.dialogRef.close({ email: invitation.email, mailProblem: null }),
+      refused: (error) => {
         // The invitation exists; sending it again would replace it, so the dialog's work is done.
-        if (problemOf(error)?.code === 'MAIL_NOT_SENT') {
-          this.dialogRef.close({ email: request.email, mailProblem: httpErrorMessage(error) });
-          return;
-        }
-        this.formError.set(formErrorOf(this.form, error));
-        this.busy.set(false);
+        if (problemOf(error)?.code !== 'MAIL_NOT_SENT') return null;
+        this.dialogRef.close({ email: request.email, mailProblem: httpErrorMessage(error) });
+        return 'handled';
       },
+      leaves: true,
     });
   }
 
