@@ -161,6 +161,35 @@ describe('who may call the job routes', () => {
   });
 });
 
+describe('who may change a job', () => {
+  it('refuses the steps to viewers and developers, and lets a manager work a technician’s job', async () => {
+    const job = await newJob();
+    const topics = { topicIds: ['lockout', 'running', 'hot-work', 'weights', 'protection'] };
+    for (const role of ['viewer', 'developer'] as const) {
+      const refused = await jobsAs(test, test.tokens[role]).put(
+        `${jobPath(job.id)}/safety`,
+        topics,
+        job.version,
+      );
+      expect(refused.status, role).toBe(403);
+      const abandon = await jobsAs(test, test.tokens[role]).post(
+        `${jobPath(job.id)}/abandon`,
+        { reason: 'Not mine to stop.' },
+        job.version,
+      );
+      expect(abandon.status, role).toBe(403);
+    }
+    const byManager = await jobsAs(test, test.tokens.manager).put(
+      `${jobPath(job.id)}/safety`,
+      topics,
+      job.version,
+    );
+    expect(byManager.status).toBe(200);
+    expect(byManager.body.safety.by.id).toBe(test.own.people.manager.id);
+    expect(byManager.body.technician.id).toBe(test.own.people.technician.id);
+  });
+});
+
 describe('versions', () => {
   it('needs If-Match (428) and refuses a stale one with the job as stored (412)', async () => {
     const job = await newJob();
@@ -677,6 +706,17 @@ describe('the list and the home summary', () => {
           item.technician.id === test.own.people.technician.id && item.status === 'open',
       ),
     ).toBe(true);
+    const customerId = (await as(test.app, test.tokens.owner).get(`/api/v1/machines/${machineId}`)).body
+      .customerId as number;
+    const byCustomer = await jobs.get(`/api/v1/jobs?customerId=${customerId}&pageSize=100`);
+    expect(byCustomer.body.total).toBeGreaterThan(0);
+    expect(
+      byCustomer.body.items.every(
+        (item: { machine: { customerId: number } }) => item.machine.customerId === customerId,
+      ),
+    ).toBe(true);
+    const otherCustomer = await as(test.app, test.otherOwner).get(`/api/v1/jobs?customerId=${customerId}`);
+    expect(otherCustomer.body.total).toBe(0);
     const bad = await jobs.get('/api/v1/jobs?status=finished');
     expect(bad.status).toBe(400);
     expect(bad.body.errors[0].path).toBe('status');
