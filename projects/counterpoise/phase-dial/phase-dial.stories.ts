@@ -364,7 +364,8 @@ export const CompactInFieldRow: Story = {
       await expect(box.height).toBeCloseTo(boxes[0]!.height, 0);
     }
     await userEvent.click(canvas.getByRole('button', { name: 'Calculate' }));
-    await expect(canvas.getByText(INITIAL_RUN_PHASE_MESSAGE)).toBeVisible();
+    // The form field fades its error in; wait until it is there to be seen.
+    await waitFor(() => expect(canvas.getByText(INITIAL_RUN_PHASE_MESSAGE)).toBeVisible());
     const errors = Array.from(canvasElement.querySelectorAll('mat-error')).map((error) => ({
       top: Math.round(error.getBoundingClientRect().top),
       font: getComputedStyle(error).font,
@@ -480,3 +481,6 @@ export const DealerBrand: Story = {
 
 /** The markers in a portal of the dark colour scheme: every colour comes from the theme's tokens. */
 export const DarkScheme: Story = { ...Markers, globals: { scheme: 'dark' } };
+
+/** The compact dial with its error in a portal of the dark colour scheme: the form field's own dark tokens. */
+export const CompactWithErrorDarkScheme: Story = { ...CompactWithError, globals: { scheme: 'dark' } };
