@@ -167,6 +167,17 @@ describe('placeEndViewLabels', () => {
     expect(boxesOverlap(layout.placed[0]!.box, layout.placed[1]!.box)).toBe(false);
   });
 
+  it('leaves out an optional name rather than draw it far from what it names', () => {
+    const crowd = Array.from({ length: 6 }, (_, i) => request(`w${i}`, 100 + i));
+    const name = request('name', 103, { optional: true, maxDistancePx: 20 });
+    const near = placeEndViewLabels([request('alone', 103, { optional: true, maxDistancePx: 20 })], stage());
+    expect(near.dropped).toEqual([]);
+    const crowded = placeEndViewLabels([...crowd, name], stage());
+    expect(crowded.dropped).toEqual(['name']);
+    const unbounded = placeEndViewLabels([...crowd, { ...name, maxDistancePx: undefined }], stage());
+    expect(unbounded.dropped).toEqual([]);
+  });
+
   it('answers the same scene with the same layout', () => {
     const crowd = Array.from({ length: 12 }, (_, i) => request(`w${i}`, (i * 47) % 360, { priority: i % 3 }));
     expect(placeEndViewLabels(crowd, stage())).toEqual(placeEndViewLabels(crowd, stage()));

@@ -43,6 +43,8 @@ export interface EndViewLabelRequest {
   readonly priority: number;
   /** May be left out when no room is left anywhere. */
   readonly optional?: boolean;
+  /** An optional label that finds room only farther than this from its anchor is left out instead. */
+  readonly maxDistancePx?: number;
 }
 
 /**
@@ -430,7 +432,8 @@ function leaderFor(request: EndViewLabelRequest, box: Box): LeaderLine | null {
  * Places labels, most important first (by `priority`, then in the order given): beside the anchor in the
  * preferred direction or turned from it, a step or two out; else beyond the rim, as near the anchor as a
  * free spot allows, with a leader line; else anywhere free in the margin beyond the rim; else an optional
- * label is dropped and a required one gets a row below the drawing (the answer's `height` grows).
+ * label is dropped (so is one whose only room lies beyond its `maxDistancePx`) and a required one gets a
+ * row below the drawing (the answer's `height` grows).
  */
 export function placeEndViewLabels(
   requests: readonly EndViewLabelRequest[],
@@ -442,11 +445,13 @@ export function placeEndViewLabels(
     .sort((a, b) => b.request.priority - a.request.priority || a.index - b.index);
   const boxes = new Map<number, Box>();
   for (const { request, index } of order) {
-    const box =
-      placer.near(request) ??
-      placer.beyondRim(request) ??
-      placer.inMargin(request) ??
-      (request.optional ? null : placer.below(request));
+    const found = placer.near(request) ?? placer.beyondRim(request) ?? placer.inMargin(request);
+    const tooFar =
+      request.optional &&
+      found !== null &&
+      request.maxDistancePx !== undefined &&
+      distanceToBox(found, request.anchor) > request.maxDistancePx;
+    const box = found && !tooFar ? found : request.optional ? null : placer.below(request);
     if (!box) continue;
     placer.take(box);
     boxes.set(index, box);

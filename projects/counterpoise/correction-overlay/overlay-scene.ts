@@ -174,6 +174,8 @@ const WEIGHT_INSET_PX = 10;
 const WEIGHT_GLYPH = { tangential: 24, radial: 14 } as const;
 /** The rim as a band labels never cross: the ticks, the weights and the allowed positions inside it. */
 const RIM_BAND = { insidePx: 22, outsidePx: 4 } as const;
+/** How far from its sensor or sector a name may go, as a fraction of the radius, before it is left out. */
+const NAME_REACH = 0.5;
 /** How a label's priority ranks: the corrections first, the optional names of things last. */
 const PRIORITY: Readonly<Record<SceneLabelKind, number>> = {
   correction: 100,
@@ -359,7 +361,7 @@ function labelScene(
     text: string,
     angleDeg: number,
     anchorRadius: number,
-    extra: { gapPx: number; optional?: boolean; conflict?: boolean },
+    extra: { gapPx: number; optional?: boolean; conflict?: boolean; maxDistancePx?: number },
   ): LabelDraft => {
     const wanted = kind === 'correction' ? LABEL_FONT_PX.correction : LABEL_FONT_PX.other;
     const fits = (fontSize: number) => estimateTextWidthPx(text, fontSize, LABEL_PADDING_PX) <= roomPx;
@@ -377,6 +379,7 @@ function labelScene(
       gapPx: extra.gapPx,
       priority: PRIORITY[kind],
       optional: extra.optional,
+      maxDistancePx: extra.maxDistancePx,
       conflict: extra.conflict ?? false,
     };
   };
@@ -410,7 +413,11 @@ function labelScene(
   drafts.push(draft('reference', 'reference', `Ref ${degreesText(0, 0)}`, 0, r + 10, { gapPx: 12 }));
   if (input.sensorAngleDeg !== null) {
     drafts.push(
-      draft('sensor', 'sensor', 'Sensor', input.sensorAngleDeg, r + 17, { gapPx: 12, optional: true }),
+      draft('sensor', 'sensor', 'Sensor', input.sensorAngleDeg, r + 17, {
+        gapPx: 12,
+        optional: true,
+        maxDistancePx: NAME_REACH * r,
+      }),
     );
   }
   input.blockedSectors.forEach((sector, i) =>
@@ -418,6 +425,7 @@ function labelScene(
       draft(`blocked-${i}`, 'blocked', sector.label, sectorMidDeg(sector), r * 0.84, {
         gapPx: r * 0.16 + RIM_BAND.outsidePx + 2,
         optional: true,
+        maxDistancePx: NAME_REACH * r,
       }),
     ),
   );

@@ -183,6 +183,8 @@ export const FOCUS_RING_RADIUS = 13;
 const ANGLE_LABEL_GAP = 11;
 /** The rotation arrow runs between the outer ring and the angle labels. */
 const ROTATION_ARROW_OFFSET = 6;
+/** The side of the square round the centre that point labels keep clear of, as a fraction of the radius. */
+const CENTRE_KEPT_CLEAR = 0.4;
 /** Point labels keep off the outer ring: wholly inside it or wholly beyond it. */
 const RING_BAND_PX = 2;
 
@@ -258,6 +260,8 @@ export function layoutPolarPlot(input: PolarPlotLayoutInput): PolarPlotLayout {
     ...angleLabels.map((label) => label.box),
     reference.box,
     arrow.box,
+    // The middle of the plot, where short vectors bunch together, is left to their markers.
+    boxAround(center, Math.max(radius * CENTRE_KEPT_CLEAR, FOCUS_RING_RADIUS * 2)),
   ].map((box) => ({ kind: 'mark', ...box }));
   const labelHeight = Math.ceil(fontSize * 1.3);
   const placement = placeEndViewLabels(
