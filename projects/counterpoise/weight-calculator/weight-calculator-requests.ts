@@ -2,8 +2,8 @@ import type { CalcRequest } from '@counterpoise/api';
 import {
   type DialPositions,
   type RotationCounting,
-  expandPositions,
-  normalizeDeg,
+  _expandPositions as expandPositions,
+  _normalizeDeg as normalizeDeg,
 } from '@counterpoise/ng/core';
 import type { BlockedSector } from '@counterpoise/ng/correction-overlay';
 import type {

@@ -1,4 +1,8 @@
-import { degreesText, formatAngle, normalizeDeg } from '@counterpoise/ng/core';
+import {
+  _degreesText as degreesText,
+  _formatAngle as formatAngle,
+  _normalizeDeg as normalizeDeg,
+} from '@counterpoise/ng/core';
 import type {
   AmplitudeUnit,
   CorrectionPlacement,
