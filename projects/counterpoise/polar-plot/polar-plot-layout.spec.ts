@@ -7,20 +7,11 @@ import {
 } from '@counterpoise/ng/core';
 import { type PolarSeries, segmentHitsBox } from './polar-plot-geometry';
 import { layoutPolarPlot, PLOT_FONT_SIZE } from './polar-plot-layout';
+import { SENSOR_A_RUNS, TRIAL_EFFECT } from './polar-plot.fixtures';
 
 const convention: DialConvention = { rotation: 'clockwise', counting: 'againstRotation', zeroAtDeg: 0 };
 
-const runs: PolarSeries = {
-  id: 'a',
-  label: 'Sensor A',
-  kind: 'run',
-  unit: 'in/s',
-  points: [
-    { amplitude: 0.42, angleDeg: 128, label: 'Run 1' },
-    { amplitude: 0.29, angleDeg: 196, label: 'Run 2' },
-    { amplitude: 0.06, angleDeg: 150, label: 'Run 3' },
-  ],
-};
+const runs = SENSOR_A_RUNS;
 const otherSensor: PolarSeries = {
   id: 'b',
   label: 'Sensor B',
@@ -80,13 +71,7 @@ describe('layoutPolarPlot', () => {
   });
 
   it('keeps ring labels off the vectors when some direction allows it', () => {
-    const effect: PolarSeries = {
-      id: 't',
-      label: 'Trial effect',
-      kind: 'trialEffect',
-      unit: 'in/s',
-      points: [{ amplitude: 0.411, angleDeg: 267.2, from: { amplitude: 0.42, angleDeg: 128 } }],
-    };
+    const effect = TRIAL_EFFECT;
     const drawn = layout([runs, effect], 400);
     const segments = drawn.points.map((point) => {
       const [x1, y1, x2, y2] = point.linePath.match(/-?\d+(\.\d+)?/g)!.map(Number);
@@ -108,13 +93,7 @@ describe('layoutPolarPlot', () => {
   });
 
   it('stops an arrowhead short of the marker it points at', () => {
-    const effect: PolarSeries = {
-      id: 't',
-      label: 'Trial effect',
-      kind: 'trialEffect',
-      unit: 'in/s',
-      points: [{ amplitude: 0.411, angleDeg: 267.2, from: { amplitude: 0.42, angleDeg: 128 } }],
-    };
+    const effect = TRIAL_EFFECT;
     const drawn = layout([runs, effect], 400);
     const run2 = drawn.points[1]!.head;
     const arrow = drawn.points[3]!.head;
