@@ -102,6 +102,37 @@ describe('who may call the job routes', () => {
     expect(list.body.items.map((item: { id: number }) => item.id)).not.toContain(job.id);
   });
 
+  it('answers 404 to another organisation on every change route, and changes nothing', async () => {
+    const job = await newJob();
+    const other = jobsAs(test, test.otherOwner);
+    const path = jobPath(job.id);
+    const topics = { topicIds: ['lockout', 'running', 'hot-work', 'weights', 'protection'] };
+    const installed = {
+      weights: [{ planeIndex: 0, massGrams: 10, angleDeg: 0, radiusMm: 210, fixing: 'bolted' }],
+    };
+    const calls = [
+      other.post(`${path}/assign`, { technicianId: test.other.people.technician.id }, job.version),
+      other.post(`${path}/abandon`, { reason: 'Not ours at all.' }, job.version),
+      other.post(`${path}/reopen`, undefined, job.version),
+      other.put(`${path}/safety`, topics, job.version),
+      other.put(`${path}/inspection`, passingInspection(), job.version),
+      other.post(`${path}/inspection/override`, { reason: 'Not ours at all.' }, job.version),
+      other.put(`${path}/setup`, setupBody(['left']), job.version),
+      other.post(
+        `${path}/runs`,
+        { kind: 'initial', readings: runReadings(['left'], SINGLE.initial) },
+        job.version,
+      ),
+      other.post(`${path}/corrections`, { method: 'single-plane' }, job.version),
+      other.put(`${path}/corrections/1/installed`, installed, job.version),
+      other.post(`${path}/complete`, undefined, job.version),
+    ];
+    const statuses = (await Promise.all(calls)).map((answer) => answer.status);
+    expect(statuses).toEqual(calls.map(() => 404));
+    const stored = await jobsAs(test, test.tokens.technician).get(path);
+    expect(stored.body.version).toBe(job.version);
+  });
+
   it('refuses a machine of another organisation, naming the field, and stores nothing', async () => {
     const before = rowCount(test, 'jobs');
     const response = await jobsAs(test, test.tokens.technician).create({
