@@ -26,7 +26,6 @@ import { httpErrorMessage } from '../shell/server-errors';
 import { API_REFERENCE_URL } from '../status/health.api';
 import { CreateKeyDialog } from './create-key-dialog';
 import { KeysApi } from './keys.api';
-import { ErrorBanner } from '../forms/error-banner';
 import { ListPage, resourceSource } from '../shell/list-page';
 
 /**
@@ -37,7 +36,6 @@ import { ListPage, resourceSource } from '../shell/list-page';
   selector: 'app-keys-page',
   imports: [
     ListPage,
-    ErrorBanner,
     DatePipe,
     MatButtonModule,
     MatIconModule,

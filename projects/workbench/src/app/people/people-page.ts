@@ -32,7 +32,6 @@ import { ChangeRoleDialog } from './change-role-dialog';
 import { InviteDialog, type InviteDialogData, type InviteOutcome } from './invite-dialog';
 import { sortAndFilterPeople, STATUS_LABELS } from './people-rules';
 import { PeopleApi } from './people.api';
-import { ErrorBanner } from '../forms/error-banner';
 
 /**
  * The people of the organisation: a sortable, filterable table, the pending invitations, and for those
@@ -42,7 +41,6 @@ import { ErrorBanner } from '../forms/error-banner';
   selector: 'app-people-page',
   imports: [
     ListPage,
-    ErrorBanner,
     DatePipe,
     MatButtonModule,
     MatFormFieldModule,
