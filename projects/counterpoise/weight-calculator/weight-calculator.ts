@@ -445,6 +445,11 @@ export class CpWeightCalculator implements ControlValueAccessor, Validator {
     return describeField(this._method(), field);
   }
 
+  /** The words on a toggle: a method's label in the technician's words, or a unit's symbol. */
+  protected _toggleLabel(option: string): string {
+    return option in METHOD_INFO ? METHOD_INFO[option as CalcMethod].label : option;
+  }
+
   /** The unit shown after a field of this kind. */
   protected _unitOf(kind: FieldKind): string {
     if (kind === 'amplitude') return this._amplitudeUnit();
