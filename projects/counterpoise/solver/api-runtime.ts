@@ -23,8 +23,8 @@ export function loadApiRuntime(): Promise<ApiRuntime> {
 }
 
 /**
- * How the engines get the API runtime: `loadApiRuntime` unless a test (or a portal with its own loading
- * strategy) provides another.
+ * How the engines get the API runtime: `loadApiRuntime` unless a test provides another. Internal to the
+ * library (not exported by the entry point).
  */
 export const API_RUNTIME_LOADER = new InjectionToken<() => Promise<ApiRuntime>>('API_RUNTIME_LOADER', {
   providedIn: 'root',
