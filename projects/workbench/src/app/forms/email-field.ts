@@ -37,15 +37,7 @@ import { errorMessage } from '../shell/validators';
       <mat-error>{{ errorMessage(control()) }}</mat-error>
     </mat-form-field>
   `,
-  styles: `
-    :host {
-      display: block;
-    }
-
-    mat-form-field {
-      width: 100%;
-    }
-  `,
+  styleUrl: './field.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class EmailField {

@@ -35,15 +35,7 @@ import { PasswordToggle } from './password-toggle';
       <mat-error>{{ errorMessage(control()) }}</mat-error>
     </mat-form-field>
   `,
-  styles: `
-    :host {
-      display: block;
-    }
-
-    mat-form-field {
-      width: 100%;
-    }
-  `,
+  styleUrl: './field.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class PasswordField {
