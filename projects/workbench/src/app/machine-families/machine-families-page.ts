@@ -1,5 +1,4 @@
 import { wideTable } from '../shell/wide-table';
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -7,6 +6,7 @@ import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { AuthSession } from '../auth/auth-session';
+import { LastChangedColumn } from '../records/last-changed-column';
 import { recordList } from '../records/record-list';
 import { RecordListFilters } from '../records/record-list-filters';
 import { ListPage } from '../shell/list-page';
@@ -20,8 +20,8 @@ import { MachineFamiliesApi, type MachineFamily, type MachineFamilySortField } f
 @Component({
   selector: 'app-machine-families-page',
   imports: [
+    LastChangedColumn,
     ListPage,
-    DatePipe,
     MatButtonModule,
     MatIconModule,
     MatSortModule,

@@ -1,5 +1,4 @@
 import { wideTable } from '../shell/wide-table';
-import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, DestroyRef, effect, inject } from '@angular/core';
 import { rxResource, takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormControl } from '@angular/forms';
@@ -11,6 +10,7 @@ import { MatSortModule } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { AuthSession } from '../auth/auth-session';
+import { LastChangedColumn } from '../records/last-changed-column';
 import { recordList } from '../records/record-list';
 import { RecordListFilters } from '../records/record-list-filters';
 import { ListPage } from '../shell/list-page';
@@ -30,9 +30,9 @@ const FAMILIES_OFFERED = 100;
 @Component({
   selector: 'app-machines-page',
   imports: [
+    LastChangedColumn,
     ListPage,
     CustomerPicker,
-    DatePipe,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
