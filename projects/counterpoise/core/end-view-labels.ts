@@ -315,11 +315,26 @@ class Placer {
         const away = distanceToBox(box, request.anchor);
         if (best && away >= best.cost) continue;
         if (!this.free(box)) continue;
-        const cost = away + this.softCost(box);
+        const cost = away + this.softCost(box) + this.leaderAcrossRotorCost(request.anchor, box);
         if (!best || cost < best.cost) best = { box, cost };
       }
     }
     return best?.box ?? null;
+  }
+
+  /** A leader that would run across the middle of the rotor costs as much as going half round it. */
+  private leaderAcrossRotorCost(anchor: ScreenPoint, box: Box): number {
+    const { center, radius } = this.stage.rim;
+    const to = nearestPointOnBox(box, anchor);
+    const dx = to.x - anchor.x;
+    const dy = to.y - anchor.y;
+    const length = dx * dx + dy * dy;
+    const t =
+      length > 0
+        ? Math.min(1, Math.max(0, ((center.x - anchor.x) * dx + (center.y - anchor.y) * dy) / length))
+        : 0;
+    const closest = Math.hypot(anchor.x + t * dx - center.x, anchor.y + t * dy - center.y);
+    return closest < radius * 0.6 ? radius * Math.PI * 0.5 : 0;
   }
 
   /** The nearest free box anywhere in the margin beyond the rim, on a grid over the widget's box. */
