@@ -1,17 +1,17 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
-import { provideRouter, Router, withComponentInputBinding } from '@angular/router';
+import { Router } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AcceptInvitationPage } from './accept-invitation-page';
 import type { InvitationPreview } from './api-types';
 import { AuthSession } from './auth-session';
 import { aSession, RouteStandIn } from './testing';
+import { routedPageTestBed } from '../shell/testing';
 
 const PREVIEW: InvitationPreview = {
   email: 'suvi@example.com',
@@ -24,20 +24,10 @@ describe('AcceptInvitationPage', () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter(
-          [
-            { path: 'accept-invitation', component: AcceptInvitationPage },
-            { path: '', component: RouteStandIn, data: { heading: 'Start' } },
-          ],
-          withComponentInputBinding(),
-        ),
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = routedPageTestBed([
+      { path: 'accept-invitation', component: AcceptInvitationPage },
+      { path: '', component: RouteStandIn, data: { heading: 'Start' } },
+    ]);
   });
 
   afterEach(() => http.verify());

@@ -1,33 +1,23 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter, withComponentInputBinding } from '@angular/router';
+
 import { RouterTestingHarness } from '@angular/router/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AccountPage } from './account-page';
 import { AUTH_URLS, AuthSession } from './auth-session';
 import { NotAvailablePage } from './not-available-page';
 import { aSession, aUser } from './testing';
+import { routedPageTestBed } from '../shell/testing';
 
 describe('the account pages', () => {
   let http: HttpTestingController;
   let session: AuthSession;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter(
-          [
-            { path: 'account', component: AccountPage },
-            { path: 'not-available', component: NotAvailablePage },
-          ],
-          withComponentInputBinding(),
-        ),
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = routedPageTestBed([
+      { path: 'account', component: AccountPage },
+      { path: 'not-available', component: NotAvailablePage },
+    ]);
     session = TestBed.inject(AuthSession);
   });
 

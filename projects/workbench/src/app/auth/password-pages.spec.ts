@@ -1,17 +1,16 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
-import { provideRouter, withComponentInputBinding } from '@angular/router';
+
 import { RouterTestingHarness } from '@angular/router/testing';
 import { PASSWORD_MIN_LENGTH } from '@counterpoise/api';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AUTH_URLS } from './auth-session';
 import { ForgotPasswordPage } from './forgot-password-page';
 import { ResetPasswordPage } from './reset-password-page';
+import { routedPageTestBed } from '../shell/testing';
 
 const BAD_REQUEST = { status: 400, statusText: 'Bad Request' };
 
@@ -19,20 +18,10 @@ describe('the password pages', () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter(
-          [
-            { path: 'forgot-password', component: ForgotPasswordPage },
-            { path: 'reset-password', component: ResetPasswordPage },
-          ],
-          withComponentInputBinding(),
-        ),
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = routedPageTestBed([
+      { path: 'forgot-password', component: ForgotPasswordPage },
+      { path: 'reset-password', component: ResetPasswordPage },
+    ]);
   });
 
   afterEach(() => http.verify());

@@ -1,35 +1,25 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
-import { provideRouter, Router, withComponentInputBinding } from '@angular/router';
+import { Router } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AUTH_URLS, AuthSession } from './auth-session';
 import { SignInPage } from './sign-in-page';
 import { aSession, RouteStandIn } from './testing';
+import { routedPageTestBed } from '../shell/testing';
 
 describe('SignInPage', () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter(
-          [
-            { path: 'sign-in', component: SignInPage },
-            { path: '**', component: RouteStandIn, data: { heading: 'Elsewhere' } },
-          ],
-          withComponentInputBinding(),
-        ),
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = routedPageTestBed([
+      { path: 'sign-in', component: SignInPage },
+      { path: '**', component: RouteStandIn, data: { heading: 'Elsewhere' } },
+    ]);
   });
 
   afterEach(() => http.verify());

@@ -1,17 +1,10 @@
-import { type HttpRequest, provideHttpClient } from '@angular/common/http';
-import {
-  HttpTestingController,
-  provideHttpClientTesting,
-  type TestRequest,
-} from '@angular/common/http/testing';
-import type { Provider } from '@angular/core';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
-import { TestBed } from '@angular/core/testing';
-import { provideRouter, type Routes, withComponentInputBinding } from '@angular/router';
+import type { HttpRequest } from '@angular/common/http';
+import type { HttpTestingController, TestRequest } from '@angular/common/http/testing';
 import type { RecordChange } from '@counterpoise/api';
 import type { Customer } from '../customers/customers.api';
 import type { MachineFamily } from '../machine-families/machine-families.api';
 import type { Machine } from '../machines/machines.api';
+import { routedPageTestBed } from '../shell/testing';
 
 /*
  * Invented records of an invented shop, for the specs of the records pages. Addresses are under
@@ -139,20 +132,5 @@ export function aPage<T>(items: readonly T[], total = items.length, page = 1, pa
   return { items: [...items], total, page, pageSize };
 }
 
-/**
- * The test bed of a records page reached through the router: HTTP on a testing backend, the given routes
- * with route parameters bound to the pages' inputs, Material's animations off, and any further providers
- * (a stand-in BreakpointObserver). Answers the backend, for the spec's requests and its `verify()`.
- */
-export function recordsTestBed(routes: Routes, providers: Provider[] = []): HttpTestingController {
-  TestBed.configureTestingModule({
-    providers: [
-      provideHttpClient(),
-      provideHttpClientTesting(),
-      provideRouter(routes, withComponentInputBinding()),
-      { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ...providers,
-    ],
-  });
-  return TestBed.inject(HttpTestingController);
-}
+/** The test bed of a records page reached through the router (see routedPageTestBed). */
+export const recordsTestBed = routedPageTestBed;
