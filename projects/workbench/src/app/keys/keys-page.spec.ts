@@ -2,8 +2,8 @@ import { BreakpointObserver, type BreakpointState } from '@angular/cdk/layout';
 import { Clipboard } from '@angular/cdk/clipboard';
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { type ComponentFixture, TestBed } from '@angular/core/testing';
+import type { HarnessLoader } from '@angular/cdk/testing';
+import { TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
@@ -18,6 +18,7 @@ import { AuthSession } from '../auth/auth-session';
 import { aSession } from '../auth/testing';
 import { KeysPage } from './keys-page';
 import { KEYS_URLS } from './keys.api';
+import { renderAnswered, settle } from '../shell/testing';
 
 const PORTAL: ApiKeySummary = {
   id: 1,
@@ -84,22 +85,7 @@ describe('KeysPage', { timeout: 20_000 }, () => {
   afterEach(() => http.verify());
 
   async function render(list: ApiKeyList = LIST) {
-    const fixture = TestBed.createComponent(KeysPage);
-    fixture.detectChanges();
-    http.expectOne(KEYS_URLS.list).flush(list);
-    await fixture.whenStable();
-    return {
-      fixture,
-      element: fixture.nativeElement as HTMLElement,
-      loader: TestbedHarnessEnvironment.loader(fixture),
-      overlays: TestbedHarnessEnvironment.documentRootLoader(fixture),
-    };
-  }
-
-  /** Lets the page act on a closed dialog and send the request of a reloaded resource. */
-  async function settle(fixture: ComponentFixture<KeysPage>) {
-    await new Promise((resolve) => setTimeout(resolve));
-    fixture.detectChanges();
+    return renderAnswered(KeysPage, http, KEYS_URLS.list, list);
   }
 
   function buttonByText(text: string): HTMLButtonElement | undefined {
@@ -108,11 +94,7 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     );
   }
 
-  async function createKey(
-    overlays: ReturnType<typeof TestbedHarnessEnvironment.documentRootLoader>,
-    name: string,
-    limit = '',
-  ) {
+  async function createKey(overlays: HarnessLoader, name: string, limit = '') {
     const dialog = await overlays.getHarness(MatDialogHarness);
     await (
       await dialog.getHarness(MatInputHarness.with({ selector: '[formControlName=name]' }))

@@ -3,7 +3,7 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import type { HarnessLoader } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { type ComponentFixture, TestBed } from '@angular/core/testing';
+import { TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
@@ -24,6 +24,7 @@ import { AuthSession } from '../auth/auth-session';
 import { aSession, aUser } from '../auth/testing';
 import { PeoplePage } from './people-page';
 import { PEOPLE_URLS } from './people.api';
+import { renderAnswered, settle } from '../shell/testing';
 
 const PEOPLE: People = {
   people: [
@@ -90,26 +91,7 @@ describe('PeoplePage', { timeout: 20_000 }, () => {
 
   async function render(role: Role = 'owner', people: People = PEOPLE) {
     TestBed.inject(AuthSession).start(aSession(role));
-    const fixture = TestBed.createComponent(PeoplePage);
-    fixture.detectChanges();
-    http.expectOne(PEOPLE_URLS.list).flush(people);
-    await fixture.whenStable();
-    return {
-      fixture,
-      element: fixture.nativeElement as HTMLElement,
-      loader: TestbedHarnessEnvironment.loader(fixture),
-      overlays: TestbedHarnessEnvironment.documentRootLoader(fixture),
-    };
-  }
-
-  /**
-   * Lets the page act on what just happened: a dialog reports its closing after the current task, and a
-   * reloaded httpResource sends its request from an effect. (Harnesses cannot wait for this: they wait for
-   * the page to be stable, which the pending request of an httpResource prevents.)
-   */
-  async function settle(fixture: ComponentFixture<PeoplePage>) {
-    await new Promise((resolve) => setTimeout(resolve));
-    fixture.detectChanges();
+    return renderAnswered(PeoplePage, http, PEOPLE_URLS.list, people);
   }
 
   async function names(loader: HarnessLoader): Promise<string[]> {

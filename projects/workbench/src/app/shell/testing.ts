@@ -1,7 +1,9 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import type { Provider } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
+import type { HarnessLoader } from '@angular/cdk/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import type { Provider, Type } from '@angular/core';
+import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter, type Routes, withComponentInputBinding } from '@angular/router';
 
@@ -22,4 +24,41 @@ export function routedPageTestBed(routes: Routes, providers: Provider[] = []): H
     ],
   });
   return TestBed.inject(HttpTestingController);
+}
+
+/**
+ * Creates a page that asks for its list as it starts, answers that request with `answer`, and hands the
+ * spec the page and its harness loaders (the page's own, and the document's for dialogs and menus).
+ */
+export async function renderAnswered<T>(
+  page: Type<T>,
+  http: HttpTestingController,
+  url: string,
+  answer: object,
+): Promise<{
+  fixture: ComponentFixture<T>;
+  element: HTMLElement;
+  loader: HarnessLoader;
+  overlays: HarnessLoader;
+}> {
+  const fixture = TestBed.createComponent(page);
+  fixture.detectChanges();
+  http.expectOne(url).flush(answer);
+  await fixture.whenStable();
+  return {
+    fixture,
+    element: fixture.nativeElement as HTMLElement,
+    loader: TestbedHarnessEnvironment.loader(fixture),
+    overlays: TestbedHarnessEnvironment.documentRootLoader(fixture),
+  };
+}
+
+/**
+ * Lets a page act on what just happened: a dialog reports its closing after the current task, and a
+ * reloaded resource sends its request from an effect. (Harnesses cannot wait for this: they wait for the
+ * page to be stable, which the pending request of a resource prevents.)
+ */
+export async function settle(fixture: ComponentFixture<unknown>): Promise<void> {
+  await new Promise((resolve) => setTimeout(resolve));
+  fixture.detectChanges();
 }
