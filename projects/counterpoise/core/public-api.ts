@@ -4,27 +4,10 @@ export { CpSafetyNotice } from './safety-notice';
 export type { DialConvention, DialPositions, RotationCounting, RotationDirection } from './dial-geometry';
 
 /*
- * Internal to the library: what the other entry points of `@counterpoise/ng` share through this one. Not
- * part of the public API; a dealer must not rely on these names.
- *
- * Under their own names until the files that import them by those names switch to the `_` aliases:
- * weight-calculator (expandPositions, normalizeDeg, formatAngle, degreesText), phase-dial's component,
- * values and harness (angleAtPoint, describeAngle, isAllowedPosition, pointAtScreenAngle, screenAngleDeg,
- * snapAngle).
+ * Internal to the library, under the `_` prefix (Angular Material's mark of an internal export): the
+ * end-view geometry, angle formatting and drawing kit that the other entry points of `@counterpoise/ng`
+ * share through this one. Not part of the public API: a dealer must not rely on these names.
  */
-export { degreesText, formatAngle, type AngleDecimals } from './angle-format';
-export {
-  angleAtPoint,
-  describeAngle,
-  expandPositions,
-  isAllowedPosition,
-  normalizeDeg,
-  pointAtScreenAngle,
-  screenAngleDeg,
-  snapAngle,
-} from './dial-geometry';
-
-/* Internal to the library, under the `_` prefix: the end-view geometry and drawing kit. */
 export {
   degreesText as _degreesText,
   formatAngle as _formatAngle,
@@ -37,12 +20,14 @@ export {
   angularDistanceDeg as _angularDistanceDeg,
   describeAngle as _describeAngle,
   expandPositions as _expandPositions,
+  isAllowedPosition as _isAllowedPosition,
   normalizeDeg as _normalizeDeg,
   pointAtAngle as _pointAtAngle,
   pointAtScreenAngle as _pointAtScreenAngle,
   screenAngleDeg as _screenAngleDeg,
   screenAngleOfPoint as _screenAngleOfPoint,
   screenSense as _screenSense,
+  snapAngle as _snapAngle,
   type ScreenPoint as _ScreenPoint,
 } from './dial-geometry';
 export {

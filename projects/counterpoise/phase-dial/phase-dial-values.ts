@@ -8,7 +8,7 @@ import {
   _describeAngle as describeAngle,
   _formatAngle as formatAngle,
   _normalizeDeg as normalizeDeg,
-  isAllowedPosition,
+  _isAllowedPosition as isAllowedPosition,
 } from '@counterpoise/ng/core';
 
 /** What a marker on the dial stands for. */

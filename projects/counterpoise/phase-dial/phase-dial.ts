@@ -41,7 +41,7 @@ import {
   _angleAtPoint as angleAtPoint,
   _expandPositions as expandPositions,
   _formatAngle as formatAngle,
-  snapAngle,
+  _snapAngle as snapAngle,
 } from '@counterpoise/ng/core';
 import {
   DIAL_CENTER,
