@@ -631,4 +631,21 @@ describe('CpWeightCalculator as a form control', SLOW, () => {
     await calculator.blur();
     expect(host.correction.touched).toBe(true);
   });
+
+  it('shows every missing field when the page marks its form touched, but not when the technician only passes by', async () => {
+    const { host, calculator, fixture } = await setUpForm(FormHost);
+    const element: HTMLElement = fixture.nativeElement;
+    element.querySelector<HTMLInputElement>('input[data-field]')!.focus();
+    element.querySelector<HTMLButtonElement>('.elsewhere')!.focus();
+    expect(host.correction.touched).toBe(true);
+    // The field the technician left shows its error, as any Material field does; the others stay quiet.
+    expect(await calculator.getFieldError('initial.amplitude')).toMatch(/amplitude/i);
+    expect(await calculator.getFieldError('trialWeight.mass')).toBeNull();
+
+    host.correction.markAsUntouched();
+    host.job.markAllAsTouched();
+    fixture.detectChanges();
+    expect(await calculator.getFieldError('initial.amplitude')).toMatch(/amplitude/i);
+    expect(await calculator.getFieldError('trialWeight.mass')).toMatch(/mass/i);
+  });
 });

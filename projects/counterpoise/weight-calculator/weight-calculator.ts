@@ -29,6 +29,7 @@ import {
   NG_VALIDATORS,
   NG_VALUE_ACCESSOR,
   ReactiveFormsModule,
+  TouchedChangeEvent,
   type ValidationErrors,
   type Validator,
 } from '@angular/forms';
@@ -210,6 +211,11 @@ export class CpWeightCalculator implements ControlValueAccessor, Validator {
   private _onChange: (value: WeightCalculatorValue) => void = () => undefined;
   private _onTouched: () => void = () => undefined;
   private _onValidatorChange: () => void = () => undefined;
+  /** The page's form control this calculator validates, watched for `markAllAsTouched()`. */
+  private _outerControl: AbstractControl | null = null;
+  private _outerTouched: Subscription | null = null;
+  /** True while the calculator itself reports the technician leaving it, which shows no new errors. */
+  private _leaving = false;
   /** Above zero while the form is set from outside (inputs, `draft`, `writeValue`), not by the technician. */
   private _quiet = 0;
 
@@ -316,7 +322,10 @@ export class CpWeightCalculator implements ControlValueAccessor, Validator {
 
   constructor() {
     const destroyRef = inject(DestroyRef);
-    destroyRef.onDestroy(() => this._running?.unsubscribe());
+    destroyRef.onDestroy(() => {
+      this._running?.unsubscribe();
+      this._outerTouched?.unsubscribe();
+    });
     this._prefetchOverlay();
 
     this._form.valueChanges.pipe(takeUntilDestroyed()).subscribe(() => {
@@ -416,13 +425,29 @@ export class CpWeightCalculator implements ControlValueAccessor, Validator {
    * What keeps the value from being usable: `calculatorFields` lists the empty or wrong fields of the
    * method shown, `calculatorNotComputed` says there is no current calculation.
    */
-  validate(): ValidationErrors | null {
+  validate(control?: AbstractControl): ValidationErrors | null {
+    if (control && control !== this._outerControl) this._watchOuterControl(control);
     const fields = invalidFields(this._form, this._method());
     const errors: WeightCalculatorErrors = {
       ...(fields.length > 0 ? { calculatorFields: { count: fields.length, fields } } : {}),
       ...(this._current() === null ? { calculatorNotComputed: true as const } : {}),
     };
     return Object.keys(errors).length > 0 ? { ...errors } : null;
+  }
+
+  /**
+   * When the page marks its form touched (`markAllAsTouched()` before saving, say), the calculator shows
+   * every field error of the method shown, as Material's fields do when their control is touched.
+   */
+  private _watchOuterControl(control: AbstractControl): void {
+    this._outerTouched?.unsubscribe();
+    this._outerControl = control;
+    this._outerTouched = control.events.subscribe((event) => {
+      if (!(event instanceof TouchedChangeEvent) || !event.touched || event.source !== control) return;
+      if (this._leaving) return;
+      methodGroup(this._form, this._method()).markAllAsTouched();
+      this._submitted.set(true);
+    });
   }
 
   /** Registers the form's callback for a change of validity that no new value brings (the engine's refusal). */
@@ -468,7 +493,13 @@ export class CpWeightCalculator implements ControlValueAccessor, Validator {
   /** The technician left the calculator: the form control is touched. */
   protected _onFocusOut(event: FocusEvent): void {
     const next = event.relatedTarget;
-    if (!(next instanceof Node && this._host.nativeElement.contains(next))) this._onTouched();
+    if (next instanceof Node && this._host.nativeElement.contains(next)) return;
+    this._leaving = true;
+    try {
+      this._onTouched();
+    } finally {
+      this._leaving = false;
+    }
   }
 
   /** The message of a field's first error, or null while it has none to show. */
