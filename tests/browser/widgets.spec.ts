@@ -63,7 +63,7 @@ describe('the Widgets page', () => {
     await page.waitForLoadState('networkidle');
     await browser.context.setOffline(true);
     try {
-      await calculator.locator('[data-method="single-plane"]').click();
+      await calculator.locator('mat-button-toggle[data-method="single-plane"] button').click();
       const fill = async (field: string, value: string) => {
         const target = calculator.locator(
           `input[data-field="${field}"], cp-phase-dial[data-field="${field}"] input`,
