@@ -12,8 +12,7 @@ import { httpErrorMessage } from '../shell/server-errors';
 import { errorMessage, requiredWith, schemaValidator } from '../shell/validators';
 import type { InvitationPreview } from './api-types';
 import { AuthSession } from './auth-session';
-import { PASSWORD_RULE } from './password-rule';
-import { PasswordField } from '../forms/password-field';
+import { NewPasswordField } from './new-password-field';
 import { ROLE_LABELS, ROLE_SUMMARIES } from './roles';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
@@ -33,7 +32,7 @@ import { FormRequest } from '../forms/form-request';
     MatIconModule,
     MatInputModule,
     MatProgressSpinnerModule,
-    PasswordField,
+    NewPasswordField,
     ReactiveFormsModule,
     RouterLink,
   ],
@@ -67,7 +66,6 @@ export class AcceptInvitationPage {
     password: ['', [requiredWith('Choose a password.'), schemaValidator(PasswordSchema)]],
   });
   protected readonly request = new FormRequest();
-  protected readonly passwordRule = PASSWORD_RULE;
   protected readonly roleLabels = ROLE_LABELS;
   protected readonly roleSummaries = ROLE_SUMMARIES;
   protected readonly errorMessage = errorMessage;

@@ -8,8 +8,7 @@ import { PasswordSchema } from '@counterpoise/api';
 import { problemOf } from '../shell/server-errors';
 import { requiredWith, schemaValidator } from '../shell/validators';
 import { AUTH_URLS } from './auth-session';
-import { PASSWORD_RULE } from './password-rule';
-import { PasswordField } from '../forms/password-field';
+import { NewPasswordField } from './new-password-field';
 import { ErrorBanner } from '../forms/error-banner';
 import { BusyButton } from '../forms/busy-button';
 import { FormRequest } from '../forms/form-request';
@@ -22,7 +21,7 @@ import { FormRequest } from '../forms/form-request';
     ErrorBanner,
     MatButtonModule,
     MatIconModule,
-    PasswordField,
+    NewPasswordField,
     ReactiveFormsModule,
     RouterLink,
   ],
@@ -56,12 +55,7 @@ import { FormRequest } from '../forms/form-request';
             }
           </app-error-banner>
         }
-        <app-password-field
-          [control]="form.controls.password"
-          label="New password"
-          autocomplete="new-password"
-          [hint]="passwordRule"
-        />
+        <app-new-password-field [control]="form.controls.password" label="New password" />
         <app-busy-button
           class="submit"
           type="submit"
@@ -87,7 +81,6 @@ export class ResetPasswordPage {
   protected readonly done = signal(false);
   /** Whether the server refused the link itself (used, expired or unknown), not the password. */
   protected readonly linkSpent = signal(false);
-  protected readonly passwordRule = PASSWORD_RULE;
 
   protected submit(): void {
     const token = this.token();

@@ -1,12 +1,12 @@
 import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
-import { type FormControl, ReactiveFormsModule } from '@angular/forms';
+import { ReactiveFormsModule } from '@angular/forms';
 import {
   MAT_FORM_FIELD_DEFAULT_OPTIONS,
   MatFormFieldModule,
   type SubscriptSizing,
 } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { errorMessage } from '../shell/validators';
+import { TextField } from './text-field';
 
 /**
  * An e-mail address field: the e-mail keyboard on a phone, no capital or spelling correction, the
@@ -40,19 +40,13 @@ import { errorMessage } from '../shell/validators';
   styleUrl: './field.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class EmailField {
-  /** The form's control of the address, with its validators. */
-  readonly control = input.required<FormControl<string>>();
+export class EmailField extends TextField {
   /** The field's label. */
   readonly label = input('E-mail address');
   /** `username` where the address signs in, `email` for someone's address, `off` for another person's. */
   readonly autocomplete = input<'username' | 'email' | 'off'>('email');
-  /** A line under the field: "Where reports go". */
-  readonly hint = input<string | null>(null);
   /** How room is kept for the hint and the message; the form's default when not given. */
   readonly subscriptSizing = input<SubscriptSizing>(
     inject(MAT_FORM_FIELD_DEFAULT_OPTIONS, { optional: true })?.subscriptSizing ?? 'fixed',
   );
-
-  protected readonly errorMessage = errorMessage;
 }

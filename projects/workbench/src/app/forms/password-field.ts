@@ -1,9 +1,9 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
-import { type FormControl, ReactiveFormsModule } from '@angular/forms';
+import { ReactiveFormsModule } from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { errorMessage } from '../shell/validators';
 import { PasswordToggle } from './password-toggle';
+import { TextField } from './text-field';
 
 /**
  * A password field: no capitals or spelling correction, the autocomplete that tells a password manager
@@ -38,15 +38,9 @@ import { PasswordToggle } from './password-toggle';
   styleUrl: './field.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class PasswordField {
-  /** The form's control of the password, with its validators. */
-  readonly control = input.required<FormControl<string>>();
+export class PasswordField extends TextField {
   /** The field's label. */
   readonly label = input('Password');
   /** `current-password` to sign in, `new-password` where one is chosen. */
   readonly autocomplete = input.required<'current-password' | 'new-password'>();
-  /** The rule of a new password, under the field. */
-  readonly hint = input<string | null>(null);
-
-  protected readonly errorMessage = errorMessage;
 }
