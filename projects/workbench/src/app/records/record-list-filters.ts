@@ -22,6 +22,7 @@ import type { RecordList } from './record-list';
     </mat-form-field>
     <ng-content />
     <mat-button-toggle-group
+      hideSingleSelectionIndicator
       [value]="records().state().archived"
       (change)="records().showArchived($event.value)"
       [attr.aria-label]="archivedLabel()"
