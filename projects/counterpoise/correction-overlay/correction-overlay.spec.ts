@@ -6,6 +6,7 @@ import { describe, expect, it } from 'vitest';
 import type { RotationCounting, RotationDirection } from '@counterpoise/ng/core';
 import { CpCorrectionOverlayHarness } from '@counterpoise/ng/correction-overlay/testing';
 import { CpCorrectionOverlay } from './correction-overlay';
+import { CORRECTION, EXISTING } from './correction-overlay.fixtures';
 import type {
   BlockedSector,
   OverlayPoint,
@@ -47,8 +48,8 @@ class Host {
   readonly zeroAtDeg = signal(0);
   readonly sensorAngleDeg = signal<number | null>(90);
   readonly heavySpotDeg = signal<number | null>(280);
-  readonly corrections = signal<readonly OverlayWeight[]>([{ mass: 84, angleDeg: 100, unit: 'g' }]);
-  readonly existingWeights = signal<readonly OverlayWeight[]>([{ mass: 30, angleDeg: 200, unit: 'g' }]);
+  readonly corrections = signal<readonly OverlayWeight[]>(CORRECTION);
+  readonly existingWeights = signal<readonly OverlayWeight[]>(EXISTING);
   readonly allowedPositions = signal<number | null>(null);
   readonly blockedSectors = signal<readonly BlockedSector[]>([{ fromDeg: 20, toDeg: 40, label: 'holder' }]);
   readonly photo = signal<RotorPhoto | null>(null);
@@ -75,7 +76,7 @@ describe('CpCorrectionOverlay', () => {
     expect(await overlay.getDescriptionLines()).toEqual([
       "End view of the rotor, turning clockwise. Angles are counted against rotation from the reference mark, drawn at 12 o'clock.",
       'Correction: 84 g at 100 degrees against rotation.',
-      'Existing weight: 30 g at 200 degrees against rotation.',
+      'Existing weight: 30 g at 210 degrees against rotation.',
       'Heavy spot at 280 degrees.',
       'Sensor in line with 90 degrees.',
       'Blocked: holder 20 to 40 degrees.',
@@ -94,7 +95,7 @@ describe('CpCorrectionOverlay', () => {
   it('labels the corrections with mass and angle and follows their changes', async () => {
     const { host, overlay } = await setUp();
     expect(await overlay.getCorrectionLabels()).toEqual(['84 g at 100°']);
-    expect(await overlay.getExistingWeightLabels()).toEqual(['30 g at 200°']);
+    expect(await overlay.getExistingWeightLabels()).toEqual(['30 g at 210°']);
     host.corrections.set([
       { mass: 40, angleDeg: 90, unit: 'g', label: 'A' },
       { mass: 45, angleDeg: 30, unit: 'g', label: 'B' },

@@ -5,6 +5,7 @@ import {
   _screenAngleOfPoint as screenAngleOfPoint,
 } from '@counterpoise/ng/core';
 import { type StageSize, fittedFrame } from './overlay-geometry';
+import { CORRECTION } from './correction-overlay.fixtures';
 import { type OverlaySceneInput, buildOverlayScene } from './overlay-scene';
 
 function scene(size: StageSize, extra: Partial<OverlaySceneInput> = {}) {
@@ -25,6 +26,7 @@ function scene(size: StageSize, extra: Partial<OverlaySceneInput> = {}) {
 }
 
 /** A mulcher drum with a split correction near a tooth holder: the crowded case the overlay is for. */
+// Not SPLIT_AROUND_HOLDERS: this drum has an earlier weight inside a blocked sector and a marked point, which the checks need.
 const crowded: Partial<OverlaySceneInput> = {
   sensorAngleDeg: 90,
   heavySpotDeg: 285,
@@ -48,7 +50,7 @@ const crowded: Partial<OverlaySceneInput> = {
 
 describe('buildOverlayScene', () => {
   it('draws each correction on its angle, with its label', () => {
-    const s = scene({ width: 400, height: 400 }, { corrections: [{ mass: 84, angleDeg: 100, unit: 'g' }] });
+    const s = scene({ width: 400, height: 400 }, { corrections: CORRECTION });
     const [correction] = s.corrections;
     expect(screenAngleOfPoint(s.center, correction!.glyph)).toBeCloseTo(screenAngleDeg(100, s.convention), 9);
     expect(correction!.glyph.rotateDeg).toBeCloseTo(screenAngleDeg(100, s.convention), 9);

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { type PolarSeries } from './polar-plot-geometry';
 import { conventionText, describePoint, focusTarget, plottedPoints } from './polar-plot-model';
 
+// Kept apart from the fixtures: an unreadable (NaN) point and an angle the description rounds.
 const sensorA: PolarSeries = {
   id: 'a',
   label: 'Sensor A',

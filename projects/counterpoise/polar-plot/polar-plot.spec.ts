@@ -6,37 +6,8 @@ import { describe, expect, it } from 'vitest';
 import { type RotationCounting, type RotationDirection } from '@counterpoise/ng/core';
 import { CpPolarPlotHarness } from '@counterpoise/ng/polar-plot/testing';
 import { CpPolarPlot } from './polar-plot';
+import { JOB } from './polar-plot.fixtures';
 import { type PolarSeries } from './polar-plot-geometry';
-
-const SERIES: PolarSeries[] = [
-  {
-    id: 'sensor-a',
-    label: 'Sensor A',
-    kind: 'run',
-    unit: 'in/s',
-    points: [
-      { amplitude: 0.42, angleDeg: 128, label: 'Run 1' },
-      { amplitude: 0.31, angleDeg: 141, label: 'Run 2' },
-    ],
-  },
-  {
-    id: 'effect',
-    label: 'Trial effect',
-    kind: 'trialEffect',
-    unit: 'in/s',
-    points: [{ amplitude: 0.24, angleDeg: 262, from: { amplitude: 0.42, angleDeg: 128 } }],
-  },
-  {
-    id: 'weights',
-    label: 'Weights',
-    kind: 'weight',
-    unit: 'g',
-    points: [
-      { amplitude: 60, angleDeg: 0, label: 'Trial' },
-      { amplitude: 85, angleDeg: 214, label: 'Correction' },
-    ],
-  },
-];
 
 @Component({
   imports: [CpPolarPlot],
@@ -54,7 +25,7 @@ const SERIES: PolarSeries[] = [
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 class Host {
-  readonly series = signal<readonly PolarSeries[]>(SERIES);
+  readonly series = signal<readonly PolarSeries[]>(JOB);
   readonly rotation = signal<RotationDirection>('clockwise');
   readonly counting = signal<RotationCounting>('againstRotation');
   readonly maxAmplitude = signal<number | null>(null);
@@ -72,20 +43,28 @@ async function setUp() {
 describe('CpPolarPlot', () => {
   it('lists every series in the legend and labels the rings in the first unit', async () => {
     const { plot } = await setUp();
-    expect(await plot.getSeriesLabels()).toEqual(['Sensor A', 'Trial effect', 'Weights']);
+    expect(await plot.getSeriesLabels()).toEqual([
+      'Sensor A',
+      'Trial effect',
+      'Predicted residual',
+      'Weights',
+    ]);
     expect(await plot.getRingLabels()).toEqual(['0.15', '0.3', '0.45', '0.6 in/s']);
     expect(await plot.getNote()).toContain('Rings 0.15 in/s apart, outer ring 0.6 in/s.');
-    expect(await plot.getPointCount()).toBe(5);
+    expect(await plot.getPointCount()).toBe(8);
   });
 
   it('gives every point an accessible name with its amplitude, unit and angle', async () => {
     const { plot } = await setUp();
     expect(await plot.getPointDescriptions()).toEqual([
       'Run 1, Sensor A: 0.42 in/s at 128 degrees',
-      'Run 2, Sensor A: 0.31 in/s at 141 degrees',
-      'Trial effect: 0.24 in/s at 262 degrees, from 0.42 in/s at 128 degrees',
+      'Run 2, Sensor A: 0.29 in/s at 196 degrees',
+      'Run 3, Sensor A: 0.04 in/s at 62 degrees',
+      'Trial effect: 0.411 in/s at 267.2 degrees, from 0.42 in/s at 128 degrees',
+      'Predicted residual: 0.032 in/s at 56 degrees',
       'Trial, Weights: 60 g at 0 degrees',
-      'Correction, Weights: 85 g at 214 degrees',
+      'Ideal, Weights: 61 g at 41 degrees',
+      'Installed, Weights: 60 g at 45 degrees',
     ]);
   });
 
@@ -94,7 +73,7 @@ describe('CpPolarPlot', () => {
     expect(await plot.getFocusedDetail()).toBeNull();
     expect(await plot.getTabStopIndex()).toBe(0);
     await plot.focusPoint(1);
-    expect(await plot.getFocusedDetail()).toBe('Run 2, Sensor A: 0.31 in/s at 141 degrees');
+    expect(await plot.getFocusedDetail()).toBe('Run 2, Sensor A: 0.29 in/s at 196 degrees');
     expect(await plot.getTabStopIndex()).toBe(1);
   });
 
@@ -104,14 +83,14 @@ describe('CpPolarPlot', () => {
     await plot.pressKey(TestKey.RIGHT_ARROW);
     expect(await plot.getFocusedPointIndex()).toBe(1);
     await plot.pressKey(TestKey.PAGE_DOWN);
-    expect(await plot.getFocusedPointIndex()).toBe(2);
+    expect(await plot.getFocusedPointIndex()).toBe(3);
     await plot.pressKey(TestKey.END);
-    expect(await plot.getFocusedPointIndex()).toBe(4);
-    expect(await plot.getFocusedDetail()).toBe('Correction, Weights: 85 g at 214 degrees');
+    expect(await plot.getFocusedPointIndex()).toBe(7);
+    expect(await plot.getFocusedDetail()).toBe('Installed, Weights: 60 g at 45 degrees');
     await plot.pressKey(TestKey.DOWN_ARROW);
     expect(await plot.getFocusedPointIndex()).toBe(0);
     await plot.pressKey(TestKey.LEFT_ARROW);
-    expect(await plot.getFocusedPointIndex()).toBe(4);
+    expect(await plot.getFocusedPointIndex()).toBe(7);
     await plot.pressKey(TestKey.HOME);
     expect(await plot.getFocusedPointIndex()).toBe(0);
     expect(await plot.getTabStopIndex()).toBe(0);
@@ -119,9 +98,9 @@ describe('CpPolarPlot', () => {
 
   it('shows the detail of the point under the pointer, and the hint again when it leaves', async () => {
     const { plot } = await setUp();
-    await plot.hoverPoint(3);
+    await plot.hoverPoint(5);
     expect(await plot.getFocusedDetail()).toBe('Trial, Weights: 60 g at 0 degrees');
-    await plot.leavePoint(3);
+    await plot.leavePoint(5);
     expect(await plot.getFocusedDetail()).toBeNull();
   });
 
@@ -129,19 +108,19 @@ describe('CpPolarPlot', () => {
     const { plot } = await setUp();
     expect(await plot.getTableCaption()).toBe('Drum, left bearing: every value');
     const rows = await plot.getTableRows();
-    expect(rows).toHaveLength(5);
+    expect(rows).toHaveLength(8);
     expect(rows[1]).toEqual({
       series: 'Sensor A',
       point: 'Run 2',
-      amplitude: '0.31 in/s',
-      angle: '141°',
+      amplitude: '0.29 in/s',
+      angle: '196°',
       from: 'Origin',
     });
-    expect(rows[2]).toEqual({
+    expect(rows[3]).toEqual({
       series: 'Trial effect',
       point: 'Point 1',
-      amplitude: '0.24 in/s',
-      angle: '262°',
+      amplitude: '0.411 in/s',
+      angle: '267.2°',
       from: '0.42 in/s at 128 degrees',
     });
   });
@@ -176,10 +155,10 @@ describe('CpPolarPlot', () => {
     expect(await empty.getTableRows()).toEqual([]);
     expect(await empty.getTabStopIndex()).toBeNull();
     expect(await empty.getSeriesLabels()).toEqual([]);
-    await plot.focusPoint(4);
-    fixture.componentInstance.series.set(SERIES.slice(0, 1));
-    expect(await plot.getPointCount()).toBe(2);
-    expect(await plot.getTabStopIndex()).toBe(1);
+    await plot.focusPoint(7);
+    fixture.componentInstance.series.set(JOB.slice(0, 1));
+    expect(await plot.getPointCount()).toBe(3);
+    expect(await plot.getTabStopIndex()).toBe(2);
   });
 
   it('is a figure whose chart is a group named by the caption and described by its convention', async () => {
