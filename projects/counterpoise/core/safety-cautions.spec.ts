@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
+import { JOB_SAFETY_TOPICS } from '@counterpoise/api';
 import { SAFETY_CAUTIONS, SAFETY_TOPICS, cautionsFor } from './safety-cautions';
+
+describe('SAFETY_TOPICS', () => {
+  it('are the topics a balancing job acknowledges on the server, in the same order', () => {
+    // The library repeats them rather than import @counterpoise/api at run time (zod would come with it).
+    expect(SAFETY_TOPICS).toEqual(JOB_SAFETY_TOPICS);
+  });
+});
 
 describe('cautionsFor', () => {
   it('gives every caution when no topic is asked for', () => {
