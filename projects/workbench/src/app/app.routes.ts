@@ -146,6 +146,24 @@ export const routes: Routes = [
     ],
   },
   {
+    path: 'jobs',
+    canActivate: [requirePermission('jobs:read')],
+    children: [
+      {
+        path: '',
+        title: 'Jobs · Counterpoise',
+        loadComponent: () => import('./jobs/jobs-page').then((m) => m.JobsPage),
+      },
+      {
+        path: ':id',
+        title: 'Job · Counterpoise',
+        // The correction step's calculator and overlay compute on the device: a job goes on without signal.
+        providers: [provideCounterpoise({ solver: 'local' })],
+        loadComponent: () => import('./jobs/job-page').then((m) => m.JobPage),
+      },
+    ],
+  },
+  {
     path: 'people',
     title: 'People · Counterpoise',
     canActivate: [requirePermission('people:read')],

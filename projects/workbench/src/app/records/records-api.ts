@@ -48,6 +48,24 @@ export function queryParams(query: object): HttpParams {
 }
 
 /**
+ * The record as stored now when a change was refused because someone changed it meanwhile (412 with the
+ * record in the problem's `current`); null for any other failure.
+ */
+export function changedMeanwhileOf<T extends { readonly version: number }>(
+  error: unknown,
+): ChangedMeanwhile<T> | null {
+  if (!(error instanceof HttpErrorResponse) || error.status !== 412) return null;
+  const problem = problemOf(error) as (Problem & { current?: T }) | null;
+  const current = problem?.current;
+  if (typeof current !== 'object' || current === null) return null;
+  return {
+    record: current,
+    etag: error.headers.get('ETag') ?? etagOfVersion(current.version),
+    detail: problem?.detail ?? null,
+  };
+}
+
+/**
  * The six routes every kind of shop record has (list, read, create, change, archive, restore) and its change
  * history, so that each feature's data service is its base address and its types, and the pages hold no
  * URLs. Reads and writes carry the ETag; every change sends it back in `If-Match`, so that the server can
@@ -110,15 +128,7 @@ export abstract class RecordsApi<
    * record in the problem's `current`); null for any other failure.
    */
   changedMeanwhile(error: unknown): ChangedMeanwhile<TRecord> | null {
-    if (!(error instanceof HttpErrorResponse) || error.status !== 412) return null;
-    const problem = problemOf(error) as (Problem & { current?: TRecord }) | null;
-    const current = problem?.current;
-    if (typeof current !== 'object' || current === null) return null;
-    return {
-      record: current,
-      etag: error.headers.get('ETag') ?? etagOfVersion(current.version),
-      detail: problem?.detail ?? null,
-    };
+    return changedMeanwhileOf<TRecord>(error);
   }
 
   private action(id: number, action: 'archive' | 'restore', etag: string): Observable<Versioned<TRecord>> {

@@ -17,6 +17,7 @@ export interface NavigationItem {
 /** The main navigation, in the order of a technician's day. */
 export const NAVIGATION: readonly NavigationItem[] = [
   { label: 'Home', icon: 'home', link: '/' },
+  { label: 'Jobs', icon: 'assignment', link: '/jobs', permission: 'jobs:read' },
   { label: 'Safety', icon: 'health_and_safety', link: '/safety' },
   { label: 'Customers', icon: 'storefront', link: '/customers', permission: 'records:read' },
   { label: 'Machines', icon: 'agriculture', link: '/machines', permission: 'records:read' },

@@ -1,0 +1,93 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import { JobSession } from './job-session';
+
+/**
+ * Where the job's last change stands, in one line under its heading: stored (and when), being sent, not
+ * stored yet and being sent again (with why, the attempt and a "Try now"), refused, or changed meanwhile.
+ * Read out politely as it changes; a refusal or a change made meanwhile asks to be heard at once.
+ */
+@Component({
+  selector: 'app-job-save-status',
+  imports: [DatePipe, MatButtonModule, MatIconModule, MatProgressSpinnerModule],
+  template: `
+    @let state = session.saveState();
+    <div class="save-status" [class]="'save-status save-status--' + state.kind" [attr.role]="role()">
+      @switch (state.kind) {
+        @case ('saving') {
+          <mat-spinner diameter="20" aria-hidden="true" />
+          <span>Saving: {{ state.what }}…</span>
+        }
+        @case ('retrying') {
+          <mat-icon aria-hidden="true">cloud_off</mat-icon>
+          <span>
+            <strong>Not saved yet: {{ state.what }}.</strong> {{ state.reason }} Trying again by itself
+            (attempt {{ state.attempt + 1 }}, in {{ state.delayMs / 1000 }} s); it stays on this device
+            meanwhile.
+          </span>
+          <button matButton="outlined" type="button" (click)="session.retryNow()">Try now</button>
+        }
+        @case ('saved') {
+          <mat-icon aria-hidden="true">cloud_done</mat-icon>
+          <span>Saved: {{ state.what }}, at {{ state.at | date: 'HH:mm:ss' }}.</span>
+        }
+        @case ('refused') {
+          <mat-icon aria-hidden="true">error</mat-icon>
+          <span
+            ><strong>Not saved: {{ state.what }}.</strong> {{ state.message }}</span
+          >
+          <button matButton type="button" (click)="session.dismiss()">Dismiss</button>
+        }
+        @case ('changed-meanwhile') {
+          <mat-icon aria-hidden="true">sync_problem</mat-icon>
+          <span
+            ><strong>Not saved: {{ state.what }}.</strong> {{ state.message }}</span
+          >
+          <button matButton type="button" (click)="session.dismiss()">Dismiss</button>
+        }
+        @default {
+          <mat-icon aria-hidden="true">cloud_done</mat-icon>
+          <span>Everything entered is saved on the server.</span>
+        }
+      }
+    </div>
+  `,
+  styles: `
+    .save-status {
+      display: flex;
+      align-items: center;
+      flex-wrap: wrap;
+      gap: 8px 12px;
+      min-height: 48px;
+      padding: 4px 12px;
+      border-radius: 8px;
+      font: var(--mat-sys-body-medium);
+      background: var(--mat-sys-surface-container);
+      color: var(--mat-sys-on-surface);
+    }
+    .save-status span {
+      flex: 1 1 16rem;
+    }
+    .save-status--retrying,
+    .save-status--refused,
+    .save-status--changed-meanwhile {
+      background: var(--mat-sys-error-container);
+      color: var(--mat-sys-on-error-container);
+    }
+    button {
+      --mat-button-outlined-container-height: 48px;
+      --mat-button-text-container-height: 48px;
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class JobSaveStatus {
+  protected readonly session = inject(JobSession);
+  protected readonly role = computed(() => {
+    const kind = this.session.saveState().kind;
+    return kind === 'refused' || kind === 'changed-meanwhile' ? 'alert' : 'status';
+  });
+}
