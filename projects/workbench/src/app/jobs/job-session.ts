@@ -31,9 +31,12 @@ export type SaveOutcome =
 /** A change of the job, made on the ETag it is given. */
 export type JobChange = (api: JobsApi, id: number, etag: string) => Observable<VersionedJob>;
 
+/** The waits before the first new attempts; every later one waits 30 s. */
+const RETRY_DELAYS_MS = [1000, 2000, 4000, 8000, 15_000];
+
 /** Waits before the n-th new attempt (1, 2, 4, 8, 15, then 30 s): soon after a blip, gently on a long outage. */
 export function retryDelayMs(attempt: number): number {
-  return Math.min(1000 * 2 ** (attempt - 1), attempt >= 5 ? 30_000 : 15_000);
+  return RETRY_DELAYS_MS[attempt - 1] ?? 30_000;
 }
 
 /**
