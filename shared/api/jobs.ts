@@ -109,6 +109,11 @@ export const JOBS_PROBLEM_CODES = {
   methodNotPossible: 'METHOD_NOT_POSSIBLE',
   /** Only the job's technician or a manager may change it: 403. */
   notYourJob: 'NOT_YOUR_JOB',
+  /**
+   * The run's readings can no longer be typed again: a later run or a correction computed from it rests
+   * on them (409). Take a new run instead.
+   */
+  runInUse: 'RUN_IN_USE',
 } as const;
 
 // Requests
@@ -213,29 +218,36 @@ const RepeatSchema = z.strictObject({
 export const RUN_KINDS = ['initial', 'trial', 'verification'] as const;
 export type RunKind = (typeof RUN_KINDS)[number];
 
+/** The trial weight of a trial run, as typed. */
+const TrialWeightSchema = z.strictObject({
+  planeIndex: PlaneIndexSchema,
+  massGrams: MassGramsSchema,
+  angleDeg: AngleSchema('angle'),
+});
+
+/** Each sensor's repeats of a run, as typed: one to two sensors, each named once. */
+const RunReadingsSchema = z
+  .array(
+    z.strictObject({
+      sensorSide: SideSchema,
+      repeats: z
+        .array(RepeatSchema)
+        .min(1, { error: 'Enter at least one reading.' })
+        .max(20, { error: 'At most 20 repeats a sensor.' }),
+    }),
+  )
+  .min(1, { error: 'Enter the readings of at least one sensor.' })
+  .max(2)
+  .refine((readings) => new Set(readings.map((reading) => reading.sensorSide)).size === readings.length, {
+    error: 'Give each sensor once.',
+  });
+
 /** A run as typed: its kind, the trial weight of a trial run, and the repeats of each sensor. */
 export const AddRunSchema = z
   .strictObject({
     kind: z.enum(RUN_KINDS, { error: `The run is one of ${RUN_KINDS.join(', ')}.` }),
-    trialWeight: z
-      .strictObject({
-        planeIndex: PlaneIndexSchema,
-        massGrams: MassGramsSchema,
-        angleDeg: AngleSchema('angle'),
-      })
-      .optional(),
-    readings: z
-      .array(
-        z.strictObject({
-          sensorSide: SideSchema,
-          repeats: z
-            .array(RepeatSchema)
-            .min(1, { error: 'Enter at least one reading.' })
-            .max(20, { error: 'At most 20 repeats a sensor.' }),
-        }),
-      )
-      .min(1, { error: 'Enter the readings of at least one sensor.' })
-      .max(2),
+    trialWeight: TrialWeightSchema.optional(),
+    readings: RunReadingsSchema,
   })
   .superRefine((run, context) => {
     if (run.kind === 'trial' && run.trialWeight === undefined) {
@@ -252,13 +264,25 @@ export const AddRunSchema = z
         message: 'Only a trial run has a trial weight.',
       });
     }
-    const sides = run.readings.map((reading) => reading.sensorSide);
-    if (new Set(sides).size !== sides.length) {
-      context.addIssue({ code: 'custom', path: ['readings'], message: 'Give each sensor once.' });
-    }
   })
   .meta({ id: 'AddRun' });
 export type AddRun = z.input<typeof AddRunSchema>;
+
+/**
+ * The readings of the job's latest run typed again, when they were mistyped (a phase of 212 typed as
+ * 21, the other sensor's amplitude): every sensor's repeats as in AddRun, replacing the run's, and for a
+ * trial run its trial weight if that was mistyped too (left out, the stored one stays). The run's kind
+ * does not change. The server averages and checks them again and keeps what was typed before.
+ */
+export const CorrectRunReadingsSchema = z
+  .strictObject({
+    readings: RunReadingsSchema,
+    trialWeight: TrialWeightSchema.optional().meta({
+      description: 'A trial run’s trial weight typed again; only a trial run has one.',
+    }),
+  })
+  .meta({ id: 'CorrectRunReadings' });
+export type CorrectRunReadings = z.input<typeof CorrectRunReadingsSchema>;
 
 /** The methods of correction, simplest first. */
 export const CORRECTION_METHODS = ['one-run', 'single-plane', 'multi-plane'] as const;
@@ -326,6 +350,24 @@ export const SensorReadingSchema = z
   })
   .meta({ id: 'SensorReading' });
 
+/** One retyping of a run's readings: when, who, and what was typed before it. */
+export const RunRetypeSchema = z
+  .object({
+    at: z.iso.datetime(),
+    by: PersonRefSchema,
+    /** Each sensor's repeats as they were before this retyping. */
+    previousReadings: z.array(
+      z.object({
+        sensorSide: SideSchema,
+        repeats: z.array(z.object({ amplitude: z.number(), phaseDeg: z.number(), speedRpm: z.number() })),
+      }),
+    ),
+    /** The trial weight before this retyping (null for a run without one). */
+    previousTrialWeight: PlaneWeightOutSchema.nullable(),
+  })
+  .meta({ id: 'RunRetype' });
+export type RunRetype = z.infer<typeof RunRetypeSchema>;
+
 export const JobRunSchema = z
   .object({
     id: IdSchema,
@@ -339,6 +381,12 @@ export const JobRunSchema = z
     warnings: z.array(z.string()),
     createdAt: z.iso.datetime(),
     by: PersonRefSchema,
+    /**
+     * Each time the readings were typed again, oldest first: when, who, and the readings (and trial
+     * weight) as they stood before, so the first entry holds the run as first typed. The server always
+     * sends it (empty when never retyped); optional for a job a client kept from before it existed.
+     */
+    retyped: z.array(RunRetypeSchema).optional(),
   })
   .meta({ id: 'JobRun' });
 export type JobRun = z.infer<typeof JobRunSchema>;

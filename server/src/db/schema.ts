@@ -24,6 +24,7 @@ import type {
   StoredInspection,
   StoredPlaneWeight,
   StoredPrediction,
+  StoredRunRetype,
   StoredSafety,
   StoredSensorReading,
   StoredSetup,
@@ -424,7 +425,8 @@ export const jobs = sqliteTable(
 /**
  * The runs of a job: the readings of every sensor (each repeat as typed, and their vector average), the
  * trial weight of a trial run, and the job's weights on the rotor while it turned. Numbered within the
- * job; the unique index makes two runs with one number impossible.
+ * job; the unique index makes two runs with one number impossible. `retyped` keeps what was typed before
+ * each retyping of the readings (oldest first), so the run as first typed is never lost.
  */
 export const jobRuns = sqliteTable(
   'job_runs',
@@ -446,6 +448,7 @@ export const jobRuns = sqliteTable(
       .notNull()
       .references(() => users.id),
     createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull(),
+    retyped: text('retyped', { mode: 'json' }).$type<StoredRunRetype[]>().notNull().default([]),
   },
   (table) => [uniqueIndex('job_runs_job_sequence_idx').on(table.jobId, table.sequence)],
 );

@@ -57,6 +57,7 @@ function run(
     warnings: [],
     createdById: 1,
     createdAt: new Date('2026-04-14T08:00:00Z'),
+    retyped: [],
   };
 }
 

@@ -1,4 +1,11 @@
-import type { InstalledWeight, Job, JobCorrection, JobRun, StoredSensitivity } from '@counterpoise/api';
+import type {
+  InstalledWeight,
+  Job,
+  JobCorrection,
+  JobRun,
+  RunRetype,
+  StoredSensitivity,
+} from '@counterpoise/api';
 
 /*
  * What the jobs' JSON columns hold. People are stored by id (`byId`) and named when a job is read, so
@@ -37,6 +44,10 @@ export interface StoredCompletion extends Omit<NonNullable<Job['completion']>, '
 
 /** A sensor's reading of a run, as stored. */
 export type StoredSensorReading = JobRun['readings'][number];
+/** One retyping of a run's readings: when, who, and the readings and trial weight typed before it. */
+export interface StoredRunRetype extends Omit<RunRetype, 'by'> {
+  readonly byId: number;
+}
 /** A weight in a plane, as stored. */
 export type StoredPlaneWeight = JobRun['weightsOnRotor'][number];
 /** The calculator route and request of a correction. */

@@ -32,6 +32,9 @@ export const ADD_RUN_EXAMPLE = {
   ],
 };
 
+/** The initial run's readings typed again: the second repeat's phase was typed 4 for 40. */
+export const CORRECT_RUN_READINGS_EXAMPLE = { readings: ADD_RUN_EXAMPLE.readings };
+
 export const SETUP_EXAMPLE = {
   sensors: [
     { side: 'left' as const, position: 'Left bearing housing, horizontal' },
@@ -106,8 +109,24 @@ export const JOB_EXAMPLE: Job = {
         },
       ],
       warnings: [],
-      createdAt: '2026-04-14T08:15:40.000Z',
+      createdAt: '2026-04-14T08:12:05.000Z',
       by: TECHNICIAN,
+      retyped: [
+        {
+          at: '2026-04-14T08:15:40.000Z',
+          by: TECHNICIAN,
+          previousReadings: [
+            {
+              sensorSide: 'left',
+              repeats: [
+                { amplitude: 0.46, phaseDeg: 38, speedRpm: 2150 },
+                { amplitude: 0.47, phaseDeg: 4, speedRpm: 2152 },
+              ],
+            },
+          ],
+          previousTrialWeight: null,
+        },
+      ],
     },
   ],
   corrections: [],

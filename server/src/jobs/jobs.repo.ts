@@ -146,6 +146,19 @@ export class JobsRepo {
     return this.orm.insert(jobRuns).values(values).returning({ id: jobRuns.id }).get().id;
   }
 
+  /** Replaces a run's readings, warnings and trial weight, with the retypings that keep what was before. */
+  retypeRun(
+    organisationId: number,
+    id: number,
+    values: Pick<typeof jobRuns.$inferInsert, 'readings' | 'warnings' | 'trialWeight' | 'retyped'>,
+  ): void {
+    this.orm
+      .update(jobRuns)
+      .set(values)
+      .where(and(eq(jobRuns.id, id), eq(jobRuns.organisationId, organisationId)))
+      .run();
+  }
+
   insertCorrection(values: Omit<typeof jobCorrections.$inferInsert, 'id'>): number {
     return this.orm.insert(jobCorrections).values(values).returning({ id: jobCorrections.id }).get().id;
   }

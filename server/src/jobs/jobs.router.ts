@@ -5,6 +5,7 @@ import {
   AddRunSchema,
   AssignJobSchema,
   ComputeCorrectionSchema,
+  CorrectRunReadingsSchema,
   CreateJobSchema,
   type Job,
   JobChangedMeanwhileSchema,
@@ -26,6 +27,7 @@ import { RECORDS_BASE_PATH } from '../records/record-routes';
 import { etagOf, ifMatchVersions, requireIfMatch } from '../records/versions';
 import {
   ADD_RUN_EXAMPLE,
+  CORRECT_RUN_READINGS_EXAMPLE,
   CREATE_JOB_EXAMPLE,
   INSPECTION_EXAMPLE,
   INSTALLED_EXAMPLE,
@@ -62,6 +64,14 @@ const CorrectionParamSchema = IdParamSchema.extend({
     .regex(/^[1-9]\d{0,15}$/, { error: 'The correction id is a positive whole number.' })
     .transform(Number)
     .meta({ param: { name: 'correctionId', in: 'path' }, example: '12' }),
+});
+
+const RunParamSchema = IdParamSchema.extend({
+  runId: z
+    .string()
+    .regex(/^[1-9]\d{0,15}$/, { error: 'The run id is a positive whole number.' })
+    .transform(Number)
+    .meta({ param: { name: 'runId', in: 'path' }, example: '402' }),
 });
 
 const IF_MATCH_RULE =
@@ -299,6 +309,36 @@ export function jobsRouter(deps: {
     bodyExample: ADD_RUN_EXAMPLE,
     status: 201,
     handle: (actor, id, v, body) => jobs.addRun(actor, id, v, body),
+  });
+  table.add({
+    method: 'put',
+    path: '/jobs/{id}/runs/{runId}/readings',
+    summary: 'Type the readings of the latest run again',
+    description:
+      'When a run’s readings were mistyped (a phase of 212 typed as 21, the other sensor’s amplitude): every ' +
+      'sensor’s repeats as in AddRun replace the run’s, and a trial run’s `trialWeight` may be typed again ' +
+      'too (left out, the stored one stays; a run of another kind has none). The kind does not change. The ' +
+      'server averages and checks them again as when the run was added (spread, speed drift from the ' +
+      'initial run) and appends what was typed before, with who and when, to the run’s `retyped`: the first ' +
+      'entry holds the run as first typed. An open job’s latest run only, and only while no correction was ' +
+      `computed from it: otherwise 409 \`RUN_IN_USE\`, and a new run is the way to read again. ${IF_MATCH_RULE}`,
+    access: 'write',
+    params: RunParamSchema,
+    headers: IF_MATCH_HEADERS,
+    before: [requireIfMatch],
+    body: CorrectRunReadingsSchema,
+    bodyExample: CORRECT_RUN_READINGS_EXAMPLE,
+    bodyLimit: '64kb',
+    answer: answer('The job as changed, the run with its new readings and `retyped`.'),
+    problems: {
+      ...PROBLEMS,
+      404: 'No job with this id in your organisation, or the job has no run with this id.',
+      409:
+        'The run is not the job’s latest, or a correction was computed from it (`RUN_IN_USE`: take a new run ' +
+        'instead); the job is not open (`JOB_NOT_OPEN`); a step before it is missing (`STEP_MISSING`).',
+    },
+    handle: ({ params, body, res }) =>
+      withEtag(res, jobs.correctRunReadings(actorOf(res), params.id, params.runId, versions(res), body)),
   });
   step({
     method: 'post',

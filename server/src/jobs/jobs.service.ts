@@ -1,6 +1,7 @@
 import {
   type AddRun,
   can,
+  type CorrectRunReadings,
   type CreateJob,
   type InstalledWeight,
   type JobSafetyTopic,
@@ -245,14 +246,7 @@ export class JobsService {
       const radii = machine.planes.map((plane) => plane.correctionRadiusMm);
       const runs = this.repo.runsOf(actor.organisationId, job.id);
       const corrections = this.repo.correctionsOf(actor.organisationId, job.id);
-      body.readings.forEach((reading, index) => {
-        if (!setup.sensors.some((sensor) => sensor.side === reading.sensorSide)) {
-          throw badField(
-            `readings[${index}].sensorSide`,
-            `The set-up has no sensor on the ${reading.sensorSide} side.`,
-          );
-        }
-      });
+      this.checkSensors(setup, body.readings);
       const initial = runs.find((run) => run.kind === 'initial');
       if (body.kind === 'initial' && initial !== undefined)
         throw conflict('The job has its initial run already.');
@@ -276,6 +270,69 @@ export class JobsService {
         warnings: averaged.warnings,
         createdById: actor.id,
         createdAt: this.clock.now(),
+      });
+      return {};
+    });
+  }
+
+  /**
+   * The readings of the job's latest run typed again (a phase of 212 typed as 21, another sensor's
+   * amplitude), and for a trial run its trial weight if given: averaged and checked as when the run was
+   * added, with what was typed before kept in the run's `retyped`. Only while nothing rests on the run:
+   * a later run or a correction computed from it makes it 409 `RUN_IN_USE` (take a new run instead).
+   */
+  correctRunReadings(
+    actor: JobActor,
+    id: number,
+    runId: number,
+    versions: readonly number[],
+    body: CorrectRunReadings,
+  ): Job {
+    return this.change(actor, id, versions, WORKING, (job) => {
+      const { setup, radii, runs, corrections } = this.workingState(job);
+      const run = runs.find((candidate) => candidate.id === runId);
+      if (run === undefined) throw new HttpProblem(404, 'Not Found', 'The job has no run with this id.');
+      if (run !== runs.at(-1)) {
+        throw conflict(
+          `Run ${run.sequence} is not the job’s latest run: the runs after it were read with it. Take a new run instead.`,
+          JOBS_PROBLEM_CODES.runInUse,
+        );
+      }
+      const used = corrections.filter((correction) => correction.runIds.includes(run.id));
+      if (used.length > 0) {
+        throw conflict(
+          `Correction ${used.map((correction) => correction.sequence).join(', ')} was computed from run ${run.sequence}: ` +
+            'its readings can no longer change. Take a new run instead.',
+          JOBS_PROBLEM_CODES.runInUse,
+        );
+      }
+      if (body.trialWeight !== undefined && run.kind !== 'trial') {
+        throw new HttpProblem(400, 'Bad Request', 'trialWeight: Only a trial run has a trial weight.', [
+          { path: 'trialWeight', message: 'Only a trial run has a trial weight.' },
+        ]);
+      }
+      this.checkSensors(setup, body.readings);
+      if (body.trialWeight !== undefined && body.trialWeight.planeIndex >= radii.length) {
+        throw badField('trialWeight.planeIndex', `The machine has ${radii.length} plane(s).`);
+      }
+      const initial = run.kind === 'initial' ? undefined : runs.find((other) => other.kind === 'initial');
+      const averaged = averageRun(body.readings, initial === undefined ? undefined : runSpeedRpm(initial));
+      this.repo.retypeRun(actor.organisationId, run.id, {
+        readings: averaged.readings,
+        warnings: averaged.warnings,
+        trialWeight: body.trialWeight ?? run.trialWeight,
+        retyped: [
+          ...run.retyped,
+          {
+            at: this.now(),
+            byId: actor.id,
+            previousReadings: run.readings.map((reading) => ({
+              sensorSide: reading.sensorSide,
+              repeats: reading.repeats,
+            })),
+            previousTrialWeight: run.trialWeight,
+          },
+        ],
       });
       return {};
     });
@@ -499,6 +556,18 @@ export class JobsService {
     });
   }
 
+  /** Each sensor of a run's readings is one of the set-up's (400 on the side named otherwise). */
+  private checkSensors(setup: StoredSetup, readings: AddRun['readings']): void {
+    readings.forEach((reading, index) => {
+      if (!setup.sensors.some((sensor) => sensor.side === reading.sensorSide)) {
+        throw badField(
+          `readings[${index}].sensorSide`,
+          `The set-up has no sensor on the ${reading.sensorSide} side.`,
+        );
+      }
+    });
+  }
+
   private requireInspected(job: JobRow): void {
     if (job.safety === null) throw conflict('Acknowledge the safety cautions first.');
     if (job.inspection === null) throw conflict('Record the inspection first.');
@@ -598,6 +667,7 @@ export class JobsService {
         warnings: run.warnings,
         createdAt: run.createdAt.toISOString(),
         by: person(run.createdById),
+        retyped: run.retyped.map((retype) => ({ ...withoutBy(retype), by: person(retype.byId) })),
       })),
       corrections: corrections.map((correction) => ({
         id: correction.id,

@@ -3,6 +3,7 @@ import { inject, Injectable } from '@angular/core';
 import type {
   AddRun,
   CorrectionMethod,
+  CorrectRunReadings,
   CreateJob,
   Job,
   JobListQuery,
@@ -29,6 +30,7 @@ import {
 export type {
   AddRun,
   CorrectionMethod,
+  CorrectRunReadings,
   CreateJob,
   Job,
   JobCorrection,
@@ -44,6 +46,7 @@ export type {
   RecordInstalled,
   RecordSetup,
   RunKind,
+  RunRetype,
 } from '@counterpoise/api';
 
 /** The list's filters and page; what is left out takes the server's default. */
@@ -124,6 +127,20 @@ export class JobsApi {
   /** Step 4: one run's readings; the server averages the repeats and checks them. */
   addRun(id: number, run: AddRun, etag: string): Observable<VersionedJob> {
     return this.change('POST', id, 'runs', run, etag);
+  }
+
+  /**
+   * Step 4: the latest run's readings typed again when they were mistyped (and a trial run's trial weight,
+   * if given); the server averages and checks them again and keeps what was typed before in the run's
+   * `retyped`. A run a later run or a correction rests on is refused (409 `RUN_IN_USE`): take a new run.
+   */
+  correctRunReadings(
+    id: number,
+    runId: number,
+    body: CorrectRunReadings,
+    etag: string,
+  ): Observable<VersionedJob> {
+    return this.change('PUT', id, `runs/${encodeURIComponent(runId)}/readings`, body, etag);
   }
 
   /** Step 5: a correction by the method chosen, computed by the server from the stored runs. */

@@ -1,0 +1,1 @@
+ALTER TABLE `job_runs` ADD `retyped` text DEFAULT '[]' NOT NULL;
