@@ -2058,3 +2058,216 @@ export const COMPLETED_MULCHER_JOB: Job = {
   },
   abandonment: null,
 };
+
+// Job 13 on the same mulcher, as the demo server answered its first steps (safety, inspection, set-up specs).
+
+/** Job 13 as started (version 1): nothing done yet, it opens at the safety step. */
+export const JOB_NEW: Job = {
+  id: 13,
+  version: 1,
+  status: 'open',
+  nextStep: 'safety',
+  scheduledFor: '2026-12-05',
+  machine: {
+    id: 5,
+    serialNumber: 'BF250-00921',
+    make: 'Brackenfold',
+    model: 'BF-250',
+    customerId: 6,
+    customerName: 'Wyndle Ridge Line Services',
+    familyId: 1,
+    familyName: 'Fixed-tooth mulcher drum, 2.0 m',
+  },
+  technician: {
+    id: 3,
+    name: 'Tomasz Wrenfield',
+  },
+  createdAt: '2026-12-05T02:56:03.275Z',
+  updatedAt: '2026-12-05T02:56:03.275Z',
+  safety: null,
+  inspection: null,
+  setup: null,
+  runs: [],
+  corrections: [],
+  verification: null,
+  completion: null,
+  abandonment: null,
+};
+
+/** Job 13 with its safety cautions acknowledged (version 2): it opens at the inspection. */
+export const JOB_SAFETY_ACKNOWLEDGED: Job = {
+  id: 13,
+  version: 2,
+  status: 'open',
+  nextStep: 'inspection',
+  scheduledFor: '2026-12-05',
+  machine: {
+    id: 5,
+    serialNumber: 'BF250-00921',
+    make: 'Brackenfold',
+    model: 'BF-250',
+    customerId: 6,
+    customerName: 'Wyndle Ridge Line Services',
+    familyId: 1,
+    familyName: 'Fixed-tooth mulcher drum, 2.0 m',
+  },
+  technician: {
+    id: 3,
+    name: 'Tomasz Wrenfield',
+  },
+  createdAt: '2026-12-05T02:56:03.275Z',
+  updatedAt: '2026-12-05T02:56:04.741Z',
+  safety: {
+    topicIds: ['lockout', 'running', 'hot-work', 'weights', 'protection'],
+    acknowledgedAt: '2026-12-05T02:56:04.741Z',
+    by: {
+      id: 3,
+      name: 'Tomasz Wrenfield',
+    },
+  },
+  inspection: null,
+  setup: null,
+  runs: [],
+  corrections: [],
+  verification: null,
+  completion: null,
+  abandonment: null,
+};
+
+/** Job 13 on hold (version 3): the end play over the family’s limit and a cracked weld left. */
+export const JOB_ON_HOLD: Job = {
+  id: 13,
+  version: 3,
+  status: 'on-hold',
+  nextStep: 'inspection',
+  scheduledFor: '2026-12-05',
+  machine: {
+    id: 5,
+    serialNumber: 'BF250-00921',
+    make: 'Brackenfold',
+    model: 'BF-250',
+    customerId: 6,
+    customerName: 'Wyndle Ridge Line Services',
+    familyId: 1,
+    familyName: 'Fixed-tooth mulcher drum, 2.0 m',
+  },
+  technician: {
+    id: 3,
+    name: 'Tomasz Wrenfield',
+  },
+  createdAt: '2026-12-05T02:56:03.275Z',
+  updatedAt: '2026-12-05T02:56:04.916Z',
+  safety: {
+    topicIds: ['lockout', 'running', 'hot-work', 'weights', 'protection'],
+    acknowledgedAt: '2026-12-05T02:56:04.741Z',
+    by: {
+      id: 3,
+      name: 'Tomasz Wrenfield',
+    },
+  },
+  inspection: {
+    bearingEndPlayMm: 0.42,
+    shaftRunoutMm: 0.12,
+    checks: {
+      teethOrKnives: 'ok',
+      buildUpCleaned: 'fixed',
+      welds: 'fault',
+      beltsAndPulleys: 'ok',
+    },
+    notes: 'Crack at the weld of the left end plate, 40 mm long.',
+    limits: {
+      bearingEndPlayMm: 0.3,
+      shaftRunoutMm: 0.2,
+    },
+    passed: false,
+    reasons: [
+      'Bearing end play is 0.42 mm, over the limit of 0.3 mm: repair before balancing.',
+      'Welds: a fault is left; fix it before balancing.',
+    ],
+    measuredAt: '2026-12-05T02:56:04.916Z',
+    override: null,
+    by: {
+      id: 3,
+      name: 'Tomasz Wrenfield',
+    },
+  },
+  setup: null,
+  runs: [],
+  corrections: [],
+  verification: null,
+  completion: null,
+  abandonment: null,
+};
+
+/** Job 13 let go on by the manager with a reason (version 4): it opens at the set-up. */
+export const JOB_LET_GO_ON: Job = {
+  id: 13,
+  version: 4,
+  status: 'open',
+  nextStep: 'setup',
+  scheduledFor: '2026-12-05',
+  machine: {
+    id: 5,
+    serialNumber: 'BF250-00921',
+    make: 'Brackenfold',
+    model: 'BF-250',
+    customerId: 6,
+    customerName: 'Wyndle Ridge Line Services',
+    familyId: 1,
+    familyName: 'Fixed-tooth mulcher drum, 2.0 m',
+  },
+  technician: {
+    id: 3,
+    name: 'Tomasz Wrenfield',
+  },
+  createdAt: '2026-12-05T02:56:03.275Z',
+  updatedAt: '2026-12-05T02:56:05.112Z',
+  safety: {
+    topicIds: ['lockout', 'running', 'hot-work', 'weights', 'protection'],
+    acknowledgedAt: '2026-12-05T02:56:04.741Z',
+    by: {
+      id: 3,
+      name: 'Tomasz Wrenfield',
+    },
+  },
+  inspection: {
+    bearingEndPlayMm: 0.42,
+    shaftRunoutMm: 0.12,
+    checks: {
+      teethOrKnives: 'ok',
+      buildUpCleaned: 'fixed',
+      welds: 'fault',
+      beltsAndPulleys: 'ok',
+    },
+    notes: 'Crack at the weld of the left end plate, 40 mm long.',
+    limits: {
+      bearingEndPlayMm: 0.3,
+      shaftRunoutMm: 0.2,
+    },
+    passed: false,
+    reasons: [
+      'Bearing end play is 0.42 mm, over the limit of 0.3 mm: repair before balancing.',
+      'Welds: a fault is left; fix it before balancing.',
+    ],
+    measuredAt: '2026-12-05T02:56:04.916Z',
+    override: {
+      reason:
+        'The crack is outside the weight area; the customer has the drum booked for repair next week and needs the machine today.',
+      at: '2026-12-05T02:56:05.112Z',
+      by: {
+        id: 2,
+        name: 'Dagny Fairbrook',
+      },
+    },
+    by: {
+      id: 3,
+      name: 'Tomasz Wrenfield',
+    },
+  },
+  setup: null,
+  runs: [],
+  corrections: [],
+  verification: null,
+  completion: null,
+  abandonment: null,
+};
