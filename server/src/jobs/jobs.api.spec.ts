@@ -123,6 +123,7 @@ describe('who may call the job routes', () => {
         { kind: 'initial', readings: runReadings(['left'], SINGLE.initial) },
         job.version,
       ),
+      other.put(`${path}/runs/1/readings`, { readings: runReadings(['left'], SINGLE.initial) }, job.version),
       other.post(`${path}/corrections`, { method: 'single-plane' }, job.version),
       other.put(`${path}/corrections/1/installed`, installed, job.version),
       other.post(`${path}/complete`, undefined, job.version),
