@@ -113,7 +113,7 @@ describe('RunEntry', { timeout: 30_000 }, () => {
   }
 
   function addRepeatButton(element: HTMLElement, sensor: number): HTMLElement | null {
-    return element.querySelector<HTMLElement>(`#add-repeat-${sensor}`);
+    return element.querySelector<HTMLElement>(`[id$="-add-repeat-${sensor}"]`);
   }
 
   function saveButton(element: HTMLElement): HTMLElement | null {

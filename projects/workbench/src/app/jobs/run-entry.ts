@@ -247,6 +247,8 @@ export class RunEntry {
   readonly prefill = input<JobRun | undefined>(undefined);
   /** The draft's key; `run-<kind>` unless the page names another. */
   readonly draftKey = input<string | undefined>(undefined);
+  /** How the save line names this change; "Readings of the <kind> run" unless the page names another. */
+  readonly what = input<string | undefined>(undefined);
   /** What the save button says. */
   readonly saveLabel = input<string | undefined>(undefined);
   /**
@@ -287,6 +289,8 @@ export class RunEntry {
     return unit ? AMPLITUDE_UNIT_LABELS[unit] : '';
   });
   protected readonly phaseSense = computed(() => (this.job().setup?.phaseSense === 'lead' ? 'lead' : 'lag'));
+  /** The draft's key, which also names the form's fields (two forms on a page never share an id). */
+  protected readonly key = computed(() => this.draftKey() ?? `run-${this.kind()}`);
   protected readonly kindLabel = computed(() => RUN_KIND_LABELS[this.kind()]);
   protected readonly planes = computed(() => {
     const count = this.machine()?.planes.length ?? Math.max(1, this.sensors().length);
@@ -307,7 +311,7 @@ export class RunEntry {
       const job = this.job();
       const kind = this.kind();
       const prefill = this.prefill();
-      const key = this.draftKey() ?? `run-${kind}`;
+      const key = this.key();
       untracked(() => this.build(job, kind, prefill, key));
     });
   }
@@ -367,12 +371,12 @@ export class RunEntry {
     const repeats = this.repeatsOf(sensorIndex);
     if (repeats.length <= 1) return;
     repeats.removeAt(repeatIndex);
-    this.focusLater(`#add-repeat-${sensorIndex}`);
+    this.focusLater(`#${this.key()}-add-repeat-${sensorIndex}`);
   }
 
   /** The id of a repeat's field, for labels and focus. */
   protected fieldId(sensorIndex: number, repeatIndex: number, field: string): string {
-    return `run-${this.kind()}-s${sensorIndex}-r${repeatIndex}-${field}`;
+    return `${this.key()}-s${sensorIndex}-r${repeatIndex}-${field}`;
   }
 
   /** A field's message: the server's word on it, else the rule it breaks. */
@@ -418,11 +422,11 @@ export class RunEntry {
     }
     const run = this.runOf();
     const job = this.job();
-    const key = this.draftKey() ?? `run-${this.kind()}`;
+    const key = this.key();
     const before = new Set(job.runs.map((stored) => stored.id));
     const store = this.store();
     const outcome = await this.session.save(
-      `Readings of the ${this.kindLabel().toLowerCase()}`,
+      this.what() ?? `Readings of the ${this.kindLabel().toLowerCase()}`,
       store ? store(run) : (api, id, etag) => api.addRun(id, run, etag),
     );
     if (outcome.ok) {
