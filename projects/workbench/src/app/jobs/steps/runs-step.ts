@@ -1,15 +1,155 @@
-import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, input, signal } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import type { MachineSide } from '@counterpoise/api';
+import type { RotationCounting, RotationDirection } from '@counterpoise/ng/core';
+import { CpPolarPlot, type PolarSeries } from '@counterpoise/ng/polar-plot';
 import type { Machine } from '../../machines/machines.api';
-import type { Job } from '../jobs.api';
+import {
+  AMPLITUDE_UNIT_LABELS,
+  formatDeg,
+  formatNumber,
+  opposite,
+  planeName,
+  SIDE_LABELS,
+} from '../../records/record-labels';
+import type { AddRun, Job, JobRun } from '../jobs.api';
+import type { JobChange } from '../job-session';
+import { RUN_KIND_LABELS, RunEntry } from '../run-entry';
 
-/** The runs step of a job (being built). */
+/** A weight in words: "120 g at 0° in the left plane". */
+export function describeWeight(
+  weight: { readonly planeIndex: number; readonly massGrams: number; readonly angleDeg: number },
+  planeCount: number,
+): string {
+  const plane = planeName(weight.planeIndex, planeCount);
+  const where = planeCount <= 1 ? 'in the plane' : `in the ${plane.toLowerCase()}`;
+  return `${formatNumber(weight.massGrams, 0)} g at ${formatDeg(weight.angleDeg)} ${where}`;
+}
+
+/** The number of planes to name weights by: the machine's, else as many as the job's sensors. */
+export function planeCountOf(job: Job, machine: Machine | undefined): number {
+  return machine?.planes.length ?? Math.max(1, job.setup?.sensors.length ?? 1);
+}
+
+/** How the rotor turns and how its angles count as seen from one sensor's end, for a polar plot. */
+export function plotConvention(
+  job: Job,
+  side: MachineSide,
+): { rotation: RotationDirection; counting: RotationCounting } {
+  const fromLeft = job.setup?.rotationSeenFromLeft ?? 'clockwise';
+  // A phase lag counts against the rotation, a lead with it.
+  return {
+    rotation: side === 'left' ? fromLeft : opposite(fromLeft),
+    counting: job.setup?.phaseSense === 'lead' ? 'withRotation' : 'againstRotation',
+  };
+}
+
+/** Every run's average at one sensor, as the points of one series of the polar plot. */
+export function runSeries(job: Job, side: MachineSide): PolarSeries {
+  const unit = job.setup ? AMPLITUDE_UNIT_LABELS[job.setup.amplitudeUnit] : '';
+  return {
+    id: `runs-${side}`,
+    label: `${SIDE_LABELS[side]} sensor`,
+    kind: 'run',
+    unit,
+    points: job.runs.flatMap((run) => {
+      const reading = run.readings.find((candidate) => candidate.sensorSide === side);
+      return reading
+        ? [
+            {
+              amplitude: reading.average.amplitude,
+              angleDeg: reading.average.phaseDeg,
+              label: `Run ${run.sequence}`,
+            },
+          ]
+        : [];
+    }),
+  };
+}
+
+/**
+ * The runs step of a job: every run in order with what it was (the trial weight, the weights on the rotor),
+ * each sensor's average, speed, repeats and spread, whether it is trusted and what the server warned of; a
+ * polar plot per sensor of every run; the entry of the initial run while there is none, then a trial run for
+ * the technician who wants one here.
+ */
 @Component({
   selector: 'app-job-runs-step',
-  template: `<h2>runs</h2>`,
+  imports: [CpPolarPlot, DatePipe, MatButtonModule, MatIconModule, RunEntry],
+  templateUrl: './runs-step.html',
+  styleUrl: './runs-step.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class JobRunsStep {
+  /** The job as stored. */
   readonly job = input.required<Job>();
+  /** The job's machine, for its planes; undefined while it is fetched. */
   readonly machine = input<Machine>();
+  /** Whether the signed-in person may change this job now. */
   readonly editable = input(false);
+
+  protected readonly kindLabels = RUN_KIND_LABELS;
+  protected readonly sideLabels = SIDE_LABELS;
+  protected readonly formatNumber = formatNumber;
+  protected readonly formatDeg = formatDeg;
+
+  /** Whether the trial run's form is open. */
+  protected readonly addingTrial = signal(false);
+
+  protected readonly unit = computed(() => {
+    const setup = this.job().setup;
+    return setup ? AMPLITUDE_UNIT_LABELS[setup.amplitudeUnit] : '';
+  });
+  protected readonly planeCount = computed(() => planeCountOf(this.job(), this.machine()));
+  protected readonly runs = computed(() => [...this.job().runs].sort((a, b) => a.sequence - b.sequence));
+  protected readonly hasInitial = computed(() => this.job().runs.some((run) => run.kind === 'initial'));
+  /** One polar plot per sensor of the set-up, with every run's average at that sensor. */
+  protected readonly plots = computed(() => {
+    const job = this.job();
+    return (job.setup?.sensors ?? []).map((sensor) => ({
+      side: sensor.side,
+      caption: `${SIDE_LABELS[sensor.side]} sensor: every run`,
+      series: [runSeries(job, sensor.side)],
+      ...plotConvention(job, sensor.side),
+    }));
+  });
+
+  /** The run whose readings are being typed again; null when none is. */
+  protected readonly correcting = signal<number | null>(null);
+  /**
+   * The run whose readings may be typed again: the latest one, while no correction was computed from it
+   * (the server refuses it otherwise, 409 RUN_IN_USE).
+   */
+  protected readonly correctable = computed(() => {
+    const latest = this.runs().at(-1);
+    if (!latest || !this.editable()) return null;
+    const used = this.job().corrections.some((correction) => correction.runIds.includes(latest.id));
+    return used ? null : latest.id;
+  });
+
+  /** How the retyped readings of the run being corrected are stored: in its place, with what was typed before. */
+  protected readonly retype = computed(() => {
+    const runId = this.correcting();
+    if (runId === null) return undefined;
+    return (typed: AddRun): JobChange =>
+      (api, id, etag) =>
+        api.correctRunReadings(
+          id,
+          runId,
+          typed.trialWeight
+            ? { readings: typed.readings, trialWeight: typed.trialWeight }
+            : { readings: typed.readings },
+          etag,
+        );
+  });
+
+  protected weightText(weight: JobRun['weightsOnRotor'][number]): string {
+    return describeWeight(weight, this.planeCount());
+  }
+
+  protected trialSaved(): void {
+    this.addingTrial.set(false);
+  }
 }
