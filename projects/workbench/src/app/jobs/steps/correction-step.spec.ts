@@ -1,0 +1,288 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
+import { type ComponentFixture, TestBed } from '@angular/core/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import { provideRouter } from '@angular/router';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import type { MachineFamily } from '../../machine-families/machine-families.api';
+import type { Machine } from '../../machines/machines.api';
+import { JobSession } from '../job-session';
+import type { Job } from '../jobs.api';
+import { JobCorrectionStep } from './correction-step';
+import {
+  JOB_AFTER_LEFT_TRIAL,
+  JOB_WITH_CORRECTION,
+  JOB_WITH_INSTALLED,
+  MULCHER_FAMILY,
+  MULCHER_MACHINE,
+} from './testing-jobs';
+
+/** The step as the job page renders it: bound to the job the page's session holds. */
+@Component({
+  imports: [JobCorrectionStep],
+  providers: [JobSession],
+  template: `
+    @if (session.job(); as job) {
+      <app-job-correction-step [job]="job" [machine]="machine()" [family]="family()" [editable]="true" />
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+class StepHost {
+  readonly session = inject(JobSession);
+  readonly machine = input<Machine | undefined>(MULCHER_MACHINE);
+  readonly family = input<MachineFamily | undefined>(MULCHER_FAMILY);
+}
+
+describe('JobCorrectionStep', { timeout: 30_000 }, () => {
+  let http: HttpTestingController;
+
+  beforeEach(() => {
+    localStorage.clear();
+    TestBed.configureTestingModule({
+      providers: [
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        provideRouter([]),
+        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+      ],
+    });
+    http = TestBed.inject(HttpTestingController);
+  });
+
+  afterEach(() => {
+    http.verify();
+    localStorage.clear();
+  });
+
+  async function render(
+    job: Job,
+    options: { machine?: Machine | undefined; family?: MachineFamily | undefined } = {},
+  ) {
+    const fixture = TestBed.createComponent(StepHost);
+    if ('machine' in options) fixture.componentRef.setInput('machine', options.machine);
+    if ('family' in options) fixture.componentRef.setInput('family', options.family);
+    const loading = fixture.componentInstance.session.load(job.id);
+    http.expectOne(`/api/v1/jobs/${job.id}`).flush(job, { headers: { ETag: `"${job.version}"` } });
+    await loading;
+    await fixture.whenStable();
+    return { fixture, element: fixture.nativeElement as HTMLElement };
+  }
+
+  function text(element: Element | null | undefined): string {
+    return element?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
+  }
+
+  /** A table row's cells, or a list item's text, as one line. */
+  function rows(element: HTMLElement, testId: string): string[] {
+    return [...element.querySelectorAll(`[data-testid="${testId}"]`)].map((row) => {
+      const cells = [...row.querySelectorAll('th, td')];
+      return cells.length > 0 ? cells.map(text).join(' ') : text(row);
+    });
+  }
+
+  function methods(element: HTMLElement) {
+    return [...element.querySelectorAll('.method')].map((method) => ({
+      method: method.getAttribute('data-method'),
+      label: text(method.querySelector('.method__label')),
+      status: text(method.querySelector('.method__status')),
+    }));
+  }
+
+  function button(element: HTMLElement, name: string): HTMLButtonElement {
+    const found = [...element.querySelectorAll('button')].find((one) => text(one) === name);
+    if (!found) throw new Error(`No button "${name}"`);
+    return found;
+  }
+
+  async function settle(fixture: ComponentFixture<unknown>) {
+    await new Promise((resolve) => setTimeout(resolve));
+    fixture.detectChanges();
+    await fixture.whenStable();
+  }
+
+  it('offers the methods simplest first, each with what this job has for it', async () => {
+    const { element } = await render(JOB_AFTER_LEFT_TRIAL);
+    expect(methods(element)).toEqual([
+      {
+        method: 'one-run',
+        label: 'Stored sensitivity, one run',
+        status:
+          'check_circle This job has it: the left sensor and left plane, 619 g per in/s peak, from 4 jobs.',
+      },
+      {
+        method: 'single-plane',
+        label: 'Trial weight, one plane',
+        status: 'check_circle This job has it: trial run 2 in the left plane, read by the left sensor.',
+      },
+      {
+        method: 'multi-plane',
+        label: 'Two planes',
+        status: 'radio_button_unchecked Missing: a trial run in the right plane (run 2 is in the other).',
+      },
+    ]);
+    expect(text(element.querySelector('[data-testid="amplitude-only"]'))).toContain(
+      'is not a job method on the server yet',
+    );
+  });
+
+  it('says the stored sensitivity is missing on a machine without a family', async () => {
+    const { element } = await render(JOB_AFTER_LEFT_TRIAL, { family: undefined });
+    expect(methods(element)[0]?.status).toBe(
+      'radio_button_unchecked The machine has no family, so no stored sensitivity.',
+    );
+  });
+
+  it('offers no method while fitted weights wait for their verification run', async () => {
+    const { element } = await render(JOB_WITH_INSTALLED);
+    expect(methods(element).map((method) => method.status)).toEqual(
+      Array(3).fill(
+        'radio_button_unchecked Weights were fitted since the last run: take a verification run with them on first.',
+      ),
+    );
+  });
+
+  it('embeds the form of the missing trial run when the method chosen needs it', async () => {
+    const { fixture, element } = await render(JOB_AFTER_LEFT_TRIAL);
+    expect(element.querySelector('[data-testid="trial-entry"]')).toBeNull();
+    (element.querySelector('[data-method="multi-plane"] input') as HTMLInputElement).click();
+    await fixture.whenStable();
+    const entry = element.querySelector('[data-testid="trial-entry"]');
+    expect(text(entry?.querySelector('h4'))).toBe('Trial run in the right plane');
+    expect(entry?.querySelector('app-run-entry')).not.toBeNull();
+  });
+
+  it('asks the server for the method chosen on the stored ETag, and shows the plan it stored', async () => {
+    const { fixture, element } = await render(JOB_AFTER_LEFT_TRIAL);
+    (element.querySelector('[data-method="single-plane"] input') as HTMLInputElement).click();
+    await fixture.whenStable();
+    button(element, 'calculate Work it out').click();
+    const request = http.expectOne('/api/v1/jobs/8/corrections');
+    expect(request.request.method).toBe('POST');
+    expect(request.request.headers.get('If-Match')).toBe('"6"');
+    expect(request.request.body).toEqual({ method: 'single-plane' });
+    request.flush(JOB_WITH_CORRECTION, { headers: { ETag: '"7"' } });
+    await settle(fixture);
+
+    const correction = element.querySelector('[data-testid="correction"]');
+    expect(text(correction?.querySelector('h3'))).toBe('Correction 1: Trial weight, one plane');
+    const facts = Object.fromEntries(
+      [...(correction?.querySelectorAll('.facts > div') ?? [])].map((item) => [
+        text(item.querySelector('dt')),
+        text(item.querySelector('dd')),
+      ]),
+    );
+    expect(facts).toEqual({
+      Basis: 'From the trial runs',
+      'Runs used': 'run 1 (initial), run 2 (trial, 120 g at 0° in the left plane)',
+      'Worked out': 'by Tomasz Wrenfield, by the server from the stored readings',
+    });
+    expect(rows(element, 'plan-row')).toEqual(['Left plane 346.1 g 79.4° 210 mm']);
+    // 79.4° lies between the tooth rows at 75° and 105°: the plan is split onto them, from the stock sizes.
+    expect([...element.querySelectorAll('[data-testid="part"]')].map(text)).toEqual([
+      'Part A: 298.8 g at 75° from stock: 100 g + 200 g (1.2 g over)',
+      'Part B: 53.4 g at 105° from stock: 50 g (3.4 g under)',
+    ]);
+    // The pick stays on the method the technician chose.
+    expect((element.querySelector('[data-method="single-plane"] input') as HTMLInputElement).checked).toBe(
+      true,
+    );
+  });
+
+  it('says in plain words why the engine refused the readings', async () => {
+    const { fixture, element } = await render(JOB_AFTER_LEFT_TRIAL);
+    button(element, 'calculate Work it out').click();
+    http.expectOne('/api/v1/jobs/8/corrections').flush(
+      {
+        type: 'about:blank',
+        title: 'Conflict',
+        status: 409,
+        code: 'ZERO_TRIAL_EFFECT',
+        detail:
+          'The stored readings do not give a correction: the trial weight changed the reading by 0.1 %.',
+      },
+      { status: 409, statusText: 'Conflict' },
+    );
+    await settle(fixture);
+    expect(text(element.querySelector('app-error-banner'))).toContain(
+      'The trial weight changed nothing the meter could tell. Fit a heavier trial weight, or move it, and take the trial run again. The stored readings do not give a correction',
+    );
+  });
+
+  it('prefills what was fitted from the split, and sends what was typed on the stored ETag', async () => {
+    const { fixture, element } = await render(JOB_WITH_CORRECTION);
+    const rows = [...element.querySelectorAll('[data-testid="installed-weight"]')];
+    const values = (row: Element) =>
+      [...row.querySelectorAll('input[inputmode="decimal"]')].map(
+        (input) => (input as HTMLInputElement).value,
+      );
+    expect(rows.map(values)).toEqual([
+      ['298.8', '75', '210'],
+      ['53.4', '105', '210'],
+    ]);
+
+    // The technician fitted 300 g and 50 g plates from stock.
+    const [first, second] = rows.map(
+      (row) => row.querySelector('input[inputmode="decimal"]') as HTMLInputElement,
+    );
+    first!.value = '300';
+    first!.dispatchEvent(new Event('input'));
+    second!.value = '50';
+    second!.dispatchEvent(new Event('input'));
+    await fixture.whenStable();
+    button(element, 'done Record what was fitted').click();
+
+    const request = http.expectOne('/api/v1/jobs/8/corrections/8/installed');
+    expect(request.request.method).toBe('PUT');
+    expect(request.request.headers.get('If-Match')).toBe('"7"');
+    expect(request.request.body).toEqual({
+      weights: [
+        { planeIndex: 0, massGrams: 300, angleDeg: 75, radiusMm: 210, fixing: 'welded' },
+        { planeIndex: 0, massGrams: 50, angleDeg: 105, radiusMm: 210, fixing: 'welded' },
+      ],
+    });
+    request.flush(JOB_WITH_INSTALLED, { headers: { ETag: '"8"' } });
+    await settle(fixture);
+
+    expect(text(element.querySelector('[data-testid="installed-stored"] .stored__list'))).toBe(
+      'Left plane: 300 g at 75°, radius 210 mm, welded Left plane: 50 g at 105°, radius 210 mm, welded',
+    );
+    expect([...element.querySelectorAll('[data-testid="predicted"]')].map(text)).toEqual([
+      'Left sensor: 0.004 in/s peak at 338.7°',
+    ]);
+    expect(localStorage.getItem('counterpoise.job-draft.8.installed-8')).toBeNull();
+  });
+
+  it('keeps typed weights on the device until they are stored', async () => {
+    const first = await render(JOB_WITH_CORRECTION);
+    const mass = first.element.querySelector('[data-testid="installed-weight"] input') as HTMLInputElement;
+    mass.value = '310';
+    mass.dispatchEvent(new Event('input'));
+    first.fixture.destroy();
+
+    const again = await render(JOB_WITH_CORRECTION);
+    const restored = again.element.querySelector(
+      '[data-testid="installed-weight"] input',
+    ) as HTMLInputElement;
+    expect(restored.value).toBe('310');
+  });
+
+  it('puts the server’s field errors on the weight at fault', async () => {
+    const { fixture, element } = await render(JOB_WITH_CORRECTION);
+    button(element, 'done Record what was fitted').click();
+    http.expectOne('/api/v1/jobs/8/corrections/8/installed').flush(
+      {
+        type: 'about:blank',
+        title: 'Bad Request',
+        status: 400,
+        detail: 'weights[1].radiusMm: The radius is at most 5000 mm.',
+        errors: [{ path: 'weights[1].radiusMm', message: 'The radius is at most 5000 mm.' }],
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
+    await settle(fixture);
+    const second = element.querySelectorAll('[data-testid="installed-weight"]')[1];
+    expect(text(second?.querySelector('mat-error'))).toBe('The radius is at most 5000 mm.');
+  });
+});

@@ -1,0 +1,324 @@
+import type { AmplitudeUnit, MachineSide, StoredSensitivity } from '@counterpoise/api';
+import { splitWeight, suggestStockWeights } from '@counterpoise/engine';
+import type { MachineFamily } from '../../machine-families/machine-families.api';
+import type { Machine, PlaneLayout } from '../../machines/machines.api';
+import { AMPLITUDE_UNIT_LABELS, formatDeg, formatNumber, planeName } from '../../records/record-labels';
+import type { CorrectionMethod, Job, JobCorrection, JobRun } from '../jobs.api';
+
+/*
+ * What the correction step reads off a stored job: which methods its runs allow, in words; the runs and
+ * basis of a correction; a planned weight split onto the places a plane allows and made up from the shop's
+ * stock. The server decides and computes; these only explain its figures and place them.
+ */
+
+/** The methods in the technician's words, simplest first, with what each one needs. */
+export const METHOD_WORDS: Readonly<Record<CorrectionMethod, { label: string; needs: string }>> = {
+  'one-run': {
+    label: 'Stored sensitivity, one run',
+    needs: 'the family’s stored sensitivity for the worse side’s sensor: the shop’s rule of thumb',
+  },
+  'single-plane': {
+    label: 'Trial weight, one plane',
+    needs: 'a trial run in the plane, or, once a correction is fitted and verified, a trim from it',
+  },
+  'multi-plane': {
+    label: 'Two planes',
+    needs: 'both sensors and a trial run in each plane; more runs than planes are fitted by least squares',
+  },
+};
+
+/** Where a correction came from, in words. */
+export const BASIS_WORDS: Readonly<Record<JobCorrection['basis'], string>> = {
+  sensitivity: 'From the family’s stored sensitivity',
+  trial: 'From the trial runs',
+  trim: 'A trim: from the weights fitted and the verification run',
+};
+
+/** A method as the step offers it: whether this job's runs allow it, and why. */
+export interface MethodOption {
+  readonly method: CorrectionMethod;
+  readonly label: string;
+  readonly needs: string;
+  readonly possible: boolean;
+  /** What this job has for it, or what it lacks. */
+  readonly status: string;
+  /** The plane whose trial run is missing, when a trial run would make the method possible. */
+  readonly trialPlane: number | null;
+}
+
+/** The unit of the job's amplitudes as read on screen. */
+export function unitLabel(job: Job): string {
+  return job.setup ? AMPLITUDE_UNIT_LABELS[job.setup.amplitudeUnit] : '';
+}
+
+/** The last run without a trial weight: the initial run or the latest verification. */
+export function baseRunOf(job: Job): JobRun | undefined {
+  return [...job.runs].reverse().find((run) => run.kind !== 'trial');
+}
+
+/** How many weights this job has fitted, over all its corrections. */
+export function fittedCount(job: Job): number {
+  return job.corrections.reduce((count, correction) => count + (correction.installed?.length ?? 0), 0);
+}
+
+/** The number of correction planes: the machine's, else the family's, else one. */
+export function planeCountOf(machine: Machine | undefined, family: MachineFamily | undefined): number {
+  return machine?.planes.length ?? family?.planeCount ?? 1;
+}
+
+function worseSide(run: JobRun): MachineSide | undefined {
+  return [...run.readings].sort((a, b) => b.average.amplitude - a.average.amplitude)[0]?.sensorSide;
+}
+
+/** The plane a side's sensor answers most: its own on a two-plane rotor, the only one otherwise. */
+function planeOfSide(side: MachineSide, planeCount: number): number {
+  return planeCount === 2 && side === 'right' ? 1 : 0;
+}
+
+function latestTrialIn(job: Job, planeIndex: number): JobRun | undefined {
+  return [...job.runs]
+    .reverse()
+    .find((run) => run.kind === 'trial' && run.trialWeight?.planeIndex === planeIndex);
+}
+
+function sensitivityText(figure: StoredSensitivity): string {
+  const jobs =
+    figure.jobCount === 0 ? 'typed in' : `from ${figure.jobCount} job${figure.jobCount === 1 ? '' : 's'}`;
+  return `${formatNumber(figure.gramsPerUnit, 0)} g per ${AMPLITUDE_UNIT_LABELS[figure.unit as AmplitudeUnit]}, ${jobs}`;
+}
+
+/**
+ * The three methods, simplest first, each with whether this job's stored runs allow it. The words follow
+ * the server's rules (docs/jobs.md), which stay the judge: "Work it out" asks the server either way.
+ */
+export function methodOptions(
+  job: Job,
+  machine: Machine | undefined,
+  family: MachineFamily | undefined,
+): MethodOption[] {
+  const planeCount = planeCountOf(machine, family);
+  const base = baseRunOf(job);
+  const side = base && worseSide(base);
+  const planeIndex = side ? planeOfSide(side, planeCount) : 0;
+  const planeWords = planeName(planeIndex, planeCount).toLowerCase();
+  const waiting = base !== undefined && base.weightsOnRotor.length !== fittedCount(job);
+  const blocked =
+    base === undefined
+      ? 'Take the initial run first.'
+      : 'Weights were fitted since the last run: take a verification run with them on first.';
+  const option = (
+    method: CorrectionMethod,
+    possible: boolean,
+    status: string,
+    trialPlane: number | null = null,
+  ): MethodOption => ({ method, ...METHOD_WORDS[method], possible, status, trialPlane });
+
+  if (base === undefined || waiting) {
+    return (['one-run', 'single-plane', 'multi-plane'] as const).map((method) =>
+      option(method, false, blocked),
+    );
+  }
+
+  const sideWords = side === 'right' ? 'right' : 'left';
+  const figure = family?.sensitivities.find((f) => f.sensorSide === side && f.planeIndex === planeIndex);
+  const oneRun = !family
+    ? option('one-run', false, 'The machine has no family, so no stored sensitivity.')
+    : figure
+      ? option(
+          'one-run',
+          true,
+          `This job has it: the ${sideWords} sensor and ${planeWords}, ${sensitivityText(figure)}.`,
+        )
+      : option(
+          'one-run',
+          false,
+          `${family.name} has no stored sensitivity for the ${sideWords} sensor and ${planeWords}.`,
+        );
+
+  let singlePlane: MethodOption;
+  if (base.kind === 'verification') {
+    const before = [...job.runs]
+      .reverse()
+      .find((run) => run.kind !== 'trial' && run.sequence < base.sequence);
+    singlePlane = option(
+      'single-plane',
+      true,
+      `A trim on the ${sideWords} side: the weights fitted between run ${before?.sequence ?? 1} and verification run ${base.sequence}.`,
+    );
+  } else {
+    const trial = latestTrialIn(job, planeIndex);
+    singlePlane = trial
+      ? option(
+          'single-plane',
+          true,
+          `This job has it: trial run ${trial.sequence} in the ${planeWords}, read by the ${sideWords} sensor.`,
+        )
+      : option(
+          'single-plane',
+          false,
+          `Missing: a trial run in the ${planeWords} (the ${sideWords} side reads higher).`,
+          planeIndex,
+        );
+  }
+
+  let multiPlane: MethodOption;
+  const initial = job.runs.find((run) => run.kind === 'initial');
+  if (planeCount < 2) {
+    multiPlane = option('multi-plane', false, 'The machine has one correction plane.');
+  } else if ((initial?.readings.length ?? 0) < 2) {
+    multiPlane = option('multi-plane', false, 'Two planes need both sensors read in the initial run.');
+  } else {
+    const have = [0, 1].map((plane) => latestTrialIn(job, plane));
+    const missing = have.findIndex((trial) => trial === undefined);
+    const verifications = job.runs.filter((run) => run.kind === 'verification').length;
+    multiPlane =
+      missing === -1
+        ? option(
+            'multi-plane',
+            true,
+            `This job has it: trial runs ${have.map((trial) => trial!.sequence).join(' and ')}` +
+              (verifications > 0
+                ? `, and ${verifications} verification run${verifications === 1 ? '' : 's'} to refine them.`
+                : '.'),
+          )
+        : option(
+            'multi-plane',
+            false,
+            `Missing: a trial run in the ${planeName(missing, planeCount).toLowerCase()}` +
+              (have[1 - missing]
+                ? ` (run ${have[1 - missing]!.sequence} is in the other).`
+                : ' and in the other.'),
+            missing,
+          );
+  }
+  return [oneRun, singlePlane, multiPlane];
+}
+
+/** The runs a correction used, in words: "run 1 (initial), run 2 (trial, 120 g at 0° in the left plane)". */
+export function runsUsed(job: Job, correction: JobCorrection, planeCount: number): string {
+  return job.runs
+    .filter((run) => correction.runIds.includes(run.id))
+    .map((run) => {
+      if (run.kind === 'trial' && run.trialWeight) {
+        const weight = run.trialWeight;
+        return `run ${run.sequence} (trial, ${formatNumber(weight.massGrams, 1)} g at ${formatDeg(weight.angleDeg)} in the ${planeName(weight.planeIndex, planeCount).toLowerCase()})`;
+      }
+      return `run ${run.sequence} (${run.kind})`;
+    })
+    .join(', ');
+}
+
+/** The engine's refusals and the server's, in plain words; the server's own detail follows them. */
+const REFUSALS: Readonly<Record<string, string>> = {
+  ZERO_TRIAL_EFFECT:
+    'The trial weight changed nothing the meter could tell. Fit a heavier trial weight, or move it, and take the trial run again.',
+  RUNS_DO_NOT_SEPARATE_PLANES:
+    'The runs cannot tell the two planes apart: each trial weight moved both sensors the same way. Take a trial run with the weight in the other plane, or farther from the middle.',
+  ILL_CONDITIONED:
+    'The runs barely tell the two planes apart, so the weights would be guesswork. Take another trial run with a heavier weight in one plane.',
+  METHOD_NOT_POSSIBLE: 'This job’s runs do not allow this method yet.',
+  TOO_FEW_RUNS: 'There are not enough runs for this method.',
+  TOO_FEW_SENSORS: 'This method needs more sensors read.',
+  NO_SOLUTION: 'The readings give no correction.',
+};
+
+/** Why a correction was refused, in plain words, from the problem's code and detail. */
+export function refusalText(code: string | undefined, detail: string | undefined): string | null {
+  const words = code ? REFUSALS[code] : undefined;
+  if (!words) return null;
+  return detail ? `${words} ${detail}` : words;
+}
+
+/** A weight, and the stock pieces that make it up. */
+export interface PlacedPart {
+  /** "Part A", or "Whole weight" when no split is needed. */
+  readonly label: string;
+  readonly massGrams: number;
+  readonly angleDeg: number;
+  /** The stock pieces nearest the mass (grams each), stacked at the angle; empty without stock sizes. */
+  readonly stockGrams: readonly number[];
+  /** The stock's mass less the part's: positive when the pieces weigh more. */
+  readonly stockDifferenceGrams: number | null;
+}
+
+/** A plane's planned weight as it can really go: whole or split, each part from the shop's stock. */
+export interface PlanePlacement {
+  readonly planeIndex: number;
+  readonly parts: readonly PlacedPart[];
+  /** Mass placed over the planned mass (more than 1 when split). */
+  readonly massRatio: number;
+  readonly notes: readonly string[];
+}
+
+function inSector(angleDeg: number, sector: { fromDeg: number; toDeg: number }): boolean {
+  const span = (((sector.toDeg - sector.fromDeg) % 360) + 360) % 360;
+  const offset = (((angleDeg - sector.fromDeg) % 360) + 360) % 360;
+  return offset <= span;
+}
+
+/** The stretches of the rim no blocked sector covers, each from the end of one to the start of the next. */
+function freeSectors(blocked: PlaneLayout['blockedSectors']): { fromDeg: number; toDeg: number }[] {
+  const sorted = [...blocked].sort((a, b) => a.fromDeg - b.fromDeg);
+  return sorted
+    .map((sector, index) => ({ fromDeg: sector.toDeg, toDeg: sorted[(index + 1) % sorted.length]!.fromDeg }))
+    .filter((free) => {
+      const span = (((free.toDeg - free.fromDeg) % 360) + 360) % 360;
+      const middle = (free.fromDeg + span / 2) % 360;
+      return span > 0 && !blocked.some((sector) => inSector(middle, sector));
+    });
+}
+
+/**
+ * A planned weight placed on its plane: split between the two free positions either side of it (the
+ * engine's `splitWeight`), or moved to the edge of a blocked sector, then each part made up from the
+ * shop's stock sizes (the engine's `suggestStockWeights`). The plan stays the reference; this says how
+ * to fit it.
+ */
+export function placePlanned(
+  planned: { planeIndex: number; massGrams: number; angleDeg: number },
+  plane: PlaneLayout | undefined,
+  stockGrams: readonly number[],
+): PlanePlacement {
+  const notes: string[] = [];
+  let weights: { mass: number; angleDeg: number }[] = [
+    { mass: planned.massGrams, angleDeg: planned.angleDeg },
+  ];
+  let massRatio = 1;
+  const blocked = plane?.blockedSectors ?? [];
+  if (plane?.positions) {
+    const { count, firstDeg } = plane.positions;
+    const open = Array.from({ length: count }, (_, i) => (firstDeg + (360 * i) / count) % 360).filter(
+      (angle) => !blocked.some((sector) => inSector(angle, sector)),
+    );
+    if (open.length >= 2) {
+      const split = splitWeight({ weight: weights[0]!, positionsDeg: open });
+      weights = split.weights;
+      massRatio = split.massRatio;
+      notes.push(...split.warnings);
+    } else {
+      notes.push('Fewer than two positions are free on this plane: the weight cannot be split onto them.');
+    }
+  } else if (blocked.length > 0) {
+    const sectors = freeSectors(blocked);
+    if (sectors.length > 0) {
+      const split = splitWeight({ weight: weights[0]!, sectors });
+      weights = split.weights;
+      massRatio = split.massRatio;
+      notes.push(...split.warnings);
+    }
+  }
+  const parts = weights
+    .filter((weight) => weight.mass > 0.05)
+    .map((weight, index, all): PlacedPart => {
+      const stock =
+        stockGrams.length > 0 ? suggestStockWeights({ weight, stockMasses: [...stockGrams] }) : null;
+      return {
+        label: all.length > 1 ? `Part ${String.fromCharCode(65 + index)}` : 'Whole weight',
+        massGrams: weight.mass,
+        angleDeg: weight.angleDeg,
+        stockGrams: stock?.pieces.map((piece) => piece.mass) ?? [],
+        stockDifferenceGrams: stock ? stock.placed.mass - weight.mass : null,
+      };
+    });
+  return { planeIndex: planned.planeIndex, parts, massRatio, notes };
+}
