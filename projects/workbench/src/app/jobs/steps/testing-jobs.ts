@@ -2271,3 +2271,507 @@ export const JOB_LET_GO_ON: Job = {
   completion: null,
   abandonment: null,
 };
+
+/** Job 8 completed after that verification run (version 10): not within its level, the family refined with it. */
+export const JOB_8_COMPLETED: Job = {
+  id: 8,
+  version: 10,
+  status: 'completed',
+  nextStep: 'done',
+  scheduledFor: '2026-12-05',
+  machine: {
+    id: 5,
+    serialNumber: 'BF250-00921',
+    make: 'Brackenfold',
+    model: 'BF-250',
+    customerId: 6,
+    customerName: 'Wyndle Ridge Line Services',
+    familyId: 1,
+    familyName: 'Fixed-tooth mulcher drum, 2.0 m',
+  },
+  technician: {
+    id: 3,
+    name: 'Tomasz Wrenfield',
+  },
+  createdAt: '2026-12-05T07:30:00.000Z',
+  updatedAt: '2026-12-05T03:04:21.037Z',
+  safety: {
+    topicIds: ['lockout', 'running', 'hot-work', 'weights', 'protection'],
+    acknowledgedAt: '2026-12-05T07:36:00.000Z',
+    by: {
+      id: 3,
+      name: 'Tomasz Wrenfield',
+    },
+  },
+  inspection: {
+    bearingEndPlayMm: 0.14,
+    shaftRunoutMm: 0.07,
+    checks: {
+      teethOrKnives: 'ok',
+      buildUpCleaned: 'fixed',
+      welds: 'ok',
+      beltsAndPulleys: 'ok',
+    },
+    notes: null,
+    limits: {
+      bearingEndPlayMm: 0.3,
+      shaftRunoutMm: 0.2,
+    },
+    passed: true,
+    reasons: [],
+    measuredAt: '2026-12-05T07:42:00.000Z',
+    override: null,
+    by: {
+      id: 3,
+      name: 'Tomasz Wrenfield',
+    },
+  },
+  setup: {
+    sensors: [
+      {
+        side: 'left',
+        position: 'Left bearing housing, horizontal',
+      },
+      {
+        side: 'right',
+        position: 'Right bearing housing, horizontal',
+      },
+    ],
+    tachometer: 'Magnetic stand on the left skid, aimed at the end plate',
+    referenceMark: 'Reflective tape on the left end plate, in line with tooth row 1',
+    rotationSeenFromLeft: 'counterClockwise',
+    operatingSpeedRpm: 2100,
+    amplitudeUnit: 'in/s-pk',
+    phaseSense: 'lag',
+    weightAngles: 'againstRotation',
+    recordedAt: '2026-12-05T07:48:00.000Z',
+  },
+  runs: [
+    {
+      id: 29,
+      sequence: 1,
+      kind: 'initial',
+      trialWeight: null,
+      weightsOnRotor: [],
+      readings: [
+        {
+          sensorSide: 'left',
+          repeats: [
+            {
+              amplitude: 0.57,
+              phaseDeg: 300,
+              speedRpm: 2100,
+            },
+            {
+              amplitude: 0.561,
+              phaseDeg: 299,
+              speedRpm: 2097,
+            },
+          ],
+          average: {
+            amplitude: 0.5654784688563126,
+            phaseDeg: 299.50397888083796,
+          },
+          spread: 0.006678417471256812,
+          spreadRatio: 0.011810206469512441,
+          trusted: true,
+          speedRpm: 2098.5,
+        },
+        {
+          sensorSide: 'right',
+          repeats: [
+            {
+              amplitude: 0.35,
+              phaseDeg: 105,
+              speedRpm: 2100,
+            },
+            {
+              amplitude: 0.348,
+              phaseDeg: 105,
+              speedRpm: 2099,
+            },
+          ],
+          average: {
+            amplitude: 0.349,
+            phaseDeg: 105.00000000000001,
+          },
+          spread: 0.0010000000000000026,
+          spreadRatio: 0.0028653295128939905,
+          trusted: true,
+          speedRpm: 2099.5,
+        },
+      ],
+      warnings: [],
+      createdAt: '2026-12-05T07:54:00.000Z',
+      by: {
+        id: 3,
+        name: 'Tomasz Wrenfield',
+      },
+      retyped: [],
+    },
+    {
+      id: 30,
+      sequence: 2,
+      kind: 'trial',
+      trialWeight: {
+        planeIndex: 0,
+        massGrams: 120,
+        angleDeg: 0,
+      },
+      weightsOnRotor: [],
+      readings: [
+        {
+          sensorSide: 'left',
+          repeats: [
+            {
+              amplitude: 0.568,
+              phaseDeg: 320,
+              speedRpm: 2100,
+            },
+            {
+              amplitude: 0.559,
+              phaseDeg: 319,
+              speedRpm: 2097,
+            },
+          ],
+          average: {
+            amplitude: 0.5634785450150236,
+            phaseDeg: 319.503993002864,
+          },
+          spread: 0.00666553131805345,
+          spreadRatio: 0.011829254861648248,
+          trusted: true,
+          speedRpm: 2098.5,
+        },
+        {
+          sensorSide: 'right',
+          repeats: [
+            {
+              amplitude: 0.402,
+              phaseDeg: 107,
+              speedRpm: 2100,
+            },
+            {
+              amplitude: 0.4,
+              phaseDeg: 106,
+              speedRpm: 2099,
+            },
+          ],
+          average: {
+            amplitude: 0.40098473124368944,
+            phaseDeg: 106.50124691444564,
+          },
+          spread: 0.003639410587738693,
+          spreadRatio: 0.00907618246822202,
+          trusted: true,
+          speedRpm: 2099.5,
+        },
+      ],
+      warnings: [],
+      createdAt: '2026-12-05T08:00:00.000Z',
+      by: {
+        id: 3,
+        name: 'Tomasz Wrenfield',
+      },
+      retyped: [],
+    },
+    {
+      id: 31,
+      sequence: 3,
+      kind: 'verification',
+      trialWeight: null,
+      weightsOnRotor: [
+        {
+          planeIndex: 0,
+          massGrams: 300,
+          angleDeg: 75,
+        },
+        {
+          planeIndex: 0,
+          massGrams: 50,
+          angleDeg: 105,
+        },
+      ],
+      readings: [
+        {
+          sensorSide: 'left',
+          repeats: [
+            {
+              amplitude: 0.061,
+              phaseDeg: 212,
+              speedRpm: 2099,
+            },
+            {
+              amplitude: 0.059,
+              phaseDeg: 214,
+              speedRpm: 2100,
+            },
+          ],
+          average: {
+            amplitude: 0.05999086424799081,
+            phaseDeg: 212.9833316412783,
+          },
+          spread: 0.0014478282975329746,
+          spreadRatio: 0.024134146351816637,
+          trusted: true,
+          speedRpm: 2099.5,
+        },
+        {
+          sensorSide: 'right',
+          repeats: [
+            {
+              amplitude: 0.318,
+              phaseDeg: 101,
+              speedRpm: 2099,
+            },
+            {
+              amplitude: 0.322,
+              phaseDeg: 103,
+              speedRpm: 2100,
+            },
+          ],
+          average: {
+            amplitude: 0.31995126435400073,
+            phaseDeg: 102.00625063467217,
+          },
+          spread: 0.005931984345590983,
+          spreadRatio: 0.018540274743305007,
+          trusted: true,
+          speedRpm: 2099.5,
+        },
+      ],
+      warnings: [],
+      createdAt: '2026-12-05T03:04:20.947Z',
+      by: {
+        id: 3,
+        name: 'Tomasz Wrenfield',
+      },
+      retyped: [],
+    },
+  ],
+  corrections: [
+    {
+      id: 8,
+      sequence: 1,
+      method: 'single-plane',
+      basis: 'trial',
+      runIds: [29, 30],
+      calc: {
+        route: 'single-plane',
+        request: {
+          initial: {
+            amplitude: 0.5654784688563126,
+            phaseDeg: 299.50397888083796,
+          },
+          trialWeight: {
+            mass: 120,
+            angleDeg: 0,
+          },
+          withTrial: {
+            amplitude: 0.5634785450150236,
+            phaseDeg: 319.503993002864,
+          },
+          weightAngles: 'againstRotation',
+        },
+        sensorSides: ['left'],
+      },
+      result: {
+        influenceCoefficient: {
+          amplitudePerMass: 0.0016337613202816912,
+          phaseDeg: 40.07959151350297,
+        },
+        correction: {
+          mass: 346.12061250098236,
+          angleDeg: 79.42438736733502,
+        },
+        totalCorrection: {
+          mass: 346.12061250098236,
+          angleDeg: 79.42438736733502,
+        },
+        trialEffect: {
+          amplitude: 0.19605135843380292,
+          phaseDeg: 40.07959151350296,
+        },
+        predictedResidual: {
+          amplitude: 0,
+          phaseDeg: 0,
+        },
+        warnings: [],
+      },
+      plan: [
+        {
+          planeIndex: 0,
+          massGrams: 346.12061250098236,
+          angleDeg: 79.42438736733502,
+        },
+      ],
+      installed: [
+        {
+          planeIndex: 0,
+          massGrams: 300,
+          angleDeg: 75,
+          radiusMm: 210,
+          fixing: 'welded',
+        },
+        {
+          planeIndex: 0,
+          massGrams: 50,
+          angleDeg: 105,
+          radiusMm: 210,
+          fixing: 'welded',
+        },
+      ],
+      predicted: [
+        {
+          sensorSide: 'left',
+          reading: {
+            amplitude: 0.004031699637286975,
+            phaseDeg: 338.65140886049994,
+          },
+        },
+      ],
+      installedAt: '2026-12-05T03:04:20.901Z',
+      warnings: [],
+      createdAt: '2026-12-05T03:04:20.664Z',
+      by: {
+        id: 3,
+        name: 'Tomasz Wrenfield',
+      },
+    },
+  ],
+  verification: {
+    runId: 31,
+    acceptance: {
+      kind: 'shop-target',
+      amplitude: 0.15,
+      unit: 'in/s-pk',
+    },
+    sides: [
+      {
+        sensorSide: 'left',
+        amplitude: 0.05999086424799081,
+        limit: 0.15,
+        accepted: true,
+      },
+      {
+        sensorSide: 'right',
+        amplitude: 0.31995126435400073,
+        limit: 0.15,
+        accepted: false,
+      },
+    ],
+    accepted: false,
+    nextSide: 'right',
+    why: 'The right side reads 0.32 in/s-pk, above its limit of 0.15 in/s-pk; the left side is within its limit.',
+  },
+  completion: {
+    completedAt: '2026-12-05T03:04:21.037Z',
+    accepted: false,
+    beforeAfter: [
+      {
+        sensorSide: 'left',
+        before: {
+          amplitude: 0.5654784688563126,
+          phaseDeg: 299.50397888083796,
+        },
+        after: {
+          amplitude: 0.05999086424799081,
+          phaseDeg: 212.9833316412783,
+        },
+      },
+      {
+        sensorSide: 'right',
+        before: {
+          amplitude: 0.349,
+          phaseDeg: 105.00000000000001,
+        },
+        after: {
+          amplitude: 0.31995126435400073,
+          phaseDeg: 102.00625063467217,
+        },
+      },
+    ],
+    weightsOnRotor: [
+      {
+        planeIndex: 0,
+        massGrams: 300,
+        angleDeg: 75,
+        radiusMm: 210,
+        fixing: 'welded',
+        jobId: 8,
+      },
+      {
+        planeIndex: 0,
+        massGrams: 50,
+        angleDeg: 105,
+        radiusMm: 210,
+        fixing: 'welded',
+        jobId: 8,
+      },
+    ],
+    coefficients: [
+      {
+        sensorSide: 'left',
+        planeIndex: 0,
+        amplitudePerGram: 0.0016414953508745618,
+        phaseDeg: 46.422499036128116,
+        unit: 'in/s-pk',
+      },
+    ],
+    familySensitivities: [
+      {
+        sensorSide: 'left',
+        planeIndex: 0,
+        gramsPerUnit: 617.3542163265209,
+        unit: 'in/s-pk',
+        phaseLagDeg: 41.27668616243758,
+        jobCount: 5,
+        spread: {
+          massPercent: 5.561711593669232,
+          phaseDeg: 3.1882711485716095,
+        },
+      },
+      {
+        sensorSide: 'right',
+        planeIndex: 0,
+        gramsPerUnit: 2197.1370472026797,
+        unit: 'in/s-pk',
+        phaseLagDeg: 121.26033682871147,
+        jobCount: 4,
+        spread: {
+          massPercent: 6.197662294629117,
+          phaseDeg: 3.5532761530661654,
+        },
+      },
+      {
+        sensorSide: 'left',
+        planeIndex: 1,
+        gramsPerUnit: 2487.37202118242,
+        unit: 'in/s-pk',
+        phaseLagDeg: 73.52963802661986,
+        jobCount: 4,
+        spread: {
+          massPercent: 4.449665234148564,
+          phaseDeg: 2.5503124369568813,
+        },
+      },
+      {
+        sensorSide: 'right',
+        planeIndex: 1,
+        gramsPerUnit: 668.4822976393197,
+        unit: 'in/s-pk',
+        phaseLagDeg: 34.90245269429539,
+        jobCount: 4,
+        spread: {
+          massPercent: 1.9092727057700882,
+          phaseDeg: 1.0939991529921986,
+        },
+      },
+    ],
+    by: {
+      id: 3,
+      name: 'Tomasz Wrenfield',
+    },
+  },
+  abandonment: null,
+};
