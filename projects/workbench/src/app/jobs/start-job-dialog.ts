@@ -60,14 +60,14 @@ function isMachineRef(value: MachineChoice): value is MachineRef {
 /** Refuses an empty field and typed text that is not a machine chosen from the list. */
 function chosenMachine(control: AbstractControl<MachineChoice>): ValidationErrors | null {
   const value = control.value;
-  if (value === null || value === '') return { required: 'Choose the machine to balance.' };
+  if (value === null || value === '') return { machineMissing: 'Choose the machine to balance.' };
   return isMachineRef(value) ? null : { machine: 'Choose the machine from the list that opens as you type.' };
 }
 
 /** A date written as the API takes it, and a real one. */
 function isoDate(control: AbstractControl<string>): ValidationErrors | null {
   const value = control.value;
-  if (!value) return { required: 'Enter the date of the job.' };
+  if (!value) return { dateMissing: 'Enter the date of the job.' };
   const valid = /^\d{4}-\d{2}-\d{2}$/.test(value) && !Number.isNaN(Date.parse(value));
   return valid ? null : { date: 'Enter a real date.' };
 }
@@ -144,7 +144,7 @@ const SUGGESTIONS = 10;
                 <mat-option [value]="person.id">{{ person.name }}</mat-option>
               }
             </mat-select>
-            @if (people.error()) {
+            @if (people?.error()) {
               <mat-hint
                 >The people could not be fetched: the job is yours unless you try again later.</mat-hint
               >
@@ -187,10 +187,10 @@ export class StartJobDialog {
 
   /** Only a manager names the technician; anyone else's job is their own. */
   protected readonly namesTechnician = this.session.can('jobs:write-any');
-  protected readonly people = inject(PeopleApi).listResource();
+  protected readonly people = this.namesTechnician ? inject(PeopleApi).listResource() : null;
   protected readonly technicians = computed(() => {
     const me = this.session.user();
-    const listed = this.people.hasValue() ? jobPeople(this.people.value()?.people ?? []) : [];
+    const listed = this.people?.hasValue() ? jobPeople(this.people.value()?.people ?? []) : [];
     return me && !listed.some((person) => person.id === me.id) ? [me, ...listed] : listed;
   });
 
