@@ -12,6 +12,7 @@ import type { Job } from '../jobs.api';
 import { JobCorrectionStep } from './correction-step';
 import {
   JOB_AFTER_LEFT_TRIAL,
+  JOB_VERIFIED_RIGHT_ABOVE,
   JOB_WITH_CORRECTION,
   JOB_WITH_INSTALLED,
   MULCHER_FAMILY,
@@ -141,6 +142,15 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
         'radio_button_unchecked Weights were fitted since the last run: take a verification run with them on first.',
       ),
     );
+  });
+
+  it('after a verification, works the worse side: no trim where no weight went in its plane', async () => {
+    const { element } = await render(JOB_VERIFIED_RIGHT_ABOVE);
+    expect(methods(element).map((method) => method.status)).toEqual([
+      'check_circle This job has it: the right sensor and right plane, 668 g per in/s peak, from 4 jobs.',
+      'radio_button_unchecked A trim needs weights fitted in the right plane between run 1 and verification run 3; none were. Work the right side with two planes.',
+      'radio_button_unchecked Missing: a trial run in the right plane (run 2 is in the other).',
+    ]);
   });
 
   it('embeds the form of the missing trial run when the method chosen needs it', async () => {

@@ -140,11 +140,20 @@ export function methodOptions(
     const before = [...job.runs]
       .reverse()
       .find((run) => run.kind !== 'trial' && run.sequence < base.sequence);
-    singlePlane = option(
-      'single-plane',
-      true,
-      `A trim on the ${sideWords} side: the weights fitted between run ${before?.sequence ?? 1} and verification run ${base.sequence}.`,
-    );
+    const inPlane = (run: JobRun | undefined) =>
+      JSON.stringify((run?.weightsOnRotor ?? []).filter((weight) => weight.planeIndex === planeIndex));
+    singlePlane =
+      inPlane(before) !== inPlane(base)
+        ? option(
+            'single-plane',
+            true,
+            `A trim on the ${sideWords} side: the weights fitted in the ${planeWords} between run ${before?.sequence ?? 1} and verification run ${base.sequence}.`,
+          )
+        : option(
+            'single-plane',
+            false,
+            `A trim needs weights fitted in the ${planeWords} between run ${before?.sequence ?? 1} and verification run ${base.sequence}; none were. Work the ${sideWords} side with two planes.`,
+          );
   } else {
     const trial = latestTrialIn(job, planeIndex);
     singlePlane = trial
