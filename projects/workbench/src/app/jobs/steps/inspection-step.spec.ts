@@ -134,6 +134,7 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
       (await loader.getAllHarnesses(MatFormFieldHarness)).map((field) => field.getTextErrors()),
     );
     expect(errors.flat()).toEqual(['Enter the bearing end play in mm.', 'Enter the shaft runout in mm.']);
+    expect(document.activeElement).toBe(element.querySelector('input[formcontrolname="bearingEndPlayMm"]'));
     expect([...element.querySelectorAll('.check .field-error')].map(text)).toEqual(
       Array(4).fill('Choose OK, fixed or fault left.'),
     );

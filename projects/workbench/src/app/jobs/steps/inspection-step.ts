@@ -4,6 +4,7 @@ import {
   Component,
   computed,
   DestroyRef,
+  ElementRef,
   inject,
   input,
   type OnInit,
@@ -129,6 +130,7 @@ export class JobInspectionStep implements OnInit {
   private readonly dialog = inject(MatDialog);
   private readonly drafts = inject(JobDrafts);
   private readonly destroyRef = inject(DestroyRef);
+  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
 
   protected readonly checks = VISUAL_CHECKS;
   protected readonly outcomes = CHECK_OUTCOMES;
@@ -235,6 +237,7 @@ export class JobInspectionStep implements OnInit {
     this.submitted.set(true);
     if (this.form.invalid) {
       this.form.markAllAsTouched();
+      this.focusFirstInvalid();
       return;
     }
     const value = this.form.getRawValue();
@@ -280,6 +283,15 @@ export class JobInspectionStep implements OnInit {
           if (!outcome.ok) this.formError.set(formErrorOf(this.form, outcome.error));
         });
     });
+  }
+
+  /** Takes a person on the keyboard (or a screen reader) to the first field the form refuses. */
+  private focusFirstInvalid(): void {
+    this.host.nativeElement
+      .querySelector<HTMLElement>(
+        'input.ng-invalid, textarea.ng-invalid, mat-button-toggle-group.ng-invalid button, fieldset.ng-invalid input[type="checkbox"]',
+      )
+      ?.focus();
   }
 
   private within(measured: number | null, limit: number | undefined): boolean | null {

@@ -112,6 +112,8 @@ describe('JobSafetyStep', { timeout: 30_000 }, () => {
       `verified_user Acknowledged by Tomasz Wrenfield on ${when}`,
     );
     expect(element.querySelectorAll('.stored__list li').length).toBe(5);
+    // The cautions stay on the step, as titles with their detail one tap away.
+    expect(await (await loader.getHarness(CpSafetyNoticeHarness)).isCompact()).toBe(true);
     expect(await loader.getAllHarnesses(MatCheckboxHarness)).toEqual([]);
     expect(element.querySelector('form')).toBeNull();
     expect(localStorage.getItem('counterpoise.job-draft.13.safety')).toBeNull();

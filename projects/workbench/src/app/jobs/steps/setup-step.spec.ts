@@ -162,7 +162,6 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
     await (await sensor('Right side')).uncheck();
     expect([...element.querySelectorAll('.warning')].map(text)).toEqual([
       'This rotor has two correction planes, and two-plane correction needs a sensor on each side. With the left sensor alone, only one plane can be corrected at a time.',
-      'The machine’s record has sensors on the left side and the right side: check that the readings will match earlier jobs.',
     ]);
     await (await input('Where on the left side')).setValue(' Left bearing housing, vertical ');
     await (await input('Tachometer')).setValue('Optical, on a magnetic stand at the left skid');
@@ -188,6 +187,18 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
     expect(localStorage.getItem('counterpoise.job-draft.13.setup')).toBeNull();
   });
 
+  it('notes sensors that differ from the machine’s record on a one-plane rotor', async () => {
+    const { element, sensor } = await render(JOB_LET_GO_ON, {
+      machine: { ...MULCHER_MACHINE, sensorSides: ['left'], planes: [MULCHER_MACHINE.planes[0]!] },
+    });
+    expect(element.querySelector('.warning')).toBeNull();
+    await (await sensor('Left side')).uncheck();
+    await (await sensor('Right side')).check();
+    expect([...element.querySelectorAll('.warning')].map(text)).toEqual([
+      'The machine’s record has sensors on the left side: check that the readings will match earlier jobs.',
+    ]);
+  });
+
   it('asks for a sensor and a speed before it sends anything', async () => {
     const { fixture, element, loader, input, sensor, submit } = await render(JOB_LET_GO_ON);
     await (await sensor('Left side')).uncheck();
@@ -197,6 +208,7 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
     await answered(fixture);
     http.expectNone('/api/v1/jobs/13/setup');
     expect(text(element.querySelector('#sensors-error'))).toBe('Place at least one sensor.');
+    expect(document.activeElement).toBe(element.querySelector('.sensor__used input'));
     const speed = await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Operating speed' }));
     expect(await speed.getTextErrors()).toEqual(['Enter the operating speed in rpm.']);
   });

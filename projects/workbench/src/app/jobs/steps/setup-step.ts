@@ -5,6 +5,7 @@ import {
   Component,
   computed,
   DestroyRef,
+  ElementRef,
   effect,
   inject,
   input,
@@ -180,6 +181,7 @@ export class JobSetupStep implements OnInit {
   protected readonly session = inject(JobSession);
   private readonly drafts = inject(JobDrafts);
   private readonly destroyRef = inject(DestroyRef);
+  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
 
   protected readonly sides = SIDES;
   protected readonly sideLabels = SIDE_LABELS;
@@ -230,7 +232,9 @@ export class JobSetupStep implements OnInit {
       );
     }
     const expected = machine.sensorSides;
+    // Said once: the planes' warning already names the missing side.
     if (
+      warnings.length === 0 &&
       expected.length > 0 &&
       (expected.length !== used.length || expected.some((side) => !used.includes(side)))
     ) {
@@ -318,6 +322,7 @@ export class JobSetupStep implements OnInit {
     this.formError.set(null);
     if (this.form.invalid) {
       this.form.markAllAsTouched();
+      this.focusFirstInvalid();
       return;
     }
     const setup = setupRequest(this.form.getRawValue());
@@ -334,6 +339,15 @@ export class JobSetupStep implements OnInit {
    * Puts the server's messages on their fields: a sensor's path names its place in the list sent, which is
    * its side's group here. Returns the sentence for the form as a whole, or null.
    */
+  /** Takes a person on the keyboard (or a screen reader) to the first field the form refuses. */
+  private focusFirstInvalid(): void {
+    this.host.nativeElement
+      .querySelector<HTMLElement>(
+        'input.ng-invalid, textarea.ng-invalid, mat-button-toggle-group.ng-invalid button, fieldset.ng-invalid input[type="checkbox"]',
+      )
+      ?.focus();
+  }
+
   private placeErrors(error: unknown, sent: RecordSetup): string | null {
     const problem = problemOf(error);
     if (!problem?.errors?.length) return httpErrorMessage(error);
