@@ -1,12 +1,15 @@
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { type HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
+import { Router } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import type { Role } from '@counterpoise/api';
 import { CpCorrectionOverlayHarness } from '@counterpoise/ng/correction-overlay/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AuthSession } from '../auth/auth-session';
 import { aSession, RouteStandIn } from '../auth/testing';
+import { todayIso } from '../jobs/job-dates';
+import { aJob } from '../jobs/jobs-testing';
 import { aChange, aMachine, nextRequest, recordsTestBed } from '../records/testing';
 import { MachinePage } from './machine-page';
 
@@ -68,6 +71,24 @@ describe('MachinePage', { timeout: 30_000 }, () => {
       'Stock weights': '50 g100 g150 g',
       'Acceptance level': 'The family’s',
     });
+  });
+
+  it('starts a job on this machine today, in the technician’s name, and opens it', async () => {
+    const { element } = await open('technician');
+    const start = element.querySelector<HTMLButtonElement>('.start-job button');
+    expect(start?.textContent).toContain('Start a job');
+    start!.click();
+    const create = await nextRequest(http, '/api/v1/jobs');
+    expect(create.request.method).toBe('POST');
+    expect(create.request.body).toEqual({ machineId: 12, scheduledFor: todayIso() });
+    create.flush(aJob({ id: 40, version: 1 }), { status: 201, statusText: 'Created' });
+    await new Promise((resolve) => setTimeout(resolve));
+    expect(TestBed.inject(Router).url).toBe('/jobs/40');
+  });
+
+  it('offers starting a job only to those who may', async () => {
+    const { element } = await open('viewer');
+    expect(element.querySelector('.start-job')).toBeNull();
   });
 
   it('lists the stock weights one by one', async () => {

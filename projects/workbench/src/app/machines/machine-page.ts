@@ -5,6 +5,9 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { RouterLink } from '@angular/router';
 import { CpCorrectionOverlay } from '@counterpoise/ng/correction-overlay';
+import { AuthSession } from '../auth/auth-session';
+import { BusyButton } from '../forms/busy-button';
+import { JobStarter } from '../jobs/start-job-dialog';
 import { RecordHistorySection } from '../records/record-history-section';
 import { RecordPageHeader } from '../records/record-page-header';
 import {
@@ -31,6 +34,7 @@ import { ErrorBanner } from '../forms/error-banner';
 @Component({
   selector: 'app-machine-page',
   imports: [
+    BusyButton,
     ErrorBanner,
     RecordHistorySection,
     RecordPageHeader,
@@ -55,6 +59,8 @@ export class MachinePage {
     noun: 'machine',
   });
   protected readonly machine = this.view.record;
+  protected readonly session = inject(AuthSession);
+  protected readonly starter = inject(JobStarter);
   protected readonly fields = MACHINE_FIELDS;
   protected readonly rotations = ROTATION_LABELS;
   protected readonly sides = SIDE_LABELS;
