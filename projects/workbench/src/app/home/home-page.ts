@@ -59,6 +59,12 @@ export class HomePage {
   });
   protected readonly firstName = computed(() => this.session.user()?.name.split(' ')[0] ?? '');
 
+  /** The failed start of a job on one of the machines due, if the last start failed there. */
+  protected failedDue(due: readonly { machine: { id: number } }[]) {
+    const failure = this.starter.failure();
+    return failure && due.some((item) => item.machine.id === failure.machineId) ? failure : null;
+  }
+
   /** The way on from a job: a job never touched begins, an open one carries on, one on hold is looked at. */
   protected openLabel(job: JobSummary): string {
     if (job.status === 'on-hold') return 'Open the job';

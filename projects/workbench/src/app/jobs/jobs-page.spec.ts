@@ -236,7 +236,7 @@ describe('JobsPage', { timeout: 30_000 }, () => {
       aPage([aCustomer({ id: 8, name: 'Wrenhollow Parish Council' })]),
     );
     await settle(harness.fixture);
-    // The panel opened on the empty list; it shows the answer when the field is next entered.
+    // The harness reads the panel as closed when its options came after the typing; entering again opens it.
     await picker.blur();
     await picker.focus();
     const chosen = picker.selectOption({ text: 'Wrenhollow Parish Council' });
@@ -431,7 +431,7 @@ describe('JobsPage', { timeout: 30_000 }, () => {
       expect(search.request.params.get('archived')).toBe('false');
       search.flush(aPage([aMachine()]));
       await settle(fixture);
-      // The panel opened on the empty list; it shows the answer when the field is next entered.
+      // The harness reads the panel as closed when its options came after the typing; entering again opens it.
       await machine.blur();
       await machine.focus();
       await machine.selectOption({ text: /TM225-0419/ });
