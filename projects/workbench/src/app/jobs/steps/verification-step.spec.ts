@@ -129,8 +129,8 @@ describe('JobVerificationStep', { timeout: 30_000 }, () => {
     );
     // 0.05999 → 0.06 and 0.31995 → 0.32 at three decimals.
     expect(verdictRows(element)).toEqual([
-      ['Left', '0.06 in/s peak', '0.15 in/s peak', 'check Within'],
-      ['Right', '0.32 in/s peak', '0.15 in/s peak', 'close Above'],
+      ['Left', '0.06', '0.15', 'check Within'],
+      ['Right', '0.32', '0.15', 'close Above'],
     ]);
     expect(text(element.querySelector('.verdict__next'))).toBe('Work the right side next.');
     expect(text(element.querySelector('.verdict__why'))).toBe(JOB_VERIFIED_RIGHT_ABOVE.verification!.why);
@@ -145,9 +145,12 @@ describe('JobVerificationStep', { timeout: 30_000 }, () => {
       'verified Run 4 is within the acceptance level',
     );
     expect(verdictRows(element)).toEqual([
-      ['Left', '0.001 in/s peak', '0.12 in/s peak', 'check Within'],
-      ['Right', '0.012 in/s peak', '0.12 in/s peak', 'check Within'],
+      ['Left', '0.001', '0.12', 'check Within'],
+      ['Right', '0.012', '0.12', 'check Within'],
     ]);
+    expect(text(element.querySelector('.verdict__next'))).toBe(
+      'The job is completed with this run as its after.',
+    );
     expect(element.querySelector('.verdict__trim')).toBeNull();
   });
 
@@ -161,7 +164,7 @@ describe('JobVerificationStep', { timeout: 30_000 }, () => {
         sides: [{ ...verification.sides[0]!, limit: null, accepted: false }, verification.sides[1]!],
       },
     });
-    expect(verdictRows(element)[0]).toEqual(['Left', '0.06 in/s peak', 'None', 'Not judged']);
+    expect(verdictRows(element)[0]).toEqual(['Left', '0.06', 'None', 'Not judged']);
     expect(text(element.querySelector('.verdict__not-judged'))).toBe(
       'The left side is not judged. A balance grade is a permissible unbalance, read as an amplitude through ' +
         'the influence coefficient of the side: that needs the rotor’s mass on the machine and a coefficient ' +
