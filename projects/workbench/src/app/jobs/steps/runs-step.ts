@@ -1,5 +1,13 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  ElementRef,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import type { MachineSide } from '@counterpoise/api';
@@ -90,6 +98,8 @@ export class JobRunsStep {
   /** Whether the signed-in person may change this job now. */
   readonly editable = input(false);
 
+  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
+
   protected readonly kindLabels = RUN_KIND_LABELS;
   protected readonly sideLabels = SIDE_LABELS;
   protected readonly formatNumber = formatNumber;
@@ -149,7 +159,25 @@ export class JobRunsStep {
     return describeWeight(weight, this.planeCount());
   }
 
-  protected trialSaved(): void {
-    this.addingTrial.set(false);
+  /** Opens or closes the trial run's form, taking the keyboard's focus to it or back to its button. */
+  protected showTrial(open: boolean): void {
+    this.addingTrial.set(open);
+    this.focusLater(open ? '#trial-run-heading' : '.runs-step__add-trial');
+  }
+
+  /** Opens or closes the correction of a run's readings, with the focus likewise. */
+  protected showCorrection(runId: number | null): void {
+    const closing = this.correcting();
+    this.correcting.set(runId);
+    this.focusLater(
+      runId !== null
+        ? `#correct-run-heading-${runId}`
+        : `.run[data-run-id="${closing}"] .run__correct-button`,
+    );
+  }
+
+  private focusLater(selector: string): void {
+    // After the next render, once the form (or the button) is there again.
+    setTimeout(() => this.host.nativeElement.querySelector<HTMLElement>(selector)?.focus());
   }
 }
