@@ -157,6 +157,8 @@ function jobIdOf(on: Page): number {
 
 /** Takes the screenshot of the whole job page (the shell scrolls its content, so the window grows to it). */
 async function shoot(on: Page, name: string): Promise<void> {
+  // The stepper slides to the step a stored change moved it to: the picture waits for the slide to end.
+  await on.evaluate(() => Promise.all(document.getAnimations().map((animation) => animation.finished)));
   const viewport = on.viewportSize() ?? TABLET;
   const height = await on.evaluate(() => {
     const main = document.querySelector('main');

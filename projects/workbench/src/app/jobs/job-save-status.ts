@@ -25,8 +25,7 @@ import { JobSession } from './job-session';
           <mat-icon aria-hidden="true">cloud_off</mat-icon>
           <span>
             <strong>Not saved yet: {{ state.what }}.</strong> {{ state.reason }} Trying again by itself
-            (attempt {{ state.attempt + 1 }}, in {{ state.delayMs / 1000 }} s); it stays on this device
-            meanwhile.
+            (attempt {{ state.attempt + 1 }}, in {{ state.delayMs / 1000 }} s).
           </span>
           <button matButton="outlined" type="button" (click)="session.retryNow()">Try now</button>
         }
@@ -50,7 +49,10 @@ import { JobSession } from './job-session';
         }
         @default {
           <mat-icon aria-hidden="true">cloud_done</mat-icon>
-          <span>Everything entered is saved on the server.</span>
+          <span
+            >Each step is saved on the server as you store it; what you type stays on this device until
+            then.</span
+          >
         }
       }
     </div>

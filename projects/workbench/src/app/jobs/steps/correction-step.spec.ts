@@ -153,6 +153,26 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
     ]);
   });
 
+  it('after a verification above the level, says why and which side to work next, and picks a method that can', async () => {
+    const { element } = await render(JOB_VERIFIED_RIGHT_ABOVE);
+    const verdict = element.querySelector('[data-testid="not-yet-accepted"]');
+    expect(text(verdict?.querySelector('h3'))).toBe(
+      'replay Run 3 is above the acceptance level: work the right side next',
+    );
+    expect(text(verdict)).toContain(
+      'The right side reads 0.32 in/s-pk, above its limit of 0.15 in/s-pk; the left side is within its limit.',
+    );
+    // No trim is possible on the right (no weight went in its plane) and two planes lack a trial run: the
+    // family's stored figure for the right side is the method that can be worked out now.
+    const checked = element.querySelector('mat-radio-button.mat-mdc-radio-checked');
+    expect(checked?.getAttribute('data-method')).toBe('one-run');
+  });
+
+  it('shows no verdict before any verification run', async () => {
+    const { element } = await render(JOB_WITH_INSTALLED);
+    expect(element.querySelector('[data-testid="not-yet-accepted"]')).toBeNull();
+  });
+
   it('embeds the form of the missing trial run when the method chosen needs it', async () => {
     const { fixture, element } = await render(JOB_AFTER_LEFT_TRIAL);
     expect(element.querySelector('[data-testid="trial-entry"]')).toBeNull();

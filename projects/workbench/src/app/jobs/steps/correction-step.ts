@@ -126,14 +126,35 @@ export class JobCorrectionStep {
   protected readonly options = computed(() => methodOptions(this.job(), this.machine(), this.family()));
   /** The method the technician picked, if any. */
   private readonly picked = signal<CorrectionMethod | null>(null);
-  /** The method chosen: the technician's pick, else the latest correction's, else the first this job allows. */
-  protected readonly method = computed(
-    () =>
-      this.picked() ??
-      this.job().corrections.at(-1)?.method ??
-      this.options().find((option) => option.possible)?.method ??
-      null,
-  );
+  /**
+   * The method chosen: the technician's pick; after a verification run above the level, the one that refines
+   * the last correction from what the rotor has shown (as many planes as it, by trim), else the first this job
+   * allows; before any, the latest correction's, else the first this job allows.
+   */
+  protected readonly method = computed((): CorrectionMethod | null => {
+    const picked = this.picked();
+    if (picked !== null) return picked;
+    const options = this.options();
+    const possible = (method: CorrectionMethod) =>
+      options.some((option) => option.method === method && option.possible);
+    const last = this.job().corrections.at(-1);
+    if (last && this.superseded()) {
+      const refining: CorrectionMethod[] =
+        last.method === 'multi-plane' ? ['multi-plane', 'single-plane'] : ['single-plane', 'multi-plane'];
+      return refining.find(possible) ?? options.find((option) => option.possible)?.method ?? last.method;
+    }
+    return last?.method ?? options.find((option) => option.possible)?.method ?? null;
+  });
+  /** The last verification run's verdict when it is above the acceptance level; null otherwise. */
+  protected readonly notYetAccepted = computed(() => {
+    const verification = this.job().verification;
+    const run = this.job().runs.find((candidate) => candidate.id === verification?.runId);
+    return verification && !verification.accepted && run?.kind === 'verification'
+      ? { ...verification, sequence: run.sequence }
+      : null;
+  });
+  /** True while this step's own "Work it out" is on its way (another change only holds the button). */
+  protected readonly computing = signal(false);
   protected readonly chosen = computed(() =>
     this.options().find((option) => option.method === this.method()),
   );
@@ -246,10 +267,12 @@ export class JobCorrectionStep {
     const method = this.method();
     if (method === null) return;
     this.computeError.set(null);
-    const outcome = await this.session.save(
-      `Correction by ${METHOD_WORDS[method].label.toLowerCase()}`,
-      (api, id, etag) => api.computeCorrection(id, method, etag),
-    );
+    this.computing.set(true);
+    const outcome = await this.session
+      .save(`Correction by ${METHOD_WORDS[method].label.toLowerCase()}`, (api, id, etag) =>
+        api.computeCorrection(id, method, etag),
+      )
+      .finally(() => this.computing.set(false));
     if (outcome.ok) return;
     // A 412 shows the job as stored, and the save line says so.
     if (outcome.error instanceof HttpErrorResponse && outcome.error.status === 412) return;
