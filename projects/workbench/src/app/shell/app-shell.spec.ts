@@ -61,6 +61,7 @@ describe('AppShell', () => {
   it('leaves out what a role does not open', async () => {
     expect(navigationLabels((await render(true, 'technician')).element)).toEqual([
       'Home',
+      'Jobs',
       'Safety',
       'Customers',
       'Machines',
@@ -74,6 +75,8 @@ describe('AppShell', () => {
     expect(labels).not.toContain('People');
     expect(labels).not.toContain('Outbox');
     expect(labels).not.toContain('Customers');
+    // Developers hold no jobs' permission.
+    expect(labels).not.toContain('Jobs');
   });
 
   it('shows the account menu in the toolbar once someone is signed in', async () => {
