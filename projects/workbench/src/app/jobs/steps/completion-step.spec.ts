@@ -1,13 +1,11 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
-import { provideRouter } from '@angular/router';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { JobSession } from '../job-session';
 import type { Job } from '../jobs.api';
 import { JobCompletionStep } from './completion-step';
+import { configureStepTesting, renderStep, text } from './step-testing';
 import {
   COMPLETED_MULCHER_JOB,
   JOB_8_COMPLETED,
@@ -39,31 +37,16 @@ describe('JobCompletionStep', { timeout: 30_000 }, () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        provideRouter([]),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = configureStepTesting();
   });
 
   afterEach(() => http.verify());
 
   async function render(job: Job, editable = true) {
-    const fixture = TestBed.createComponent(StepHost);
-    fixture.componentRef.setInput('editable', editable);
-    const loading = fixture.componentInstance.session.load(job.id);
-    http.expectOne(`/api/v1/jobs/${job.id}`).flush(job, { headers: { ETag: `"${job.version}"` } });
-    await loading;
-    await fixture.whenStable();
+    const fixture = await renderStep(StepHost, job, ({ componentRef }) =>
+      componentRef.setInput('editable', editable),
+    );
     return { fixture, element: fixture.nativeElement as HTMLElement };
-  }
-
-  function text(element: Element | null | undefined): string {
-    return element?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
   }
 
   /** A table row's cells, or a list item's text, as one line. */

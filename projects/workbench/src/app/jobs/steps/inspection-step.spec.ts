@@ -1,11 +1,9 @@
 import { formatDate } from '@angular/common';
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { MatButtonToggleGroupHarness } from '@angular/material/button-toggle/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
@@ -17,6 +15,7 @@ import type { MachineFamily } from '../../machine-families/machine-families.api'
 import { JobSession } from '../job-session';
 import type { Job } from '../jobs.api';
 import { JobInspectionStep } from './inspection-step';
+import { answered, configureStepTesting, renderStep, words } from './step-testing';
 import { JOB_LET_GO_ON, JOB_ON_HOLD, JOB_SAFETY_ACKNOWLEDGED, MULCHER_FAMILY } from './testing-jobs';
 
 /** The step as the job page shows it: the job as the session stores it, so a stored change shows at once. */
@@ -39,43 +38,21 @@ const JOB_WITHOUT_FAMILY: Job = {
   machine: { ...JOB_SAFETY_ACKNOWLEDGED.machine, familyId: null, familyName: null },
 };
 
-/** The words of an element as read, without its icons' ligature names. */
-function text(element: Element | null | undefined): string | undefined {
-  if (!element) return undefined;
-  const copy = element.cloneNode(true) as Element;
-  copy.querySelectorAll('mat-icon').forEach((icon) => icon.remove());
-  return copy.textContent?.replace(/\s+/g, ' ').trim();
-}
-
 describe('JobInspectionStep', { timeout: 30_000 }, () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    localStorage.clear();
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        JobSession,
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = configureStepTesting();
   });
 
   afterEach(() => http.verify());
 
   async function render(job: Job, options: { role?: Role; family?: MachineFamily; editable?: boolean } = {}) {
     TestBed.inject(AuthSession).start(aSession(options.role ?? 'technician'));
-    const session = TestBed.inject(JobSession);
-    const loading = session.load(job.id);
-    http.expectOne(`/api/v1/jobs/${job.id}`).flush(job, { headers: { ETag: `"${job.version}"` } });
-    await loading;
-    const fixture = TestBed.createComponent(InspectionHost);
-    fixture.componentInstance.family.set('family' in options ? options.family : MULCHER_FAMILY);
-    fixture.componentInstance.editable.set(options.editable ?? true);
-    fixture.detectChanges();
-    await fixture.whenStable();
+    const fixture = await renderStep(InspectionHost, job, ({ componentInstance: host }) => {
+      host.family.set('family' in options ? options.family : MULCHER_FAMILY);
+      host.editable.set(options.editable ?? true);
+    });
     const element = fixture.nativeElement as HTMLElement;
     const loader = TestbedHarnessEnvironment.loader(fixture);
     return {
@@ -88,11 +65,6 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     };
   }
 
-  async function answered(fixture: ComponentFixture<unknown>) {
-    await fixture.whenStable();
-    fixture.detectChanges();
-  }
-
   async function choose(loader: ReturnType<typeof TestbedHarnessEnvironment.loader>, outcomes: string[]) {
     const groups = await loader.getAllHarnesses(MatButtonToggleGroupHarness);
     for (const [index, group] of groups.entries()) {
@@ -103,14 +75,14 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
 
   it('shows each measure beside the family’s limit, and whether what is typed is within it', async () => {
     const { element, input } = await render(JOB_SAFETY_ACKNOWLEDGED);
-    const limits = [...element.querySelectorAll('.limit')].map(text);
+    const limits = [...element.querySelectorAll('.limit')].map(words);
     expect(limits).toEqual(['Limit 0.3 mm', 'Limit 0.2 mm']);
-    expect(text(element.querySelector('fieldset .hint'))).toBe(
+    expect(words(element.querySelector('fieldset .hint'))).toBe(
       'Judged against the limits of Fixed-tooth mulcher drum, 2.0 m.',
     );
     await (await input('Bearing end play')).setValue('0.42');
     await (await input('Shaft runout')).setValue('0.2');
-    expect([...element.querySelectorAll('.limit')].map(text)).toEqual([
+    expect([...element.querySelectorAll('.limit')].map(words)).toEqual([
       'Limit 0.3 mm: over the limit',
       'Limit 0.2 mm: within',
     ]);
@@ -119,8 +91,8 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
 
   it('shows the common-practice limits in mm for a machine without a family', async () => {
     const { element } = await render(JOB_WITHOUT_FAMILY, { family: undefined });
-    expect([...element.querySelectorAll('.limit')].map(text)).toEqual(['Limit 3.175 mm', 'Limit 0.356 mm']);
-    expect(text(element.querySelector('fieldset .hint'))).toBe(
+    expect([...element.querySelectorAll('.limit')].map(words)).toEqual(['Limit 3.175 mm', 'Limit 0.356 mm']);
+    expect(words(element.querySelector('fieldset .hint'))).toBe(
       'Judged against common-practice limits (the machine has no family).',
     );
   });
@@ -135,7 +107,7 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     );
     expect(errors.flat()).toEqual(['Enter the bearing end play in mm.', 'Enter the shaft runout in mm.']);
     expect(document.activeElement).toBe(element.querySelector('input[formcontrolname="bearingEndPlayMm"]'));
-    expect([...element.querySelectorAll('.check .field-error')].map(text)).toEqual(
+    expect([...element.querySelectorAll('.check .field-error')].map(words)).toEqual(
       Array(4).fill('Choose OK, fixed or fault left.'),
     );
   });
@@ -160,17 +132,17 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     });
     request.flush(JOB_ON_HOLD, { headers: { ETag: '"3"' } });
     await answered(fixture);
-    expect(text(element.querySelector('.hold__heading'))).toBe('The job is on hold');
+    expect(words(element.querySelector('.hold__heading'))).toBe('The job is on hold');
     expect(localStorage.getItem('counterpoise.job-draft.13.inspection')).toBeNull();
   });
 
   it('shows a job on hold with its reasons, tells a technician that a manager decides, and keeps the form to re-measure', async () => {
     const { fixture, element, loader, input, submit } = await render(JOB_ON_HOLD);
-    expect([...element.querySelectorAll('.hold__reasons li')].map(text)).toEqual([
+    expect([...element.querySelectorAll('.hold__reasons li')].map(words)).toEqual([
       'Bearing end play is 0.42 mm, over the limit of 0.3 mm: repair before balancing.',
       'Welds: a fault is left; fix it before balancing.',
     ]);
-    expect(text(element.querySelector('.hold__decision'))).toContain(
+    expect(words(element.querySelector('.hold__decision'))).toContain(
       'a manager must decide whether the job goes on: it is listed on the manager’s home page',
     );
     expect(element.querySelector('.hold button')).toBeNull();
@@ -206,14 +178,14 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     await answered(fixture);
     expect(element.querySelector('.hold')).toBeNull();
     expect(element.querySelector('form')).toBeNull();
-    expect(text(element.querySelector('.summary__heading'))).toBe('Within the limits');
+    expect(words(element.querySelector('.summary__heading'))).toBe('Within the limits');
   });
 
   it('lets a manager let the job go on, with the reason asked for and sent', async () => {
     const { fixture, element, overlays } = await render(JOB_ON_HOLD, { role: 'manager' });
-    expect(text(element.querySelector('.hold__decision'))).not.toContain('a manager must decide');
+    expect(words(element.querySelector('.hold__decision'))).not.toContain('a manager must decide');
     const button = [...element.querySelectorAll<HTMLButtonElement>('.hold button')].find(
-      (candidate) => text(candidate) === 'Let the job go on',
+      (candidate) => words(candidate) === 'Let the job go on',
     )!;
     button.click();
     const dialog = await overlays.getHarness(MatDialogHarness);
@@ -221,7 +193,7 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     const reason = await dialog.getHarness(MatInputHarness);
     await reason.setValue(JOB_LET_GO_ON.inspection!.override!.reason);
     const confirm = [...document.querySelectorAll<HTMLButtonElement>('mat-dialog-actions button')].find(
-      (candidate) => text(candidate) === 'Let the job go on',
+      (candidate) => words(candidate) === 'Let the job go on',
     )!;
     confirm.click();
     await new Promise((resolve) => setTimeout(resolve));
@@ -233,7 +205,7 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     request.flush(JOB_LET_GO_ON, { headers: { ETag: '"4"' } });
     await answered(fixture);
     expect(element.querySelector('.hold')).toBeNull();
-    expect(text(element.querySelector('.decided__reason'))).toBe(
+    expect(words(element.querySelector('.decided__reason'))).toBe(
       `“${JOB_LET_GO_ON.inspection!.override!.reason}”`,
     );
   });
@@ -241,13 +213,15 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
   it('shows an overridden inspection with the reason, who and when, and what it had found', async () => {
     const { element } = await render(JOB_LET_GO_ON);
     const override = JOB_LET_GO_ON.inspection!.override!;
-    expect(text(element.querySelector('.decided__heading'))).toBe(
+    expect(words(element.querySelector('.decided__heading'))).toBe(
       `Let go on by Dagny Fairbrook on ${formatDate(override.at, 'd MMM y, HH:mm', 'en-US')}`,
     );
-    expect(text(element.querySelector('.decided__reason'))).toBe(`“${override.reason}”`);
-    expect([...element.querySelectorAll('.decided li')].map(text)).toEqual(JOB_LET_GO_ON.inspection!.reasons);
+    expect(words(element.querySelector('.decided__reason'))).toBe(`“${override.reason}”`);
+    expect([...element.querySelectorAll('.decided li')].map(words)).toEqual(
+      JOB_LET_GO_ON.inspection!.reasons,
+    );
     expect(element.querySelector('form')).toBeNull();
-    expect(text(element.querySelector('.details'))).toContain('Bearing end play 0.42 mm (limit 0.3 mm)');
+    expect(words(element.querySelector('.details'))).toContain('Bearing end play 0.42 mm (limit 0.3 mm)');
   });
 
   it('puts the server’s field errors on their fields', async () => {
@@ -271,7 +245,7 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     await answered(fixture);
     const runout = await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Shaft runout' }));
     expect(await runout.getTextErrors()).toEqual(['The runout is at most 10 mm.']);
-    expect(text(element.querySelector('#check-error-welds'))).toBe('A check is ok, fixed or fault.');
+    expect(words(element.querySelector('#check-error-welds'))).toBe('A check is ok, fixed or fault.');
     expect(element.querySelector('app-error-banner')).toBeNull();
   });
 

@@ -1,14 +1,13 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { CpPolarPlotHarness } from '@counterpoise/ng/polar-plot/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { JobSession } from '../job-session';
 import type { Job, JobRun } from '../jobs.api';
 import { JobRunsStep } from './runs-step';
+import { configureStepTesting, renderStep, text } from './step-testing';
 import { JOB_AFTER_LEFT_TRIAL, JOB_WITH_CORRECTION, MULCHER_MACHINE } from './testing-jobs';
 
 @Component({
@@ -31,15 +30,7 @@ describe('JobRunsStep', { timeout: 30_000 }, () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    localStorage.clear();
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = configureStepTesting();
   });
 
   afterEach(() => {
@@ -48,22 +39,14 @@ describe('JobRunsStep', { timeout: 30_000 }, () => {
   });
 
   async function render(job: Job, editable = true) {
-    const fixture = TestBed.createComponent(Host);
-    fixture.componentRef.setInput('editable', editable);
-    const loading = fixture.componentInstance.session.load(job.id);
-    http.expectOne(`/api/v1/jobs/${job.id}`).flush(job, { headers: { ETag: `"${job.version}"` } });
-    await loading;
-    fixture.detectChanges();
-    await fixture.whenStable();
+    const fixture = await renderStep(Host, job, ({ componentRef }) =>
+      componentRef.setInput('editable', editable),
+    );
     return {
       fixture,
       element: fixture.nativeElement as HTMLElement,
       loader: TestbedHarnessEnvironment.loader(fixture),
     };
-  }
-
-  function text(element: Element | null | undefined): string {
-    return element?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
   }
 
   function values(element: HTMLElement, run: number, side: 'left' | 'right'): Record<string, string> {
@@ -185,10 +168,7 @@ describe('JobRunsStep', { timeout: 30_000 }, () => {
     expect(button(element, 'Add a trial run')).toBeUndefined();
 
     TestBed.resetTestingModule();
-    TestBed.configureTestingModule({
-      providers: [provideHttpClient(), provideHttpClientTesting()],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = configureStepTesting();
     const viewer = await render(before, false);
     expect(viewer.element.querySelector('app-run-entry')).toBeNull();
   });

@@ -1,10 +1,8 @@
 import { formatDate } from '@angular/common';
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
 import { CpSafetyNoticeHarness } from '@counterpoise/ng/core/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
@@ -13,6 +11,7 @@ import { aSession } from '../../auth/testing';
 import { JobSession } from '../job-session';
 import type { Job } from '../jobs.api';
 import { JobSafetyStep } from './safety-step';
+import { configureStepTesting, renderStep } from './step-testing';
 import { JOB_NEW, JOB_SAFETY_ACKNOWLEDGED } from './testing-jobs';
 
 /** The step as the job page shows it: the job as the session stores it, so a stored change shows at once. */
@@ -34,30 +33,16 @@ describe('JobSafetyStep', { timeout: 30_000 }, () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    localStorage.clear();
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        JobSession,
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = configureStepTesting();
     TestBed.inject(AuthSession).start(aSession('technician'));
   });
 
   afterEach(() => http.verify());
 
   async function render(job: Job, editable = true) {
-    const session = TestBed.inject(JobSession);
-    const loading = session.load(job.id);
-    http.expectOne(`/api/v1/jobs/${job.id}`).flush(job, { headers: { ETag: `"${job.version}"` } });
-    await loading;
-    const fixture = TestBed.createComponent(SafetyHost);
-    fixture.componentInstance.editable.set(editable);
-    fixture.detectChanges();
-    await fixture.whenStable();
+    const fixture = await renderStep(SafetyHost, job, (host) =>
+      host.componentInstance.editable.set(editable),
+    );
     const element = fixture.nativeElement as HTMLElement;
     return {
       fixture,

@@ -1,11 +1,9 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { MatButtonToggleGroupHarness } from '@angular/material/button-toggle/testing';
 import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
@@ -16,6 +14,7 @@ import type { Machine } from '../../machines/machines.api';
 import { JobSession } from '../job-session';
 import type { Job } from '../jobs.api';
 import { JobSetupStep } from './setup-step';
+import { answered, configureStepTesting, renderStep, words } from './step-testing';
 import { JOB_AFTER_LEFT_TRIAL, JOB_LET_GO_ON, MULCHER_FAMILY, MULCHER_MACHINE } from './testing-jobs';
 
 /** The step as the job page shows it: the job as the session stores it, the machine and family as they load. */
@@ -41,28 +40,11 @@ const JOB_WITH_SETUP: Job = {
   setup: JOB_AFTER_LEFT_TRIAL.setup,
 };
 
-/** The words of an element as read, without its icons' ligature names. */
-function text(element: Element | null | undefined): string | undefined {
-  if (!element) return undefined;
-  const copy = element.cloneNode(true) as Element;
-  copy.querySelectorAll('mat-icon').forEach((icon) => icon.remove());
-  return copy.textContent?.replace(/\s+/g, ' ').trim();
-}
-
 describe('JobSetupStep', { timeout: 30_000 }, () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    localStorage.clear();
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        JobSession,
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = configureStepTesting();
     TestBed.inject(AuthSession).start(aSession('technician'));
   });
 
@@ -72,17 +54,12 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
     job: Job,
     options: { machine?: Machine; family?: MachineFamily; editable?: boolean } = {},
   ) {
-    const session = TestBed.inject(JobSession);
-    const loading = session.load(job.id);
-    http.expectOne(`/api/v1/jobs/${job.id}`).flush(job, { headers: { ETag: `"${job.version}"` } });
-    await loading;
-    const fixture = TestBed.createComponent(SetupHost);
+    const fixture = await renderStep(SetupHost, job, ({ componentInstance: host }) => {
+      host.machine.set('machine' in options ? options.machine : MULCHER_MACHINE);
+      host.family.set('family' in options ? options.family : MULCHER_FAMILY);
+      host.editable.set(options.editable ?? true);
+    });
     const host = fixture.componentInstance;
-    host.machine.set('machine' in options ? options.machine : MULCHER_MACHINE);
-    host.family.set('family' in options ? options.family : MULCHER_FAMILY);
-    host.editable.set(options.editable ?? true);
-    fixture.detectChanges();
-    await fixture.whenStable();
     const element = fixture.nativeElement as HTMLElement;
     const loader = TestbedHarnessEnvironment.loader(fixture);
     const groups = async () => {
@@ -106,23 +83,18 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
     return Promise.all(toggles.map((toggle) => toggle.getText()));
   }
 
-  async function answered(fixture: ComponentFixture<unknown>) {
-    await fixture.whenStable();
-    fixture.detectChanges();
-  }
-
   it('starts from the machine: its sensors, rotation and speed, and its family’s unit', async () => {
     const { element, groups, input, sensor } = await render(JOB_LET_GO_ON);
     expect(await (await sensor('Left side')).isChecked()).toBe(true);
     expect(await (await sensor('Right side')).isChecked()).toBe(true);
     const { rotation, unit, phase, angles } = await groups();
     expect(await checkedText(rotation)).toEqual(['rotate_left Counter-clockwise']);
-    expect(text(element.querySelector('#setup-rotation-hint'))).toBe(
+    expect(words(element.querySelector('#setup-rotation-hint'))).toBe(
       'Seen from the right end it turns clockwise.',
     );
     expect(await (await input('Operating speed')).getValue()).toBe('2100');
     expect(await checkedText(unit)).toEqual(['in/s peak']);
-    expect(text(element.querySelector('#setup-unit-hint'))).toBe(
+    expect(words(element.querySelector('#setup-unit-hint'))).toBe(
       'in/s peak is the unit of the family’s acceptance level.',
     );
     expect(await checkedText(phase)).toEqual(['Lag (the usual)']);
@@ -145,14 +117,14 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
 
   it('explains how the phase and the weight angles count in plain words as they are chosen', async () => {
     const { element, groups } = await render(JOB_LET_GO_ON);
-    expect(text(element.querySelector('#setup-phase-hint'))).toContain(
+    expect(words(element.querySelector('#setup-phase-hint'))).toContain(
       'how far the rotor turns from the moment the reference mark passes the tachometer until the vibration peaks',
     );
     const { phase, angles } = await groups();
     await (await phase.getToggles({ text: 'Lead' }))[0]!.check();
-    expect(text(element.querySelector('#setup-phase-hint'))).toContain('as a lead on the reference mark');
+    expect(words(element.querySelector('#setup-phase-hint'))).toContain('as a lead on the reference mark');
     await (await angles.getToggles({ text: 'With rotation' }))[0]!.check();
-    expect(text(element.querySelector('#setup-angles-hint'))).toBe(
+    expect(words(element.querySelector('#setup-angles-hint'))).toBe(
       'A weight at 90° sits a quarter turn from the reference mark, counted the way the rotor turns.',
     );
   });
@@ -160,7 +132,7 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
   it('warns, without refusing, when one sensor is set on a two-plane rotor, and sends the set-up on the stored version', async () => {
     const { fixture, element, groups, input, sensor, submit } = await render(JOB_LET_GO_ON);
     await (await sensor('Right side')).uncheck();
-    expect([...element.querySelectorAll('.warning')].map(text)).toEqual([
+    expect([...element.querySelectorAll('.warning')].map(words)).toEqual([
       'This rotor has two correction planes, and two-plane correction needs a sensor on each side. With the left sensor alone, only one plane can be corrected at a time.',
     ]);
     await (await input('Where on the left side')).setValue(' Left bearing housing, vertical ');
@@ -194,7 +166,7 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
     expect(element.querySelector('.warning')).toBeNull();
     await (await sensor('Left side')).uncheck();
     await (await sensor('Right side')).check();
-    expect([...element.querySelectorAll('.warning')].map(text)).toEqual([
+    expect([...element.querySelectorAll('.warning')].map(words)).toEqual([
       'The machine’s record has sensors on the left side: check that the readings will match earlier jobs.',
     ]);
   });
@@ -207,7 +179,7 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
     submit();
     await answered(fixture);
     http.expectNone('/api/v1/jobs/13/setup');
-    expect(text(element.querySelector('#sensors-error'))).toBe('Place at least one sensor.');
+    expect(words(element.querySelector('#sensors-error'))).toBe('Place at least one sensor.');
     expect(document.activeElement).toBe(element.querySelector('.sensor__used input'));
     const speed = await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Operating speed' }));
     expect(await speed.getTextErrors()).toEqual(['Enter the operating speed in rpm.']);
@@ -246,24 +218,24 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
       'Reflective tape on the left end plate, in line with tooth row 1',
     );
     expect(await (await sensor('Right side')).isChecked()).toBe(true);
-    expect(text(element.querySelector('app-busy-button'))).toBe('Store the changed set-up');
+    expect(words(element.querySelector('app-busy-button'))).toBe('Store the changed set-up');
   });
 
   it('shows the set-up read-only once a run is read, and says why', async () => {
     const { element, loader } = await render(JOB_AFTER_LEFT_TRIAL);
     expect(element.querySelector('form')).toBeNull();
     expect(await loader.getAllHarnesses(MatInputHarness)).toEqual([]);
-    expect(text(element.querySelector('.fixed'))).toBe(
+    expect(words(element.querySelector('.fixed'))).toBe(
       'The runs are read with this set-up, so it can no longer change. Another set-up needs a new job.',
     );
-    expect([...element.querySelectorAll('.details__list li')].map(text)).toEqual([
+    expect([...element.querySelectorAll('.details__list li')].map(words)).toEqual([
       'Left side: Left bearing housing, horizontal',
       'Right side: Right bearing housing, horizontal',
     ]);
     const details = Object.fromEntries(
       [...element.querySelectorAll('.details > div:not(.wide)')].map((item) => [
-        text(item.querySelector('dt')),
-        text(item.querySelector('dd')),
+        words(item.querySelector('dt')),
+        words(item.querySelector('dd')),
       ]),
     );
     expect(details).toEqual({

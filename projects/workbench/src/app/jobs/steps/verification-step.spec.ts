@@ -1,12 +1,11 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { JobSession } from '../job-session';
 import type { Job } from '../jobs.api';
 import { JobVerificationStep } from './verification-step';
+import { configureStepTesting, renderStep, text } from './step-testing';
 import {
   COMPLETED_MULCHER_JOB,
   JOB_AFTER_LEFT_TRIAL,
@@ -35,15 +34,7 @@ describe('JobVerificationStep', { timeout: 30_000 }, () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    localStorage.clear();
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(),
-        provideHttpClientTesting(),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = configureStepTesting();
   });
 
   afterEach(() => {
@@ -52,18 +43,10 @@ describe('JobVerificationStep', { timeout: 30_000 }, () => {
   });
 
   async function render(job: Job, editable = true) {
-    const fixture = TestBed.createComponent(Host);
-    fixture.componentRef.setInput('editable', editable);
-    const loading = fixture.componentInstance.session.load(job.id);
-    http.expectOne(`/api/v1/jobs/${job.id}`).flush(job, { headers: { ETag: `"${job.version}"` } });
-    await loading;
-    fixture.detectChanges();
-    await fixture.whenStable();
+    const fixture = await renderStep(Host, job, ({ componentRef }) =>
+      componentRef.setInput('editable', editable),
+    );
     return { fixture, element: fixture.nativeElement as HTMLElement };
-  }
-
-  function text(element: Element | null | undefined): string {
-    return element?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
   }
 
   function verdictRows(element: HTMLElement): string[][] {
