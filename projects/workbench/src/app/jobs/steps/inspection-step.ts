@@ -38,6 +38,7 @@ import { JobDrafts } from '../job-drafts';
 import { JobSession } from '../job-session';
 import type { Job, RecordInspection } from '../jobs.api';
 import { askForReason } from '../reason-dialog';
+import { focusFirstInvalid } from './step-forms';
 
 /** The outcome of one visual check. */
 export type CheckOutcome = RecordInspection['checks'][keyof RecordInspection['checks']];
@@ -237,7 +238,7 @@ export class JobInspectionStep implements OnInit {
     this.submitted.set(true);
     if (this.form.invalid) {
       this.form.markAllAsTouched();
-      this.focusFirstInvalid();
+      focusFirstInvalid(this.host.nativeElement);
       return;
     }
     const value = this.form.getRawValue();
@@ -283,15 +284,6 @@ export class JobInspectionStep implements OnInit {
           if (!outcome.ok) this.formError.set(formErrorOf(this.form, outcome.error));
         });
     });
-  }
-
-  /** Takes a person on the keyboard (or a screen reader) to the first field the form refuses. */
-  private focusFirstInvalid(): void {
-    this.host.nativeElement
-      .querySelector<HTMLElement>(
-        'input.ng-invalid, textarea.ng-invalid, mat-button-toggle-group.ng-invalid button, fieldset.ng-invalid input[type="checkbox"]',
-      )
-      ?.focus();
   }
 
   private within(measured: number | null, limit: number | undefined): boolean | null {

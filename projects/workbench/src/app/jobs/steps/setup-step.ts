@@ -53,6 +53,7 @@ import { errorMessage } from '../../shell/validators';
 import { JobDrafts } from '../job-drafts';
 import { JobSession } from '../job-session';
 import type { Job, RecordSetup } from '../jobs.api';
+import { focusFirstInvalid } from './step-forms';
 
 /** How the instrument's phase counts. */
 export type PhaseSense = RecordSetup['phaseSense'];
@@ -322,7 +323,7 @@ export class JobSetupStep implements OnInit {
     this.formError.set(null);
     if (this.form.invalid) {
       this.form.markAllAsTouched();
-      this.focusFirstInvalid();
+      focusFirstInvalid(this.host.nativeElement);
       return;
     }
     const setup = setupRequest(this.form.getRawValue());
@@ -339,15 +340,6 @@ export class JobSetupStep implements OnInit {
    * Puts the server's messages on their fields: a sensor's path names its place in the list sent, which is
    * its side's group here. Returns the sentence for the form as a whole, or null.
    */
-  /** Takes a person on the keyboard (or a screen reader) to the first field the form refuses. */
-  private focusFirstInvalid(): void {
-    this.host.nativeElement
-      .querySelector<HTMLElement>(
-        'input.ng-invalid, textarea.ng-invalid, mat-button-toggle-group.ng-invalid button, fieldset.ng-invalid input[type="checkbox"]',
-      )
-      ?.focus();
-  }
-
   private placeErrors(error: unknown, sent: RecordSetup): string | null {
     const problem = problemOf(error);
     if (!problem?.errors?.length) return httpErrorMessage(error);
