@@ -1,6 +1,5 @@
 import type { HttpTestingController } from '@angular/common/http/testing';
 import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { JobSession } from '../job-session';
 import type { Job } from '../jobs.api';
