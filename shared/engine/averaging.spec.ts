@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { averageReadings } from './averaging';
+import { averageAmplitudes, averageReadings } from './averaging';
 import { EngineError } from './errors';
 
 describe('averageReadings', () => {
@@ -46,5 +46,30 @@ describe('averageReadings', () => {
     expect(() =>
       averageReadings({ readings: [{ amplitude: Number.POSITIVE_INFINITY, phaseDeg: 0 }] }),
     ).toThrowError(/readings\[0\]\.amplitude/);
+  });
+});
+
+describe('averageAmplitudes', () => {
+  it('takes the plain mean and the RMS distance from it', () => {
+    // Mean (0.4 + 0.5 + 0.6) / 3 = 0.5; spread sqrt((0.01 + 0 + 0.01) / 3) = 0.0816…; ratio 16 %.
+    const result = averageAmplitudes({ amplitudes: [0.4, 0.5, 0.6] });
+    expect(result.mean).toBeCloseTo(0.5, 12);
+    expect(result.spread).toBeCloseTo(Math.sqrt(0.02 / 3), 12);
+    expect(result.spreadRatio).toBeCloseTo(Math.sqrt(0.02 / 3) / 0.5, 12);
+    expect(result.trusted).toBe(true);
+    expect(result.warnings).toEqual([]);
+  });
+
+  it('warns when the amplitudes disagree, naming the farthest', () => {
+    const result = averageAmplitudes({ amplitudes: [0.5, 0.5, 0.9] });
+    expect(result.trusted).toBe(false);
+    expect(result.farthestIndex).toBe(2);
+    expect(result.warnings.join(' ')).toMatch(/spread by 30 % of their average \(limit 20 %\).*reading 3/);
+  });
+
+  it('says one reading cannot show a spread, and refuses none or a negative amplitude', () => {
+    expect(averageAmplitudes({ amplitudes: [0.3] }).warnings[0]).toMatch(/Only one reading/);
+    expect(() => averageAmplitudes({ amplitudes: [] })).toThrow(EngineError);
+    expect(() => averageAmplitudes({ amplitudes: [0.3, -0.1] })).toThrow(EngineError);
   });
 });
