@@ -62,7 +62,11 @@ const PlaneIndexSchema = z
   .max(1, { error: 'The plane is 0 or 1.' });
 
 /** A reading or a weight as the answers show them (the engine's shapes). */
-const ReadingOutSchema = z.object({ amplitude: z.number(), phaseDeg: z.number() });
+/** A reading that may have been taken without phase: `phaseDeg` is null for an amplitude-only run. */
+const AmplitudeReadingOutSchema = z.object({
+  amplitude: z.number(),
+  phaseDeg: z.number().nullable().meta({ description: 'Null when the run was read without phase.' }),
+});
 const PlaneWeightOutSchema = z.object({
   planeIndex: z.number().int(),
   massGrams: z.number(),
@@ -207,10 +211,13 @@ export const RecordSetupSchema = z
   .meta({ id: 'RecordSetup' });
 export type RecordSetup = z.input<typeof RecordSetupSchema>;
 
-/** One repeat of one sensor's reading. */
+/**
+ * One repeat of one sensor's reading. `phaseDeg` is left out when the phase cannot be read (an
+ * amplitude-only run); a run is either read with phase throughout or without it throughout.
+ */
 const RepeatSchema = z.strictObject({
   amplitude: AmplitudeSchema,
-  phaseDeg: AngleSchema('phase'),
+  phaseDeg: AngleSchema('phase').optional(),
   speedRpm: SpeedSchema,
 });
 
@@ -240,7 +247,30 @@ const RunReadingsSchema = z
   .max(2)
   .refine((readings) => new Set(readings.map((reading) => reading.sensorSide)).size === readings.length, {
     error: 'Give each sensor once.',
+  })
+  .superRefine((readings, context) => {
+    // A run is read with phase or without it: one rule for every repeat of every sensor.
+    const repeats = readings.flatMap((sensor, sensorIndex) =>
+      sensor.repeats.map((repeat, repeatIndex) => ({ repeat, sensorIndex, repeatIndex })),
+    );
+    const withPhase = repeats.filter(({ repeat }) => repeat.phaseDeg !== undefined).length;
+    if (withPhase === 0 || withPhase === repeats.length) return;
+    for (const { repeat, sensorIndex, repeatIndex } of repeats) {
+      if (repeat.phaseDeg !== undefined) continue;
+      context.addIssue({
+        code: 'custom',
+        path: [sensorIndex, 'repeats', repeatIndex, 'phaseDeg'],
+        message:
+          'Other readings of this run have a phase: enter this one’s too, or leave out every phase ' +
+          'for an amplitude-only run.',
+      });
+    }
   });
+
+/** Whether a run's readings were typed without phase (an amplitude-only run). */
+export function isAmplitudeOnly(readings: readonly { repeats: readonly { phaseDeg?: number }[] }[]): boolean {
+  return readings.every((sensor) => sensor.repeats.every((repeat) => repeat.phaseDeg === undefined));
+}
 
 /** A run as typed: its kind, the trial weight of a trial run, and the repeats of each sensor. */
 export const AddRunSchema = z
@@ -284,8 +314,12 @@ export const CorrectRunReadingsSchema = z
   .meta({ id: 'CorrectRunReadings' });
 export type CorrectRunReadings = z.input<typeof CorrectRunReadingsSchema>;
 
-/** The methods of correction, simplest first. */
-export const CORRECTION_METHODS = ['one-run', 'single-plane', 'multi-plane'] as const;
+/**
+ * The methods of correction, simplest first: a stored sensitivity, a trial weight in one plane, trial
+ * weights in two planes, and amplitude only (`four-run`: the trial weight at three positions, for runs
+ * read without phase).
+ */
+export const CORRECTION_METHODS = ['one-run', 'single-plane', 'multi-plane', 'four-run'] as const;
 export type CorrectionMethod = (typeof CORRECTION_METHODS)[number];
 
 export const ComputeCorrectionSchema = z
@@ -335,14 +369,27 @@ export type JobListQuery = z.input<typeof JobListQuerySchema>;
 
 const PersonRefSchema = z.object({ id: IdSchema, name: z.string() });
 
+/** A repeat as stored: without `phaseDeg` in an amplitude-only run. */
+const RepeatOutSchema = z.object({
+  amplitude: z.number(),
+  phaseDeg: z.number().optional(),
+  speedRpm: z.number(),
+});
+
 /** The average of one sensor's repeats in a run, with their spread and the check of the engine. */
 export const SensorReadingSchema = z
   .object({
     sensorSide: SideSchema,
-    repeats: z.array(z.object({ amplitude: z.number(), phaseDeg: z.number(), speedRpm: z.number() })),
-    /** The vector average of the repeats, as typed (phase as the instrument counts it). */
-    average: ReadingOutSchema,
-    /** RMS vector distance of the repeats from their average, in amplitude units. */
+    repeats: z.array(RepeatOutSchema),
+    /**
+     * The vector average of the repeats, as typed (phase as the instrument counts it); for an
+     * amplitude-only run the plain mean of the amplitudes, with `phaseDeg` null.
+     */
+    average: AmplitudeReadingOutSchema,
+    /**
+     * RMS vector distance of the repeats from their average, in amplitude units (for an amplitude-only
+     * run the RMS distance of the amplitudes from their mean).
+     */
     spread: z.number(),
     spreadRatio: z.number().nullable(),
     trusted: z.boolean(),
@@ -359,7 +406,7 @@ export const RunRetypeSchema = z
     previousReadings: z.array(
       z.object({
         sensorSide: SideSchema,
-        repeats: z.array(z.object({ amplitude: z.number(), phaseDeg: z.number(), speedRpm: z.number() })),
+        repeats: z.array(RepeatOutSchema),
       }),
     ),
     /** The trial weight before this retyping (null for a run without one). */
@@ -373,6 +420,11 @@ export const JobRunSchema = z
     id: IdSchema,
     sequence: z.number().int().positive(),
     kind: z.enum(RUN_KINDS),
+    /**
+     * Read without phase: every repeat is an amplitude alone (the `four-run` method's runs). The server
+     * always sends it; optional for a job a client kept from before it existed (read as false).
+     */
+    amplitudeOnly: z.boolean().optional(),
     trialWeight: PlaneWeightOutSchema.nullable(),
     /** Every weight of this job on the rotor during the run (equivalent masses at the plane's radius). */
     weightsOnRotor: z.array(PlaneWeightOutSchema),
@@ -402,7 +454,7 @@ export const JobCorrectionSchema = z
     runIds: z.array(IdSchema),
     /** The calculator route and request it was computed with: the calculator answers the same. */
     calc: z.object({
-      route: z.enum(['one-run', 'single-plane', 'multi-plane']),
+      route: z.enum(['one-run', 'single-plane', 'multi-plane', 'four-run']),
       request: z.unknown(),
       /** The sensors whose readings it used, in the order of the request's readings. */
       sensorSides: z.array(SideSchema),
@@ -412,8 +464,11 @@ export const JobCorrectionSchema = z
     /** The weights to add now, per plane, in grams at the plane's correction radius. */
     plan: z.array(PlaneWeightOutSchema),
     installed: z.array(InstalledWeightSchema).nullable(),
-    /** The reading each sensor should show with the installed weights, as the model predicts it. */
-    predicted: z.array(z.object({ sensorSide: SideSchema, reading: ReadingOutSchema })).nullable(),
+    /**
+     * The reading each sensor should show with the installed weights, as the model predicts it (an
+     * amplitude alone, `phaseDeg` null, for a `four-run` correction).
+     */
+    predicted: z.array(z.object({ sensorSide: SideSchema, reading: AmplitudeReadingOutSchema })).nullable(),
     installedAt: z.iso.datetime().nullable(),
     warnings: z.array(z.string()),
     createdAt: z.iso.datetime(),
@@ -449,7 +504,11 @@ export const JobCompletionSchema = z
     by: PersonRefSchema,
     accepted: z.boolean(),
     beforeAfter: z.array(
-      z.object({ sensorSide: SideSchema, before: ReadingOutSchema, after: ReadingOutSchema }),
+      z.object({
+        sensorSide: SideSchema,
+        before: AmplitudeReadingOutSchema,
+        after: AmplitudeReadingOutSchema,
+      }),
     ),
     /** The weights now on the rotor: this job's and those earlier jobs left. */
     weightsOnRotor: z.array(InstalledWeightSchema.extend({ jobId: IdSchema })),

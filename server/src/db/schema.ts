@@ -469,7 +469,7 @@ export const jobCorrections = sqliteTable(
       .notNull()
       .references(() => jobs.id),
     sequence: integer('sequence').notNull(),
-    method: text('method', { enum: ['one-run', 'single-plane', 'multi-plane'] }).notNull(),
+    method: text('method', { enum: ['one-run', 'single-plane', 'multi-plane', 'four-run'] }).notNull(),
     basis: text('basis', { enum: ['sensitivity', 'trial', 'trim'] }).notNull(),
     runIds: text('run_ids', { mode: 'json' }).$type<number[]>().notNull(),
     calc: text('calc', { mode: 'json' }).$type<StoredCalc>().notNull(),

@@ -6,12 +6,14 @@ import {
   calculate,
   type CorrectionMethod,
   type InstalledWeight,
+  isAmplitudeOnly,
   type JobCorrection,
   type MachineSide,
   type StoredSensitivity,
 } from '@counterpoise/api';
 import {
   add,
+  averageAmplitudes,
   averageReadings,
   balanceTolerance,
   convertReadingPhase,
@@ -73,24 +75,30 @@ export function fromLag(reading: Reading, setup: StoredSetup): Reading {
 
 /**
  * The readings of a run as stored: each sensor's repeats averaged as vectors (`averageReadings`) with
- * their spread, and the warnings of repeats that disagree or a speed that drifted from the first run's
- * (`speedDrift`, 2 % by default, a product default).
+ * their spread, or for a run read without phase the plain mean of the amplitudes (`averageAmplitudes`),
+ * and the warnings of repeats that disagree or a speed that drifted from the first run's (`speedDrift`,
+ * 2 % by default, a product default).
  */
 export function averageRun(
   readings: AddRun['readings'],
   referenceSpeedRpm: number | undefined,
 ): { readings: StoredSensorReading[]; warnings: string[] } {
   const warnings: string[] = [];
+  const amplitudeOnly = isAmplitudeOnly(readings);
   const stored = readings.map((sensor) => {
-    const average = averageReadings({
-      readings: sensor.repeats.map(({ amplitude, phaseDeg }) => ({ amplitude, phaseDeg })),
-    });
+    const average = amplitudeOnly
+      ? amplitudeAverage(sensor.repeats.map((repeat) => repeat.amplitude))
+      : averageReadings({
+          readings: sensor.repeats.map(({ amplitude, phaseDeg }) => ({ amplitude, phaseDeg: phaseDeg! })),
+        });
     for (const warning of average.warnings)
       warnings.push(`${capitalised(sensor.sensorSide)} sensor: ${warning}`);
     const speedRpm = sensor.repeats.reduce((sum, repeat) => sum + repeat.speedRpm, 0) / sensor.repeats.length;
     return {
       sensorSide: sensor.sensorSide,
-      repeats: sensor.repeats.map(({ amplitude, phaseDeg, speedRpm }) => ({ amplitude, phaseDeg, speedRpm })),
+      repeats: sensor.repeats.map(({ amplitude, phaseDeg, speedRpm }) =>
+        phaseDeg === undefined ? { amplitude, speedRpm } : { amplitude, phaseDeg, speedRpm },
+      ),
       average: average.mean,
       spread: average.spread,
       spreadRatio: Number.isFinite(average.spreadRatio) ? average.spreadRatio : null,
@@ -105,6 +113,12 @@ export function averageRun(
   });
   warnings.push(...drift.warnings);
   return { readings: stored, warnings };
+}
+
+/** The plain mean of amplitudes read without phase (`averageAmplitudes`), shaped as a stored average. */
+function amplitudeAverage(amplitudes: number[]) {
+  const average = averageAmplitudes({ amplitudes });
+  return { ...average, mean: { amplitude: average.mean, phaseDeg: null } };
 }
 
 function capitalised(text: string): string {
@@ -157,10 +171,26 @@ function planeSum(weights: readonly StoredPlaneWeight[], planeIndex: number, sig
     });
 }
 
-/** The reading of one side in a run, or undefined when that sensor was not read. */
+/** Whether a stored run was read without phase. */
+export function runIsAmplitudeOnly(run: Pick<RunRow, 'readings'>): boolean {
+  return run.readings.every((reading) => reading.average.phaseDeg === null);
+}
+
+/**
+ * The reading of one side in a run, or undefined when that sensor was not read. The methods that work
+ * with phase refuse a run read without it (409, naming the run and the method that fits).
+ */
 function sideReading(run: RunRow, side: MachineSide, setup: StoredSetup): Reading | undefined {
   const found = run.readings.find((reading) => reading.sensorSide === side);
-  return found && toLag(found.average, setup);
+  if (found === undefined) return undefined;
+  const { amplitude, phaseDeg } = found.average;
+  if (phaseDeg === null) {
+    throw notPossible(
+      `Run ${run.sequence} was read without phase: this method needs the phase of every run it uses. ` +
+        'Use four-run (amplitude only), or take the run again with phase.',
+    );
+  }
+  return toLag({ amplitude, phaseDeg }, setup);
 }
 
 /** The last run that is not a trial: the initial run, or the latest verification. */
@@ -195,10 +225,7 @@ export type ComputedCorrection = Pick<
 >;
 
 /** One calculator answer, or the engine's refusal as a 409 on the stored readings. */
-function calc<Name extends 'one-run' | 'single-plane' | 'multi-plane'>(
-  name: Name,
-  request: object,
-): CalcResponse<Name> {
+function calc<Name extends CorrectionMethod>(name: Name, request: object): CalcResponse<Name> {
   const outcome = calculate(name, request);
   if (outcome.status === 200) return outcome.result as CalcResponse<Name>;
   throw new HttpProblem(
@@ -234,6 +261,8 @@ export function computeCorrection(context: CorrectionContext): ComputedCorrectio
   }
   const weightAngles = setup.weightAngles;
   const planeCount = planeRadiiMm.length;
+
+  if (context.method === 'four-run') return fourRunCorrection(base, runs, planeCount);
 
   if (context.method === 'one-run') {
     const side = worseSide(base);
@@ -390,6 +419,112 @@ export function computeCorrection(context: CorrectionContext): ComputedCorrectio
   };
 }
 
+/** Angles closer than this are one trial position (the typed angles have a tenth of a degree). */
+const SAME_POSITION_DEG = 0.05;
+
+function angleApartDeg(a: number, b: number): number {
+  const apart = Math.abs(normalizeAngleDeg(a - b));
+  return Math.min(apart, 360 - apart);
+}
+
+/**
+ * Amplitude only (`four-run`): the worse (or only) side of the base run (the initial run, or the latest
+ * verification) and the three latest trial runs after it that were read without phase, in that side's
+ * plane, with the latest trial run's mass at three distinct angles (a later run at an angle already taken
+ * replaces the earlier one). Angles are as the trial weights were counted; the correction is counted the
+ * same way. A 409 names what is missing.
+ */
+function fourRunCorrection(base: RunRow, runs: readonly RunRow[], planeCount: number): ComputedCorrection {
+  const side = worseSide(base);
+  const planeIndex = planeOfSide(side, planeCount);
+  const baseName =
+    base.kind === 'initial' ? `the initial run (run ${base.sequence})` : `run ${base.sequence}`;
+  if (!runIsAmplitudeOnly(base)) {
+    throw notPossible(
+      `Amplitude only needs ${baseName} read without phase; it was read with phase. Take the run again ` +
+        'as amplitude only, or use a method with phase.',
+    );
+  }
+  const trials = runs.filter(
+    (run) =>
+      run.kind === 'trial' &&
+      run.sequence > base.sequence &&
+      run.trialWeight?.planeIndex === planeIndex &&
+      runIsAmplitudeOnly(run) &&
+      run.readings.some((reading) => reading.sensorSide === side),
+  );
+  const latestMass = trials.at(-1)?.trialWeight!.massGrams;
+  const chosen: RunRow[] = [];
+  const replaced: RunRow[] = [];
+  for (const run of [...trials].reverse()) {
+    if (run.trialWeight!.massGrams !== latestMass || chosen.length === 3) continue;
+    const same = chosen.find(
+      (other) => angleApartDeg(other.trialWeight!.angleDeg, run.trialWeight!.angleDeg) < SAME_POSITION_DEG,
+    );
+    if (same === undefined) chosen.push(run);
+    else replaced.push(run);
+  }
+  chosen.reverse();
+  if (chosen.length < 3) {
+    const missing = 3 - chosen.length;
+    const have =
+      chosen.length === 0
+        ? 'no amplitude-only trial run after it'
+        : `${chosen.length === 1 ? 'a trial run' : 'trial runs'} with ${latestMass} g at ` +
+          chosen.map((run) => `${run.trialWeight!.angleDeg}° (run ${run.sequence})`).join(' and ');
+    const sameAngle =
+      replaced.length === 0
+        ? ''
+        : ` Run ${replaced.map((run) => run.sequence).join(' and ')} had the trial weight at an angle ` +
+          'already taken, so the later run at that angle counts.';
+    throw notPossible(
+      `Amplitude only needs ${baseName} and the same trial weight at three positions in plane ${planeIndex} ` +
+        `(the ${side} sensor’s), each read without phase: this job has ${have}. Take ` +
+        `${missing === 1 ? 'one more trial run' : `${missing} more trial runs`}` +
+        `${latestMass === undefined ? '' : ` with ${latestMass} g`} at ${missing === 3 ? 'three positions' : 'another position'}` +
+        ` (e.g. 0°, 120°, 240°).${sameAngle}`,
+    );
+  }
+  const amplitudeOf = (run: RunRow) =>
+    run.readings.find((reading) => reading.sensorSide === side)!.average.amplitude;
+  const request = {
+    initialAmplitude: amplitudeOf(base),
+    trialMass: latestMass!,
+    trialRuns: chosen.map((run) => ({ angleDeg: run.trialWeight!.angleDeg, amplitude: amplitudeOf(run) })),
+  };
+  const result = calc('four-run', request);
+  return {
+    method: 'four-run',
+    basis: base.kind === 'verification' ? 'trim' : 'trial',
+    runIds: [base.id, ...chosen.map((run) => run.id)],
+    calc: { route: 'four-run', request, sensorSides: [side] },
+    result,
+    plan: [{ planeIndex, massGrams: result.correction.mass, angleDeg: result.correction.angleDeg }],
+    warnings: [...result.warnings],
+  };
+}
+
+/**
+ * The amplitude a four-run correction's model predicts with `weights` on its plane: the weights summed as
+ * vectors (mass M at angle phi) act as the trial weight scaled by M / m_trial, so
+ * A^2 = O^2 + (T M / m_trial)^2 + 2 O (T M / m_trial) cos(phi - delta), the law of cosines of the four-run
+ * model (`fourRunBalance`), with O the base amplitude and T, delta the trial's effect.
+ */
+export function fourRunPredictedAmplitude(
+  request: { initialAmplitude: number; trialMass: number },
+  trialEffect: { amplitude: number; angleDeg: number },
+  weights: readonly { massGrams: number; angleDeg: number }[],
+): number {
+  const sum = weights.reduce((total, weight) => add(total, phasor(weight.massGrams, weight.angleDeg)), {
+    re: 0,
+    im: 0,
+  } as Phasor);
+  const effect = (trialEffect.amplitude * magnitude(sum)) / request.trialMass;
+  const angleRad = Math.atan2(sum.im, sum.re) - (trialEffect.angleDeg * Math.PI) / 180;
+  const o = request.initialAmplitude;
+  return Math.sqrt(Math.max(0, o * o + effect * effect + 2 * o * effect * Math.cos(angleRad)));
+}
+
 /** An influence coefficient of one sensor for one plane, in the engine's model (per gram). */
 export interface SideCoefficient {
   readonly sensorSide: MachineSide;
@@ -403,6 +538,8 @@ export function coefficientsOf(
   correction: Pick<CorrectionRow, 'calc' | 'result' | 'plan'>,
 ): SideCoefficient[] {
   const { route, request, sensorSides } = correction.calc;
+  // Amplitudes alone measure the trial's effect but no phase: no influence coefficient to keep.
+  if (route === 'four-run') return [];
   if (route === 'one-run') {
     const sensitivity = (request as { sensitivity: { massPerAmplitude: number; offsetDeg: number } })
       .sensitivity;
@@ -450,12 +587,24 @@ export function predictInstalled(
   runs: readonly RunRow[],
   setup: StoredSetup,
   planeRadiiMm: readonly number[],
-): { sensorSide: MachineSide; reading: Reading }[] {
+): { sensorSide: MachineSide; reading: { amplitude: number; phaseDeg: number | null } }[] {
   const sign = weightSign(setup.weightAngles);
   const used = runs.filter((run) => correction.runIds.includes(run.id));
   const base = baseRun(used);
   if (base === undefined) throw new Error('A correction always uses a run without a trial weight.');
   const weights = installed.map((weight) => equivalentAtPlane(weight, planeRadiiMm));
+  if (correction.calc.route === 'four-run') {
+    const planeIndex = correction.plan[0]!.planeIndex;
+    const amplitude = fourRunPredictedAmplitude(
+      correction.calc.request as { initialAmplitude: number; trialMass: number },
+      (correction.result as CalcResponse<'four-run'>).trialEffect,
+      weights.filter((weight) => weight.planeIndex === planeIndex),
+    );
+    return correction.calc.sensorSides.map((side) => ({
+      sensorSide: side,
+      reading: { amplitude, phaseDeg: null },
+    }));
+  }
   const coefficients = coefficientsOf(correction);
   return correction.calc.sensorSides.map((side) => {
     let predicted = readingToPhasor(sideReading(base, side, setup)!);
@@ -565,7 +714,7 @@ export function measuredCoefficients(
   if (latest?.method === 'multi-plane') return coefficientsOf(latest);
   const sign = weightSign(setup.weightAngles);
   const base = baseRun(runs);
-  if (base?.kind === 'verification') {
+  if (base?.kind === 'verification' && latest?.method !== 'four-run' && !runIsAmplitudeOnly(base)) {
     const before = [...runs].reverse().find((run) => run.kind !== 'trial' && run.sequence < base.sequence);
     const side = corrections.at(-1)?.calc.sensorSides[0] ?? worseSide(base);
     const planeIndex = planeOfSide(side, planeRadiiMm.length);
@@ -575,7 +724,8 @@ export function measuredCoefficients(
           planeSum(before.weightsOnRotor, planeIndex, sign),
         )
       : { re: 0, im: 0 };
-    const beforeReading = before && sideReading(before, side, setup);
+    const beforeReading =
+      before && !runIsAmplitudeOnly(before) ? sideReading(before, side, setup) : undefined;
     const afterReading = sideReading(base, side, setup);
     if (magnitude(added) > 0 && beforeReading && afterReading) {
       try {

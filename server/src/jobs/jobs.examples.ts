@@ -95,6 +95,7 @@ export const JOB_EXAMPLE: Job = {
       id: 402,
       sequence: 1,
       kind: 'initial',
+      amplitudeOnly: false,
       trialWeight: null,
       weightsOnRotor: [],
       readings: [

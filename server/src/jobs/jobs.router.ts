@@ -303,7 +303,13 @@ export function jobsRouter(deps: {
     description:
       'The first run is the initial one; a trial run names its trial weight; a verification run follows ' +
       'installed weights. The server averages each sensor’s repeats as vectors, and warns when they disagree ' +
-      'or the speed drifted from the initial run’s (2 %, a product default).',
+      'or the speed drifted from the initial run’s (2 %, a product default). When the phase cannot be read, ' +
+      'leave `phaseDeg` out of every repeat: the run is amplitude only (`amplitudeOnly` in the answer), its ' +
+      'repeats average as a plain mean of the amplitudes with their spread, and only the `four-run` method ' +
+      'uses it. A run is read with phase throughout or without it throughout: a repeat without phase among ' +
+      'repeats with it is a 400 on that repeat’s `phaseDeg`. Example of an amplitude-only trial run: ' +
+      '`{"kind":"trial","trialWeight":{"planeIndex":0,"massGrams":40,"angleDeg":120},"readings":' +
+      '[{"sensorSide":"left","repeats":[{"amplitude":0.31,"speedRpm":1480},{"amplitude":0.32,"speedRpm":1481}]}]}`.',
     access: 'write',
     body: AddRunSchema,
     bodyExample: ADD_RUN_EXAMPLE,
@@ -348,7 +354,10 @@ export function jobsRouter(deps: {
       'The server computes it with the calculator’s routes from the stored readings (never from numbers ' +
       'the client sends): `one-run` with the family’s stored sensitivity, `single-plane` from a trial run ' +
       '(or, after a verified correction, as a trim run), `multi-plane` from every trial and verification ' +
-      'run (least squares with more runs than planes).',
+      'run (least squares with more runs than planes), `four-run` (amplitude only) from the initial run and ' +
+      'the same trial weight at three positions, all read without phase. A method the stored runs do not ' +
+      'allow (a trial run missing, a run read without phase for a method that needs it) is a 409 ' +
+      'METHOD_NOT_POSSIBLE saying which runs are missing.',
     access: 'write',
     body: ComputeCorrectionSchema,
     bodyExample: { method: 'single-plane' },

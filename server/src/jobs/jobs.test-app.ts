@@ -25,7 +25,8 @@ export interface JobBody {
   runs: {
     id: number;
     kind: string;
-    readings: { average: Reading; sensorSide: string }[];
+    amplitudeOnly: boolean;
+    readings: { average: { amplitude: number; phaseDeg: number | null }; sensorSide: string }[];
     warnings: string[];
   }[];
   corrections: {
@@ -35,7 +36,7 @@ export interface JobBody {
     calc: { route: string; request: object; sensorSides: string[] };
     result: Record<string, unknown>;
     plan: { planeIndex: number; massGrams: number; angleDeg: number }[];
-    predicted: { sensorSide: string; reading: Reading }[] | null;
+    predicted: { sensorSide: string; reading: { amplitude: number; phaseDeg: number | null } }[] | null;
   }[];
   verification: { accepted: boolean; nextSide: string | null; why: string } | null;
   completion: Record<string, unknown> | null;
@@ -159,6 +160,21 @@ export function runReadings(
     repeats: Array.from({ length: options.repeats ?? 2 }, () => ({
       amplitude: readings[index]!.amplitude,
       phaseDeg: readings[index]!.phaseDeg,
+      speedRpm: options.speedRpm ?? 2150,
+    })),
+  }));
+}
+
+/** The readings of an amplitude-only run body: each sensor's amplitude alone (no phase), repeated. */
+export function amplitudeReadings(
+  sides: readonly ('left' | 'right')[],
+  readings: readonly Reading[],
+  options: { repeats?: number; speedRpm?: number } = {},
+): object[] {
+  return sides.map((side, index) => ({
+    sensorSide: side,
+    repeats: Array.from({ length: options.repeats ?? 2 }, () => ({
+      amplitude: readings[index]!.amplitude,
       speedRpm: options.speedRpm ?? 2150,
     })),
   }));

@@ -300,6 +300,65 @@ describe('RunEntry', { timeout: 30_000 }, () => {
     expect(element.querySelector('.run-entry__error')).toBeNull();
   });
 
+  it('types a run as amplitude only: no phase fields, a plain mean, repeats sent without phase', async () => {
+    const { fixture, element } = await render('initial');
+    const toggles = [...element.querySelectorAll<HTMLButtonElement>('[data-testid="phase-mode"] button')];
+    expect(toggles.map(text)).toEqual(['With phase', 'Amplitude only (no phase)']);
+    await press(fixture, toggles[1]!);
+    expect(element.querySelector('[id$="-phaseDeg"]')).toBeNull();
+    expect(text(element.querySelector('.run-entry__units'))).toContain('the phase is not read');
+    expect(text(summary(element, 'left'))).toBe('The mean shows once a repeat has its amplitude.');
+
+    await type(fixture, 'run-initial-s0-r0-amplitude', '0.48');
+    await type(fixture, 'run-initial-s0-r0-speedRpm', '2100');
+    await press(fixture, addRepeatButton(element, 0));
+    expect(element.querySelector('#run-initial-s0-r1-phaseDeg')).toBeNull();
+    await type(fixture, 'run-initial-s0-r1-amplitude', '0,52');
+    await type(fixture, 'run-initial-s0-r1-speedRpm', '2100');
+    await type(fixture, 'run-initial-s1-r0-amplitude', '0.3');
+    await type(fixture, 'run-initial-s1-r0-speedRpm', '2100');
+    // The plain mean (0.48 + 0.52) / 2 = 0.5; each lies 0.02 from it: a spread of 0.02, 4 % of the mean.
+    const left = text(summary(element, 'left'));
+    expect(left).toContain('Mean of 2 repeats: 0.5 in/s peak · 2,100 rpm');
+    expect(left).toContain('Spread 0.02 in/s peak (4 % of the mean)');
+    expect(left).not.toContain('°');
+
+    await press(fixture, saveButton(element));
+    const request = http.expectOne('/api/v1/jobs/8/runs');
+    expect(request.request.body).toEqual({
+      kind: 'initial',
+      readings: [
+        {
+          sensorSide: 'left',
+          repeats: [
+            { amplitude: 0.48, speedRpm: 2100 },
+            { amplitude: 0.52, speedRpm: 2100 },
+          ],
+        },
+        { sensorSide: 'right', repeats: [{ amplitude: 0.3, speedRpm: 2100 }] },
+      ],
+    });
+    request.flush({ ...JOB_BEFORE_RUNS, version: 5 }, { headers: { ETag: '"5"' } });
+    await fixture.whenStable();
+    await new Promise((resolve) => setTimeout(resolve));
+  });
+
+  it('warns when amplitudes read without phase disagree by more than 20 % of their mean', async () => {
+    const { fixture, element } = await render('initial');
+    const toggles = [...element.querySelectorAll<HTMLButtonElement>('[data-testid="phase-mode"] button')];
+    await press(fixture, toggles[1]!);
+    await type(fixture, 'run-initial-s1-r0-amplitude', '0.2');
+    await press(fixture, addRepeatButton(element, 1));
+    await type(fixture, 'run-initial-s1-r1-amplitude', '0.4');
+    // Mean 0.3, each 0.1 from it: the spread is a third of the mean, over 20 %.
+    const right = summary(element, 'right');
+    expect(text(right)).toContain('Mean of 2 repeats: 0.3 in/s peak');
+    expect(text(right)).toContain('(33 % of the mean)');
+    expect(text(right?.querySelector('.run-entry__warning'))).toContain(
+      'their amplitudes spread by more than 20 % of their mean',
+    );
+  });
+
   it('restores the draft with all its repeats after a reload', async () => {
     TestBed.inject(JobDrafts).write(8, 'run-initial', {
       readings: [

@@ -22,12 +22,13 @@ import {
   Validators,
 } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import type { MachineSide } from '@counterpoise/api';
-import { averageReadings } from '@counterpoise/engine';
+import { averageAmplitudes, averageReadings } from '@counterpoise/engine';
 import { BusyButton } from '../forms/busy-button';
 import { ErrorBanner } from '../forms/error-banner';
 import type { Machine } from '../machines/machines.api';
@@ -65,7 +66,12 @@ type TrialWeightForm = FormGroup<{
   massGrams: FormControl<string>;
   angleDeg: FormControl<string>;
 }>;
-type RunForm = FormGroup<{ trialWeight: TrialWeightForm; readings: FormArray<ReadingForm> }>;
+type RunForm = FormGroup<{
+  /** Read without phase: the phase fields are hidden and the repeats go without it. */
+  amplitudeOnly: FormControl<boolean>;
+  trialWeight: TrialWeightForm;
+  readings: FormArray<ReadingForm>;
+}>;
 
 /** The draft of a run form, as `JobDrafts` keeps it. */
 interface RunDraft {
@@ -147,12 +153,15 @@ const ANGLE_RULE = typedNumber({
 /** What the repeats of one sensor typed so far come to, as the server will work it out. */
 export interface SensorSummary {
   readonly sensorSide: MachineSide;
-  /** How many repeats have an amplitude and a phase that read as numbers. */
+  /** How many repeats have an amplitude and a phase (only an amplitude, read without phase) that read as numbers. */
   readonly counted: number;
-  /** The vector average, the spread and whether it is trusted; null before a repeat can be counted. */
+  /**
+   * The vector average (the plain mean of the amplitudes, phase null, read without phase), the spread and
+   * whether it is trusted; null before a repeat can be counted.
+   */
   readonly average: {
     readonly amplitude: number;
-    readonly phaseDeg: number;
+    readonly phaseDeg: number | null;
     readonly spread: number;
     /** The spread as a fraction of the average's amplitude; null when the average is nought. */
     readonly spreadRatio: number | null;
@@ -162,11 +171,38 @@ export interface SensorSummary {
   readonly speedRpm: number | null;
 }
 
-/** Averages the repeats of a sensor that read as numbers, with the engine the server uses. */
+/**
+ * Averages the repeats of a sensor that read as numbers, with the engine the server uses: as vectors, or
+ * for a run read without phase as the plain mean of the amplitudes.
+ */
 export function summariseRepeats(
   sensorSide: MachineSide,
   repeats: readonly { amplitude?: string; phaseDeg?: string; speedRpm?: string }[],
+  amplitudeOnly = false,
 ): SensorSummary {
+  const speeds = repeats
+    .map((repeat) => parseTypedNumber(repeat.speedRpm))
+    .filter((speed): speed is number => speed !== null && speed > 0);
+  const speedRpm = speeds.length > 0 ? speeds.reduce((sum, speed) => sum + speed, 0) / speeds.length : null;
+  if (amplitudeOnly) {
+    const amplitudes = repeats
+      .map((repeat) => parseTypedNumber(repeat.amplitude))
+      .filter((amplitude): amplitude is number => amplitude !== null && amplitude >= 0 && amplitude <= 1000);
+    if (amplitudes.length === 0) return { sensorSide, counted: 0, average: null, speedRpm };
+    const result = averageAmplitudes({ amplitudes, maxSpreadRatio: MAX_SPREAD_RATIO });
+    return {
+      sensorSide,
+      counted: amplitudes.length,
+      average: {
+        amplitude: result.mean,
+        phaseDeg: null,
+        spread: result.spread,
+        spreadRatio: Number.isFinite(result.spreadRatio) ? result.spreadRatio : null,
+        trusted: result.trusted,
+      },
+      speedRpm,
+    };
+  }
   const readings = repeats
     .map((repeat) => ({
       amplitude: parseTypedNumber(repeat.amplitude),
@@ -180,10 +216,6 @@ export function summariseRepeats(
         reading.phaseDeg >= 0 &&
         reading.phaseDeg < 360,
     );
-  const speeds = repeats
-    .map((repeat) => parseTypedNumber(repeat.speedRpm))
-    .filter((speed): speed is number => speed !== null && speed > 0);
-  const speedRpm = speeds.length > 0 ? speeds.reduce((sum, speed) => sum + speed, 0) / speeds.length : null;
   if (readings.length === 0) return { sensorSide, counted: 0, average: null, speedRpm };
   const result = averageReadings({ readings, maxSpreadRatio: MAX_SPREAD_RATIO });
   return {
@@ -200,10 +232,14 @@ export function summariseRepeats(
   };
 }
 
-function repeatForm(): RepeatForm {
+function repeatForm(withPhase = true): RepeatForm {
   return new FormGroup({
     amplitude: new FormControl('', { nonNullable: true, validators: AMPLITUDE_RULE }),
-    phaseDeg: new FormControl('', { nonNullable: true, validators: PHASE_RULE }),
+    // Read without phase, the field is disabled: it neither checks nor goes to the server.
+    phaseDeg: new FormControl(
+      { value: '', disabled: !withPhase },
+      { nonNullable: true, validators: PHASE_RULE },
+    ),
     speedRpm: new FormControl('', { nonNullable: true, validators: SPEED_RULE }),
   });
 }
@@ -217,6 +253,8 @@ function typed(value: number): string {
  * the set-up's unit, phase as the instrument counts it, speed), averaged as vectors while they are typed with
  * the engine the server uses, and a warning when they disagree; a trial run also names its trial weight. What
  * is typed stays on the device until the server stores the run; the server's word on a field lands on it.
+ * When the phase cannot be read, the run is typed as amplitude only (a toggle, or the page decides with
+ * `amplitudeOnly`): the phase fields go, the repeats are sent without phase and average as a plain mean.
  *
  * `<app-run-entry [job]="job" kind="trial" [machine]="machine" (saved)="..." />`
  */
@@ -226,6 +264,7 @@ function typed(value: number): string {
     BusyButton,
     ErrorBanner,
     MatButtonModule,
+    MatButtonToggleModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
@@ -256,6 +295,18 @@ export class RunEntry {
    * passes its own change.
    */
   readonly store = input<((run: AddRun) => JobChange) | undefined>(undefined);
+  /**
+   * Whether the run is read without phase, when the page decides it (the correction step's amplitude-only
+   * runs); left out, the technician chooses with a toggle.
+   */
+  readonly amplitudeOnly = input<boolean | undefined>(undefined);
+  /**
+   * A trial weight to start from (the correction step's next position, with the mass of the trial runs
+   * before it); a mass left null is typed here.
+   */
+  readonly trialWeight = input<
+    { planeIndex: number; massGrams: number | null; angleDeg: number } | undefined
+  >(undefined);
   /** The run as the server stored it. */
   readonly saved = output<JobRun>();
 
@@ -270,6 +321,7 @@ export class RunEntry {
   protected readonly maxSpreadPercent = MAX_SPREAD_RATIO * 100;
 
   protected readonly form: RunForm = new FormGroup({
+    amplitudeOnly: new FormControl(false, { nonNullable: true }),
     trialWeight: new FormGroup({
       planeIndex: new FormControl<number | null>(null, { validators: Validators.required }),
       massGrams: new FormControl('', { nonNullable: true, validators: MASS_RULE }),
@@ -296,9 +348,13 @@ export class RunEntry {
     const count = this.machine()?.planes.length ?? Math.max(1, this.sensors().length);
     return Array.from({ length: count }, (_, index) => ({ index, name: planeName(index, count) }));
   });
+  /** Whether this run is read without phase: as the page says, else as the toggle stands. */
+  protected readonly noPhase = computed(() => this.amplitudeOnly() ?? this.value().amplitudeOnly);
   /** Each sensor's average and spread of the repeats typed so far. */
   protected readonly summaries = computed(() =>
-    this.value().readings.map((reading) => summariseRepeats(reading.sensorSide, reading.repeats)),
+    this.value().readings.map((reading) =>
+      summariseRepeats(reading.sensorSide, reading.repeats, this.noPhase()),
+    ),
   );
   protected readonly buttonLabel = computed(
     () => this.saveLabel() ?? `Save the ${this.kindLabel().toLowerCase()}`,
@@ -306,6 +362,7 @@ export class RunEntry {
 
   constructor() {
     this.form.valueChanges.subscribe(() => this.value.set(this.form.getRawValue()));
+    this.form.controls.amplitudeOnly.valueChanges.subscribe(() => this.applyPhaseMode());
     // Built once the inputs are known: the sensors of the set-up, the kind, the draft or the run to correct.
     effect(() => {
       const job = this.job();
@@ -332,7 +389,7 @@ export class RunEntry {
       stored?.repeats.forEach((repeat, at) =>
         repeats.at(at)?.setValue({
           amplitude: typed(repeat.amplitude),
-          phaseDeg: typed(repeat.phaseDeg),
+          phaseDeg: repeat.phaseDeg === undefined ? '' : typed(repeat.phaseDeg),
           speedRpm: typed(repeat.speedRpm),
         }),
       );
@@ -344,6 +401,15 @@ export class RunEntry {
         { emitEvent: false },
       );
     });
+    if (prefill?.amplitudeOnly) this.form.controls.amplitudeOnly.setValue(true, { emitEvent: false });
+    const start = this.trialWeight();
+    if (start && kind === 'trial' && !prefill) {
+      this.form.controls.trialWeight.setValue({
+        planeIndex: start.planeIndex,
+        massGrams: start.massGrams === null ? '' : typed(start.massGrams),
+        angleDeg: typed(start.angleDeg),
+      });
+    }
     if (prefill?.trialWeight && kind === 'trial') {
       this.form.controls.trialWeight.setValue({
         planeIndex: prefill.trialWeight.planeIndex,
@@ -352,6 +418,20 @@ export class RunEntry {
       });
     }
     this.drafts.keep(this.form, job.id, key, this.destroyRef);
+    this.applyPhaseMode();
+    this.value.set(this.form.getRawValue());
+  }
+
+  /** Enables the phase fields for a run read with phase, disables them (no check, not sent) without. */
+  private applyPhaseMode(): void {
+    const noPhase = this.amplitudeOnly() ?? this.form.controls.amplitudeOnly.value;
+    for (const reading of this.form.controls.readings.controls) {
+      for (const repeat of reading.controls.repeats.controls) {
+        const phase = repeat.controls.phaseDeg;
+        if (noPhase && phase.enabled) phase.disable({ emitEvent: false });
+        if (!noPhase && phase.disabled) phase.enable({ emitEvent: false });
+      }
+    }
     this.value.set(this.form.getRawValue());
   }
 
@@ -362,7 +442,7 @@ export class RunEntry {
   /** Adds an empty repeat to a sensor and puts the cursor in its amplitude. */
   protected addRepeat(sensorIndex: number): void {
     const repeats = this.repeatsOf(sensorIndex);
-    repeats.push(repeatForm());
+    repeats.push(repeatForm(!this.noPhase()));
     this.focusLater(`#${this.fieldId(sensorIndex, repeats.length - 1, 'amplitude')}`);
   }
 
@@ -397,7 +477,7 @@ export class RunEntry {
         sensorSide: reading.sensorSide,
         repeats: reading.repeats.map((repeat) => ({
           amplitude: parseTypedNumber(repeat.amplitude) as number,
-          phaseDeg: parseTypedNumber(repeat.phaseDeg) as number,
+          ...(this.noPhase() ? {} : { phaseDeg: parseTypedNumber(repeat.phaseDeg) as number }),
           speedRpm: parseTypedNumber(repeat.speedRpm) as number,
         })),
       })),

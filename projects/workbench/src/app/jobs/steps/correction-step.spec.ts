@@ -8,7 +8,7 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import type { MachineFamily } from '../../machine-families/machine-families.api';
 import type { Machine } from '../../machines/machines.api';
 import { JobSession } from '../job-session';
-import type { Job } from '../jobs.api';
+import type { Job, JobRun } from '../jobs.api';
 import { JobCorrectionStep } from './correction-step';
 import {
   JOB_AFTER_LEFT_TRIAL,
@@ -122,10 +122,18 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
         label: 'Two planes',
         status: 'radio_button_unchecked Missing: a trial run in the right plane (run 2 is in the other).',
       },
+      {
+        method: 'four-run',
+        label: 'Amplitude only, trial at three positions',
+        status:
+          'radio_button_unchecked The initial run (run 1) was read with phase: amplitude only needs it read without phase. Use a method with phase.',
+      },
     ]);
-    expect(text(element.querySelector('[data-testid="amplitude-only"]'))).toContain(
-      'is not a job method on the server yet',
+    expect(text(element.querySelector('[data-method="four-run"] .method__needs'))).toBe(
+      'Needs runs read without phase: the initial run, then the same trial weight at three positions in the worse side’s plane (0°, 120°, 240°).',
     );
+    // Nothing to type for it here: this job's runs were read with phase.
+    expect(element.querySelector('[data-testid="amplitude-only"]')).toBeNull();
   });
 
   it('says the stored sensitivity is missing on a machine without a family', async () => {
@@ -138,7 +146,7 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
   it('offers no method while fitted weights wait for their verification run', async () => {
     const { element } = await render(JOB_WITH_INSTALLED);
     expect(methods(element).map((method) => method.status)).toEqual(
-      Array(3).fill(
+      Array(4).fill(
         'radio_button_unchecked Weights were fitted since the last run: take a verification run with them on first.',
       ),
     );
@@ -150,6 +158,7 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
       'check_circle This job has it: the right sensor and right plane, 668 g per in/s peak, from 4 jobs.',
       'radio_button_unchecked A trim needs weights fitted in the right plane between run 1 and verification run 3; none were. Work the right side with two planes.',
       'radio_button_unchecked Missing: a trial run in the right plane (run 2 is in the other).',
+      'radio_button_unchecked Run 3 was read with phase: amplitude only needs it read without phase. Use a method with phase.',
     ]);
   });
 
@@ -314,5 +323,131 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
     await settle(fixture);
     const second = element.querySelectorAll('[data-testid="installed-weight"]')[1];
     expect(text(second?.querySelector('mat-error'))).toBe('The radius is at most 5000 mm.');
+  });
+
+  describe('amplitude only', () => {
+    /** A run of job 8 as read without phase: the amplitudes alone, their plain mean. */
+    function withoutPhase(run: JobRun, changes: Partial<JobRun> = {}): JobRun {
+      return {
+        ...run,
+        amplitudeOnly: true,
+        readings: run.readings.map((reading) => ({
+          ...reading,
+          repeats: reading.repeats.map(({ amplitude, speedRpm }) => ({ amplitude, speedRpm })),
+          average: { amplitude: reading.average.amplitude, phaseDeg: null },
+        })),
+        ...changes,
+      };
+    }
+
+    /** Job 8 read without phase: the initial run, then 40 g trial runs at `anglesDeg` in the left plane. */
+    function amplitudeOnlyJob(anglesDeg: readonly number[]): Job {
+      const [initial, trial] = JOB_AFTER_LEFT_TRIAL.runs as [JobRun, JobRun];
+      return {
+        ...JOB_AFTER_LEFT_TRIAL,
+        runs: [
+          withoutPhase(initial),
+          ...anglesDeg.map((angleDeg, index) =>
+            withoutPhase(trial, {
+              id: 40 + index,
+              sequence: 2 + index,
+              trialWeight: { planeIndex: 0, massGrams: 40, angleDeg },
+            }),
+          ),
+        ],
+      };
+    }
+
+    it('picks amplitude only for runs read without phase, and asks for the trial at 0° with its mass typed once', async () => {
+      const { fixture, element } = await render(amplitudeOnlyJob([]));
+      expect(methods(element).map((method) => method.status)).toEqual([
+        ...Array(3).fill(
+          'radio_button_unchecked The initial run (run 1) was read without phase: this method needs the phase.',
+        ),
+        'radio_button_unchecked The initial run (run 1); no trial run read without phase yet. Missing: 3 more trial runs in the left plane.',
+      ]);
+      const checked = element.querySelector('mat-radio-button.mat-mdc-radio-checked');
+      expect(checked?.getAttribute('data-method')).toBe('four-run');
+      const entry = element.querySelector('[data-testid="amplitude-only"]');
+      expect(text(entry?.querySelector('h4'))).toBe('Trial run at 0° (1 of 3), amplitude only');
+      expect(text(entry?.querySelector('.hint'))).toContain('Type its mass once');
+      // No choice of phase and no phase field: the step says this run is amplitude only.
+      expect(entry?.querySelector('[data-testid="phase-mode"]')).toBeNull();
+      expect(entry?.querySelector('[id$="-phaseDeg"]')).toBeNull();
+      const angle = entry?.querySelector<HTMLInputElement>('[id$="-angle"]');
+      expect(angle?.value).toBe('0');
+      expect(entry?.querySelector<HTMLInputElement>('[id$="-mass"]')?.value).toBe('');
+
+      const typeInto = async (selector: string, value: string) => {
+        const input = entry!.querySelector<HTMLInputElement>(selector)!;
+        input.value = value;
+        input.dispatchEvent(new Event('input'));
+        fixture.detectChanges();
+        await fixture.whenStable();
+      };
+      await typeInto('[id$="-mass"]', '40');
+      await typeInto('[id$="-s0-r0-amplitude"]', '0.61');
+      await typeInto('[id$="-s0-r0-speedRpm"]', '2100');
+      await typeInto('[id$="-s1-r0-amplitude"]', '0.33');
+      await typeInto('[id$="-s1-r0-speedRpm"]', '2100');
+      button(entry as HTMLElement, 'save Save the trial run at 0° (1 of 3)').click();
+      await settle(fixture);
+      const request = http.expectOne('/api/v1/jobs/8/runs');
+      expect(request.request.body).toEqual({
+        kind: 'trial',
+        trialWeight: { planeIndex: 0, massGrams: 40, angleDeg: 0 },
+        readings: [
+          { sensorSide: 'left', repeats: [{ amplitude: 0.61, speedRpm: 2100 }] },
+          { sensorSide: 'right', repeats: [{ amplitude: 0.33, speedRpm: 2100 }] },
+        ],
+      });
+      request.flush({ ...amplitudeOnlyJob([0]), version: 7 }, { headers: { ETag: '"7"' } });
+      await settle(fixture);
+
+      // The next position comes with the same mass: the technician typed it once.
+      const next = element.querySelector('[data-testid="amplitude-only"]');
+      expect(text(next?.querySelector('h4'))).toBe('Trial run at 120° (2 of 3), amplitude only');
+      expect(next?.querySelector<HTMLInputElement>('[id$="-mass"]')?.value).toBe('40');
+      expect(next?.querySelector<HTMLInputElement>('[id$="-angle"]')?.value).toBe('120');
+      expect(text(next?.querySelector('.hint'))).toContain(
+        'Move the same 40 g trial weight from its last position to 120°',
+      );
+    });
+
+    it('says what the job has, and works it out once the three positions are stored', async () => {
+      const { fixture, element } = await render(amplitudeOnlyJob([0, 120]));
+      expect(methods(element)[3]?.status).toBe(
+        'radio_button_unchecked The initial run (run 1) and 40 g at 0° (run 2), 120° (run 3). Missing: 1 more trial run in the left plane.',
+      );
+      expect(text(element.querySelector('[data-testid="amplitude-only"] h4'))).toBe(
+        'Trial run at 240° (3 of 3), amplitude only',
+      );
+
+      await render(amplitudeOnlyJob([0, 120, 240])).then(async ({ fixture: ready, element: page }) => {
+        expect(methods(page)[3]?.status).toBe(
+          'check_circle This job has it: the initial run (run 1) and 40 g at 0° (run 2), 120° (run 3), 240° (run 4) in the left plane.',
+        );
+        expect(page.querySelector('[data-testid="amplitude-only"]')).toBeNull();
+        button(page, 'calculate Work it out').click();
+        const request = http.expectOne('/api/v1/jobs/8/corrections');
+        expect(request.request.body).toEqual({ method: 'four-run' });
+        request.flush(
+          {
+            type: 'about:blank',
+            title: 'Conflict',
+            status: 409,
+            code: 'METHOD_NOT_POSSIBLE',
+            detail:
+              'Amplitude only needs the initial run (run 1) and the same trial weight at three positions.',
+          },
+          { status: 409, statusText: 'Conflict' },
+        );
+        await settle(ready);
+        expect(text(page.querySelector('app-error-banner'))).toContain(
+          'This job’s runs do not allow this method yet. Amplitude only needs the initial run (run 1)',
+        );
+      });
+      fixture.destroy();
+    });
   });
 });

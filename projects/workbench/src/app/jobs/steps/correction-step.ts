@@ -44,7 +44,10 @@ import { JobSession } from '../job-session';
 import { RunEntry } from '../run-entry';
 import type { CorrectionMethod, InstalledWeight, Job, JobCorrection } from '../jobs.api';
 import {
+  type AmplitudeRunNeeded,
   BASIS_WORDS,
+  baseRunOf,
+  inThePlane,
   METHOD_WORDS,
   methodOptions,
   placePlanned,
@@ -140,10 +143,17 @@ export class JobCorrectionStep {
     const last = this.job().corrections.at(-1);
     if (last && this.superseded()) {
       const refining: CorrectionMethod[] =
-        last.method === 'multi-plane' ? ['multi-plane', 'single-plane'] : ['single-plane', 'multi-plane'];
+        last.method === 'four-run'
+          ? ['four-run']
+          : last.method === 'multi-plane'
+            ? ['multi-plane', 'single-plane']
+            : ['single-plane', 'multi-plane'];
       return refining.find(possible) ?? options.find((option) => option.possible)?.method ?? last.method;
     }
-    return last?.method ?? options.find((option) => option.possible)?.method ?? null;
+    const first = options.find((option) => option.possible)?.method;
+    // Runs read without phase leave amplitude only: it is the method to go on with, runs missing or not.
+    const amplitudeOnly = baseRunOf(this.job())?.amplitudeOnly === true ? 'four-run' : null;
+    return last?.method ?? first ?? amplitudeOnly;
   });
   /** The last verification run's verdict when it is above the acceptance level; null otherwise. */
   protected readonly notYetAccepted = computed(() => {
@@ -251,8 +261,20 @@ export class JobCorrectionStep {
     this.computeError.set(null);
   }
 
+  /** The draft key of an amplitude-only run the step asks for: one per position, so each has its own form. */
+  protected amplitudeRunKey(run: AmplitudeRunNeeded): string {
+    return run.kind === 'initial'
+      ? 'four-run-initial'
+      : `four-run-trial-${run.trialWeight?.planeIndex ?? 0}-${run.trialWeight?.angleDeg ?? 0}`;
+  }
+
   protected pick(method: CorrectionMethod): void {
     this.picked.set(method);
+  }
+
+  /** "in the left plane", or "in the plane" on a rotor with one. */
+  protected inPlane(index: number): string {
+    return inThePlane(index, this.planeCount());
   }
 
   protected planeLabel(index: number): string {

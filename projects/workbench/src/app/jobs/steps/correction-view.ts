@@ -25,7 +25,28 @@ export const METHOD_WORDS: Readonly<Record<CorrectionMethod, { label: string; ne
     label: 'Two planes',
     needs: 'both sensors and a trial run in each plane; more runs than planes are fitted by least squares',
   },
+  'four-run': {
+    label: 'Amplitude only, trial at three positions',
+    needs:
+      'runs read without phase: the initial run, then the same trial weight at three positions in the worse ' +
+      'side’s plane (0°, 120°, 240°)',
+  },
 };
+
+/** The trial positions the step offers for amplitude-only balancing, in degrees from the reference mark. */
+export const FOUR_RUN_POSITIONS_DEG = [0, 120, 240] as const;
+
+/** Angles closer than this are one trial position (the server's rule, docs/jobs.md). */
+const SAME_POSITION_DEG = 0.05;
+
+/** The next run amplitude-only balancing needs: the initial run, or a trial run at a position. */
+export interface AmplitudeRunNeeded {
+  readonly kind: 'initial' | 'trial';
+  /** For a trial run: its plane and position, and the mass of the trial runs before it (null for the first). */
+  readonly trialWeight: { planeIndex: number; angleDeg: number; massGrams: number | null } | null;
+  /** Which one of the runs it is, in words: "Trial run at 120° (2 of 3)". */
+  readonly title: string;
+}
 
 /** Where a correction came from, in words. */
 export const BASIS_WORDS: Readonly<Record<JobCorrection['basis'], string>> = {
@@ -44,6 +65,8 @@ export interface MethodOption {
   readonly status: string;
   /** The plane whose trial run is missing, when a trial run would make the method possible. */
   readonly trialPlane: number | null;
+  /** For amplitude only: the next run read without phase that it needs, when one is missing. */
+  readonly amplitudeRun: AmplitudeRunNeeded | null;
 }
 
 /** The unit of the job's amplitudes as read on screen. */
@@ -81,6 +104,100 @@ function latestTrialIn(job: Job, planeIndex: number): JobRun | undefined {
     .find((run) => run.kind === 'trial' && run.trialWeight?.planeIndex === planeIndex);
 }
 
+/** "in the left plane", or "in the plane" on a rotor with one. */
+export function inThePlane(planeIndex: number, planeCount: number): string {
+  return planeCount <= 1 ? 'in the plane' : `in the ${planeName(planeIndex, planeCount).toLowerCase()}`;
+}
+
+function apartDeg(a: number, b: number): number {
+  const apart = (((a - b) % 360) + 360) % 360;
+  return Math.min(apart, 360 - apart);
+}
+
+function runName(run: JobRun): string {
+  return run.kind === 'initial' ? `the initial run (run ${run.sequence})` : `run ${run.sequence}`;
+}
+
+/**
+ * Amplitude only (`four-run`), as the server picks its runs (docs/jobs.md): the base run read without
+ * phase, and after it the latest trial runs read without phase in the worse side's plane, with the latest
+ * mass, at three distinct angles. Says what this job has, and the next run it needs.
+ */
+function fourRunOption(
+  job: Job,
+  base: JobRun | undefined,
+  side: MachineSide | undefined,
+  planeIndex: number,
+  planeCount: number,
+): { possible: boolean; status: string; next: AmplitudeRunNeeded | null } {
+  if (base === undefined) {
+    return {
+      possible: false,
+      status: 'Missing: the initial run, read without phase.',
+      next: { kind: 'initial', trialWeight: null, title: 'Initial run, amplitude only' },
+    };
+  }
+  if (!base.amplitudeOnly) {
+    return {
+      possible: false,
+      status: `${capitalise(runName(base))} was read with phase: amplitude only needs it read without phase. Use a method with phase.`,
+      next: null,
+    };
+  }
+  const inPlaneWords = inThePlane(planeIndex, planeCount);
+  const trials = job.runs.filter(
+    (run) =>
+      run.kind === 'trial' &&
+      run.sequence > base.sequence &&
+      run.amplitudeOnly === true &&
+      run.trialWeight?.planeIndex === planeIndex &&
+      run.readings.some((reading) => reading.sensorSide === side),
+  );
+  const mass = trials.at(-1)?.trialWeight?.massGrams ?? null;
+  const chosen: JobRun[] = [];
+  for (const run of [...trials].reverse()) {
+    if (run.trialWeight!.massGrams !== mass || chosen.length === 3) continue;
+    if (
+      !chosen.some(
+        (other) => apartDeg(other.trialWeight!.angleDeg, run.trialWeight!.angleDeg) < SAME_POSITION_DEG,
+      )
+    )
+      chosen.push(run);
+  }
+  chosen.reverse();
+  const list = chosen
+    .map((run) => `${formatDeg(run.trialWeight!.angleDeg)} (run ${run.sequence})`)
+    .join(', ');
+  if (chosen.length === 3) {
+    return {
+      possible: true,
+      status: `This job has it: ${runName(base)} and ${formatNumber(mass!, 1)} g at ${list} ${inPlaneWords}.`,
+      next: null,
+    };
+  }
+  const taken = chosen.map((run) => run.trialWeight!.angleDeg);
+  const angleDeg =
+    FOUR_RUN_POSITIONS_DEG.find((position) => taken.every((angle) => apartDeg(angle, position) >= 1)) ??
+    (taken.at(-1)! + 120) % 360;
+  const have =
+    chosen.length === 0
+      ? `${capitalise(runName(base))}; no trial run read without phase yet.`
+      : `${capitalise(runName(base))} and ${formatNumber(mass!, 1)} g at ${list}.`;
+  return {
+    possible: false,
+    status: `${have} Missing: ${3 - chosen.length} more trial run${chosen.length === 2 ? '' : 's'} ${inPlaneWords}.`,
+    next: {
+      kind: 'trial',
+      trialWeight: { planeIndex, angleDeg, massGrams: mass },
+      title: `Trial run at ${formatDeg(angleDeg)} (${chosen.length + 1} of 3), amplitude only`,
+    },
+  };
+}
+
+function capitalise(text: string): string {
+  return `${text[0]!.toUpperCase()}${text.slice(1)}`;
+}
+
 function sensitivityText(figure: StoredSensitivity): string {
   const jobs =
     figure.jobCount === 0 ? 'typed in' : `from ${figure.jobCount} job${figure.jobCount === 1 ? '' : 's'}`;
@@ -88,7 +205,7 @@ function sensitivityText(figure: StoredSensitivity): string {
 }
 
 /**
- * The three methods, simplest first, each with whether this job's stored runs allow it. The words follow
+ * The four methods, simplest first (amplitude only last: it needs the most runs), each with whether this job's stored runs allow it. The words follow
  * the server's rules (docs/jobs.md), which stay the judge: "Work it out" asks the server either way.
  */
 export function methodOptions(
@@ -101,6 +218,7 @@ export function methodOptions(
   const side = base && worseSide(base);
   const planeIndex = side ? planeOfSide(side, planeCount) : 0;
   const planeWords = planeName(planeIndex, planeCount).toLowerCase();
+  const inPlaneWords = inThePlane(planeIndex, planeCount);
   const waiting = base !== undefined && base.weightsOnRotor.length !== fittedCount(job);
   const blocked =
     base === undefined
@@ -111,12 +229,32 @@ export function methodOptions(
     possible: boolean,
     status: string,
     trialPlane: number | null = null,
-  ): MethodOption => ({ method, ...METHOD_WORDS[method], possible, status, trialPlane });
+    amplitudeRun: AmplitudeRunNeeded | null = null,
+  ): MethodOption => ({ method, ...METHOD_WORDS[method], possible, status, trialPlane, amplitudeRun });
 
   if (base === undefined || waiting) {
-    return (['one-run', 'single-plane', 'multi-plane'] as const).map((method) =>
-      option(method, false, blocked),
-    );
+    const fourRun = fourRunOption(job, undefined, side, planeIndex, planeCount);
+    return [
+      ...(['one-run', 'single-plane', 'multi-plane'] as const).map((method) =>
+        option(method, false, blocked),
+      ),
+      base === undefined
+        ? option('four-run', false, fourRun.status, null, fourRun.next)
+        : option('four-run', false, blocked),
+    ];
+  }
+
+  const four = fourRunOption(job, base, side, planeIndex, planeCount);
+  const fourRun = option('four-run', four.possible, four.status, null, four.next);
+  // The methods with phase cannot use a run read without it (the server refuses it the same way).
+  if (base.amplitudeOnly) {
+    const withoutPhase = `${capitalise(runName(base))} was read without phase: this method needs the phase.`;
+    return [
+      option('one-run', false, withoutPhase),
+      option('single-plane', false, withoutPhase),
+      option('multi-plane', false, withoutPhase),
+      fourRun,
+    ];
   }
 
   const sideWords = side === 'right' ? 'right' : 'left';
@@ -147,27 +285,34 @@ export function methodOptions(
         ? option(
             'single-plane',
             true,
-            `A trim on the ${sideWords} side: the weights fitted in the ${planeWords} between run ${before?.sequence ?? 1} and verification run ${base.sequence}.`,
+            `A trim on the ${sideWords} side: the weights fitted ${inPlaneWords} between run ${before?.sequence ?? 1} and verification run ${base.sequence}.`,
           )
         : option(
             'single-plane',
             false,
-            `A trim needs weights fitted in the ${planeWords} between run ${before?.sequence ?? 1} and verification run ${base.sequence}; none were. Work the ${sideWords} side with two planes.`,
+            `A trim needs weights fitted ${inPlaneWords} between run ${before?.sequence ?? 1} and verification run ${base.sequence}; none were. Work the ${sideWords} side with two planes.`,
           );
   } else {
     const trial = latestTrialIn(job, planeIndex);
-    singlePlane = trial
+    singlePlane = trial?.amplitudeOnly
       ? option(
           'single-plane',
-          true,
-          `This job has it: trial run ${trial.sequence} in the ${planeWords}, read by the ${sideWords} sensor.`,
-        )
-      : option(
-          'single-plane',
           false,
-          `Missing: a trial run in the ${planeWords} (the ${sideWords} side reads higher).`,
+          `Trial run ${trial.sequence} was read without phase: take a trial run ${inPlaneWords} with phase.`,
           planeIndex,
-        );
+        )
+      : trial
+        ? option(
+            'single-plane',
+            true,
+            `This job has it: trial run ${trial.sequence} ${inPlaneWords}, read by the ${sideWords} sensor.`,
+          )
+        : option(
+            'single-plane',
+            false,
+            `Missing: a trial run ${inPlaneWords} (the ${sideWords} side reads higher).`,
+            planeIndex,
+          );
   }
 
   let multiPlane: MethodOption;
@@ -200,7 +345,7 @@ export function methodOptions(
             missing,
           );
   }
-  return [oneRun, singlePlane, multiPlane];
+  return [oneRun, singlePlane, multiPlane, fourRun];
 }
 
 /** The runs a correction used, in words: "run 1 (initial), run 2 (trial, 120 g at 0° in the left plane)". */

@@ -62,9 +62,10 @@ export function runSeries(job: Job, side: MachineSide): PolarSeries {
     label: `${SIDE_LABELS[side]} sensor`,
     kind: 'run',
     unit,
+    // A run read without phase has no point on a polar plot: its amplitude shows in the run's card.
     points: job.runs.flatMap((run) => {
       const reading = run.readings.find((candidate) => candidate.sensorSide === side);
-      return reading
+      return reading && reading.average.phaseDeg !== null
         ? [
             {
               amplitude: reading.average.amplitude,
