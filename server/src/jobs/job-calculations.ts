@@ -564,6 +564,25 @@ export function coefficientsOf(
   }));
 }
 
+/**
+ * What a four-run correction measured of the rotor's response: the size of the influence coefficient
+ * alone, |H| = T / m_trial (the trial's effect per gram), without its phase. Enough to read a balance
+ * grade as an amplitude; never kept as a coefficient (no phase to refine a family's figure with).
+ */
+export function fourRunSensitivity(
+  correction: Pick<CorrectionRow, 'calc' | 'result' | 'plan'>,
+): Omit<SideCoefficient, 'phaseDeg'>[] {
+  const request = correction.calc.request as { trialMass: number };
+  const effect = (correction.result as CalcResponse<'four-run'>).trialEffect;
+  return [
+    {
+      sensorSide: correction.calc.sensorSides[0]!,
+      planeIndex: correction.plan[0]!.planeIndex,
+      amplitudePerMass: effect.amplitude / request.trialMass,
+    },
+  ];
+}
+
 /** The coefficient of a side and plane in the latest correction that measured it, if any. */
 function latestCoefficient(corrections: readonly CorrectionRow[], side: MachineSide, planeIndex: number) {
   for (const correction of [...corrections].reverse()) {
@@ -625,7 +644,7 @@ function amplitudeLimit(
   unit: AmplitudeUnit,
   side: MachineSide,
   grade: { rotorMassKg: number | null; speedRpm: number; planeRadiiMm: readonly number[] },
-  coefficients: readonly SideCoefficient[],
+  coefficients: readonly Omit<SideCoefficient, 'phaseDeg'>[],
 ): number | null {
   if (level.kind === 'shop-target') return convertVibration(level.amplitude, level.unit, unit);
   if (level.kind === 'severity-zone') {
@@ -657,7 +676,9 @@ export function verdictOf(
   grade: { rotorMassKg: number | null; speedRpm: number; planeRadiiMm: readonly number[] },
   corrections: readonly CorrectionRow[],
 ) {
-  const measured = corrections.filter((c) => c.basis !== 'sensitivity').flatMap(coefficientsOf);
+  const measured = corrections
+    .filter((c) => c.basis !== 'sensitivity')
+    .flatMap((c) => (c.calc.route === 'four-run' ? fourRunSensitivity(c) : coefficientsOf(c)));
   const unit = setup.amplitudeUnit;
   const sides = SIDE_ORDER.flatMap((side) => {
     const reading = run.readings.find((r) => r.sensorSide === side);

@@ -3,6 +3,7 @@
  * amplitude and the same trial weight at three positions, a correction equal to the calculator API's
  * answer that brings the modelled rotor down, and the refusals that name the field or the runs missing.
  */
+import { balanceTolerance } from '@counterpoise/engine';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { as, type RecordsTestApp, startRecordsTestApp } from '../records/records.test-app';
 import {
@@ -204,6 +205,51 @@ describe('the four-run correction', () => {
     expect(completion.beforeAfter[0]!.after.amplitude).toBeCloseTo(after.amplitude, 12);
     // Amplitudes measure no phase: no influence coefficient to refine the family with.
     expect(completion.coefficients).toEqual([]);
+  });
+
+  it('judges a balance grade with the trial effect it measured: |H| = T / m_trial, no phase needed', async () => {
+    const graded = await machineOfFamily(test, test.tokens.owner, {
+      acceptance: { kind: 'balance-grade', grade: 'G6.3' },
+    });
+    const jobs = jobsAs(test, test.tokens.technician);
+    const created = await jobs.create({ machineId: graded.machineId, scheduledFor: '2026-04-21' });
+    const ready = await readyForRuns(test, test.tokens.technician, created.body.id, created.body.version);
+    const path = jobPath(ready.id);
+    let job = await addRun(jobs, path, ready.version, {
+      kind: 'initial',
+      readings: amplitudeReadings(['left'], ROTOR.initial),
+    });
+    // Before any correction the grade cannot be read as an amplitude: nothing measured the response.
+    expect(job.verification).toMatchObject({ accepted: false, nextSide: 'left' });
+    for (const angleDeg of [0, 120, 240]) {
+      job = await addRun(jobs, path, job.version, {
+        kind: 'trial',
+        trialWeight: trialAt(angleDeg),
+        readings: amplitudeReadings(['left'], modelReadings(ROTOR, [trialAt(angleDeg)])),
+      });
+    }
+    const computed = await jobs.post(`${path}/corrections`, { method: 'four-run' }, job.version);
+    const plan = (computed.body as JobBody).corrections[0]!.plan[0]!;
+    const fitted = { planeIndex: 0, massGrams: plan.massGrams * 0.95, angleDeg: (plan.angleDeg + 4) % 360 };
+    const installed = await jobs.put(
+      `${path}/corrections/${(computed.body as JobBody).corrections[0]!.id}/installed`,
+      { weights: [{ ...fitted, radiusMm: 210, fixing: 'welded' }] },
+      computed.body.version,
+    );
+    const verified = await addRun(jobs, path, installed.body.version, {
+      kind: 'verification',
+      readings: amplitudeReadings(['left'], modelReadings(ROTOR, [fitted])),
+    });
+    // G6.3 on the 300 kg rotor at 2150 rpm: U_per / r x |H|, with |H| = 0.2 in/s / 50 g = 0.004 in/s per g.
+    const tolerance = balanceTolerance({ grade: 'G6.3', rotorMassKg: 300, speedRpm: 2150 });
+    const limit = (tolerance.permissibleUnbalanceGmm / 210) * 0.004;
+    const verdict = verified.verification as unknown as {
+      accepted: boolean;
+      sides: { amplitude: number; limit: number }[];
+    };
+    expect(verdict.sides[0]!.limit).toBeCloseTo(limit, 9);
+    expect(verdict.sides[0]!.amplitude).toBeLessThan(limit);
+    expect(verdict.accepted).toBe(true);
   });
 
   it('says which trial runs are missing: one position short', async () => {

@@ -64,7 +64,7 @@ let counter = 0;
 export async function machineOfFamily(
   test: RecordsTestApp,
   token: string,
-  options: { planeCount?: 1 | 2; sensitivities?: unknown[] } = {},
+  options: { planeCount?: 1 | 2; sensitivities?: unknown[]; acceptance?: object } = {},
 ): Promise<{ machineId: number; familyId: number }> {
   const planeCount = options.planeCount ?? 1;
   const owner = as(test.app, token);
@@ -75,6 +75,7 @@ export async function machineOfFamily(
     ...familyBody(tag, planeCount),
     correctionRadiiMm: planeCount === 2 ? [210, 210] : [210],
     sensitivities: options.sensitivities ?? [],
+    ...(options.acceptance ? { acceptance: options.acceptance } : {}),
   });
   expect(family.status, JSON.stringify(family.body)).toBe(201);
   const machine = await owner.post('/api/v1/machines', {
