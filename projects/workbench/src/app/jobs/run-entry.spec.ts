@@ -343,6 +343,18 @@ describe('RunEntry', { timeout: 30_000 }, () => {
     await new Promise((resolve) => setTimeout(resolve));
   });
 
+  it('starts a new run as the job’s last run was read: without phase after an amplitude-only run', async () => {
+    const [initial] = JOB_AFTER_LEFT_TRIAL.runs as [JobRun];
+    const readWithoutPhase: Job = {
+      ...JOB_AFTER_LEFT_TRIAL,
+      runs: [{ ...initial, amplitudeOnly: true }],
+    };
+    const { element } = await render('trial', readWithoutPhase);
+    const chosen = element.querySelector('[data-testid="phase-mode"] .mat-button-toggle-checked');
+    expect(text(chosen)).toBe('Amplitude only (no phase)');
+    expect(element.querySelector('[id$="-phaseDeg"]')).toBeNull();
+  });
+
   it('warns when amplitudes read without phase disagree by more than 20 % of their mean', async () => {
     const { fixture, element } = await render('initial');
     const toggles = [...element.querySelectorAll<HTMLButtonElement>('[data-testid="phase-mode"] button')];

@@ -401,7 +401,11 @@ export class RunEntry {
         { emitEvent: false },
       );
     });
-    if (prefill?.amplitudeOnly) this.form.controls.amplitudeOnly.setValue(true, { emitEvent: false });
+    // A run typed again keeps its way of reading; a new one starts as the job's last run was read.
+    const readWithoutPhase = prefill
+      ? prefill.amplitudeOnly === true
+      : job.runs.at(-1)?.amplitudeOnly === true;
+    if (readWithoutPhase) this.form.controls.amplitudeOnly.setValue(true, { emitEvent: false });
     const start = this.trialWeight();
     if (start && kind === 'trial' && !prefill) {
       this.form.controls.trialWeight.setValue({

@@ -44,7 +44,6 @@ import { JobSession } from '../job-session';
 import { RunEntry } from '../run-entry';
 import type { CorrectionMethod, InstalledWeight, Job, JobCorrection } from '../jobs.api';
 import {
-  type AmplitudeRunNeeded,
   BASIS_WORDS,
   baseRunOf,
   inThePlane,
@@ -259,13 +258,6 @@ export class JobCorrectionStep {
   /** The trial run is stored: the method it was missing for can be worked out now. */
   protected trialSaved(): void {
     this.computeError.set(null);
-  }
-
-  /** The draft key of an amplitude-only run the step asks for: one per position, so each has its own form. */
-  protected amplitudeRunKey(run: AmplitudeRunNeeded): string {
-    return run.kind === 'initial'
-      ? 'four-run-initial'
-      : `four-run-trial-${run.trialWeight?.planeIndex ?? 0}-${run.trialWeight?.angleDeg ?? 0}`;
   }
 
   protected pick(method: CorrectionMethod): void {

@@ -46,6 +46,8 @@ export interface AmplitudeRunNeeded {
   readonly trialWeight: { planeIndex: number; angleDeg: number; massGrams: number | null } | null;
   /** Which one of the runs it is, in words: "Trial run at 120° (2 of 3)". */
   readonly title: string;
+  /** The key of its draft: one per base run and position, so that each keeps its own typing. */
+  readonly key: string;
 }
 
 /** Where a correction came from, in words. */
@@ -134,7 +136,12 @@ function fourRunOption(
     return {
       possible: false,
       status: 'Missing: the initial run, read without phase.',
-      next: { kind: 'initial', trialWeight: null, title: 'Initial run, amplitude only' },
+      next: {
+        kind: 'initial',
+        trialWeight: null,
+        title: 'Initial run, amplitude only',
+        key: 'four-run-initial',
+      },
     };
   }
   if (!base.amplitudeOnly) {
@@ -190,6 +197,7 @@ function fourRunOption(
       kind: 'trial',
       trialWeight: { planeIndex, angleDeg, massGrams: mass },
       title: `Trial run at ${formatDeg(angleDeg)} (${chosen.length + 1} of 3), amplitude only`,
+      key: `four-run-after-${base.sequence}-trial-${planeIndex}-${angleDeg}`,
     },
   };
 }
@@ -355,7 +363,7 @@ export function runsUsed(job: Job, correction: JobCorrection, planeCount: number
     .map((run) => {
       if (run.kind === 'trial' && run.trialWeight) {
         const weight = run.trialWeight;
-        return `run ${run.sequence} (trial, ${formatNumber(weight.massGrams, 1)} g at ${formatDeg(weight.angleDeg)} in the ${planeName(weight.planeIndex, planeCount).toLowerCase()})`;
+        return `run ${run.sequence} (trial, ${formatNumber(weight.massGrams, 1)} g at ${formatDeg(weight.angleDeg)} ${inThePlane(weight.planeIndex, planeCount)})`;
       }
       return `run ${run.sequence} (${run.kind})`;
     })
