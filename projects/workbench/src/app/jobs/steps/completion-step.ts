@@ -50,6 +50,10 @@ export class JobCompletionStep {
   protected readonly machineTitle = machineTitle;
 
   protected readonly unit = computed(() => unitLabel(this.job()));
+  /** Whether the job's corrections were worked out from runs read without phase (amplitude only). */
+  protected readonly amplitudeOnly = computed(() =>
+    this.job().corrections.some((correction) => correction.method === 'four-run'),
+  );
   protected readonly planeCount = computed(() => planeCountOf(this.machine(), this.family()));
   protected readonly error = signal<string | null>(null);
 
