@@ -102,10 +102,13 @@ afterAll(async () => {
 afterEach(async (context) => {
   // What the technician's screen showed when a test failed, for whoever reads the failure.
   if (context.task.result?.state === 'fail') {
+    const name = context.task.name.replace(/\W+/g, '-').slice(0, 60);
     await page
-      .screenshot({ path: join(SCREENS_DIR, 'job-failed.png'), fullPage: true })
+      .screenshot({ path: join(SCREENS_DIR, `job-failed-${name}.png`), fullPage: true })
       .catch((error: unknown) => console.warn('No screenshot of the failure:', error));
   }
+  // A test that failed while offline leaves the next one a connection.
+  await page.context().setOffline(false);
 });
 
 async function signIn(on: Page, email: string): Promise<void> {
@@ -158,7 +161,15 @@ function jobIdOf(on: Page): number {
 /** Takes the screenshot of the whole job page (the shell scrolls its content, so the window grows to it). */
 async function shoot(on: Page, name: string): Promise<void> {
   // The stepper slides to the step a stored change moved it to: the picture waits for the slide to end.
-  await on.evaluate(() => Promise.all(document.getAnimations().map((animation) => animation.finished)));
+  // (Spinners turn for ever: only animations that end are waited for.)
+  await on.evaluate(() =>
+    Promise.all(
+      document
+        .getAnimations()
+        .filter((animation) => animation.effect?.getComputedTiming().iterations !== Infinity)
+        .map((animation) => animation.finished),
+    ),
+  );
   const viewport = on.viewportSize() ?? TABLET;
   const height = await on.evaluate(() => {
     const main = document.querySelector('main');
@@ -288,7 +299,7 @@ async function completeJob(on: Page): Promise<void> {
   await on.getByRole('heading', { level: 3, name: 'Before and after' }).waitFor();
 }
 
-describe('a balancing job in the workbench', () => {
+describe('a balancing job in the workbench', { timeout: 120_000 }, () => {
   it('takes a technician through a two-plane job from safety to completion on a tablet', async () => {
     const started = Date.now();
     const jobId = await startJobOn(page, 'QS180-0612');
