@@ -192,6 +192,30 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
     expect(entry?.querySelector('app-run-entry')).not.toBeNull();
   });
 
+  it('gives each missing trial run a form of its own: the next plane does not inherit what was typed', async () => {
+    const initialOnly: Job = {
+      ...JOB_AFTER_LEFT_TRIAL,
+      version: 5,
+      runs: JOB_AFTER_LEFT_TRIAL.runs.slice(0, 1),
+    };
+    const { fixture, element } = await render(initialOnly);
+    (element.querySelector('[data-method="multi-plane"] input') as HTMLInputElement).click();
+    await fixture.whenStable();
+    const entry = () => element.querySelector('[data-testid="trial-entry"]');
+    const mass = () => entry()?.querySelector<HTMLInputElement>('input[id$="-mass"]');
+    expect(text(entry()?.querySelector('h4'))).toBe('Trial run in the left plane');
+    mass()!.value = '120';
+    mass()!.dispatchEvent(new Event('input'));
+    // The left plane's trial run is stored (its draft cleared), and the job now needs the right plane's.
+    localStorage.clear();
+    const loading = fixture.componentInstance.session.load(8);
+    http.expectOne('/api/v1/jobs/8').flush(JOB_AFTER_LEFT_TRIAL, { headers: { ETag: '"6"' } });
+    await loading;
+    await fixture.whenStable();
+    expect(text(entry()?.querySelector('h4'))).toBe('Trial run in the right plane');
+    expect(mass()?.value).toBe('');
+  });
+
   it('asks the server for the method chosen on the stored ETag, and shows the plan it stored', async () => {
     const { fixture, element } = await render(JOB_AFTER_LEFT_TRIAL);
     (element.querySelector('[data-method="single-plane"] input') as HTMLInputElement).click();
