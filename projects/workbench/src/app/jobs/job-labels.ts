@@ -1,3 +1,5 @@
+import type { MachineFamily } from '../machine-families/machine-families.api';
+import type { Machine } from '../machines/machines.api';
 import type { Job, JobStatus, JobStep, JobSummary } from './jobs.api';
 
 /** The steps of the stepper, in order, with the words a technician reads on them. */
@@ -36,6 +38,14 @@ export function machineTitle(machine: Job['machine'] | JobSummary['machine']): s
   if (machine.serialNumber)
     return makeModel ? `${makeModel} · ${machine.serialNumber}` : machine.serialNumber;
   return makeModel || `Machine no. ${machine.id}`;
+}
+
+/**
+ * How many correction planes the job's rotor has: the machine's, else its family's (while the machine is
+ * fetched), else one per sensor of the set-up, at least one.
+ */
+export function planeCountOf(job: Job, machine?: Machine, family?: MachineFamily): number {
+  return machine?.planes.length ?? family?.planeCount ?? Math.max(1, job.setup?.sensors.length ?? 1);
 }
 
 /** Whether the step is done on this job, for the stepper's ticks. */

@@ -43,6 +43,7 @@ import { formErrorOf } from '../shell/server-errors';
 import { JobDrafts } from './job-drafts';
 import { type JobChange, JobSession } from './job-session';
 import type { AddRun, Job, JobRun, RunKind } from './jobs.api';
+import { planeCountOf } from './job-labels';
 
 /** Repeats that spread by more than this fraction of their average are not trusted (docs/jobs.md). */
 export const MAX_SPREAD_RATIO = 0.2;
@@ -345,7 +346,7 @@ export class RunEntry {
   protected readonly key = computed(() => this.draftKey() ?? `run-${this.kind()}`);
   protected readonly kindLabel = computed(() => RUN_KIND_LABELS[this.kind()]);
   protected readonly planes = computed(() => {
-    const count = this.machine()?.planes.length ?? Math.max(1, this.sensors().length);
+    const count = planeCountOf(this.job(), this.machine());
     return Array.from({ length: count }, (_, index) => ({ index, name: planeName(index, count) }));
   });
   /** Whether this run is read without phase: as the page says, else as the toggle stands. */

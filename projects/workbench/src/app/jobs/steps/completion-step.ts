@@ -17,10 +17,10 @@ import {
   SIDE_LABELS,
 } from '../../records/record-labels';
 import { httpErrorMessage } from '../../shell/server-errors';
-import { machineTitle } from '../job-labels';
+import { machineTitle, planeCountOf } from '../job-labels';
 import { JobSession } from '../job-session';
 import type { Job } from '../jobs.api';
-import { baseRunOf, fittedCount, planeCountOf, unitLabel } from './correction-view';
+import { baseRunOf, fittedCount, unitLabel } from './correction-view';
 
 /**
  * Step 7 of a job: what completing it records (before and after per side, whether it ends within its
@@ -54,7 +54,7 @@ export class JobCompletionStep {
   protected readonly amplitudeOnly = computed(() =>
     this.job().corrections.some((correction) => correction.method === 'four-run'),
   );
-  protected readonly planeCount = computed(() => planeCountOf(this.machine(), this.family()));
+  protected readonly planeCount = computed(() => planeCountOf(this.job(), this.machine(), this.family()));
   protected readonly error = signal<string | null>(null);
 
   /** Before and after per side, as completion will take them: the initial run against the last run. */

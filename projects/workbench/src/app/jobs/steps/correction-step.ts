@@ -51,11 +51,11 @@ import {
   methodOptions,
   placePlanned,
   type PlanePlacement,
-  planeCountOf,
   refusalText,
   runsUsed,
   unitLabel,
 } from './correction-view';
+import { planeCountOf } from '../job-labels';
 
 type WeightForm = FormGroup<{
   planeIndex: FormControl<number>;
@@ -124,7 +124,7 @@ export class JobCorrectionStep {
   protected readonly methodWords = METHOD_WORDS;
 
   protected readonly unit = computed(() => unitLabel(this.job()));
-  protected readonly planeCount = computed(() => planeCountOf(this.machine(), this.family()));
+  protected readonly planeCount = computed(() => planeCountOf(this.job(), this.machine(), this.family()));
   protected readonly options = computed(() => methodOptions(this.job(), this.machine(), this.family()));
   /** The method the technician picked, if any. */
   private readonly picked = signal<CorrectionMethod | null>(null);

@@ -4,6 +4,7 @@ import type { MachineFamily } from '../../machine-families/machine-families.api'
 import type { Machine, PlaneLayout } from '../../machines/machines.api';
 import { AMPLITUDE_UNIT_LABELS, formatDeg, formatNumber, planeName } from '../../records/record-labels';
 import type { CorrectionMethod, Job, JobCorrection, JobRun } from '../jobs.api';
+import { planeCountOf } from '../job-labels';
 
 /*
  * What the correction step reads off a stored job: which methods its runs allow, in words; the runs and
@@ -84,11 +85,6 @@ export function baseRunOf(job: Job): JobRun | undefined {
 /** How many weights this job has fitted, over all its corrections. */
 export function fittedCount(job: Job): number {
   return job.corrections.reduce((count, correction) => count + (correction.installed?.length ?? 0), 0);
-}
-
-/** The number of correction planes: the machine's, else the family's, else one. */
-export function planeCountOf(machine: Machine | undefined, family: MachineFamily | undefined): number {
-  return machine?.planes.length ?? family?.planeCount ?? 1;
 }
 
 function worseSide(run: JobRun): MachineSide | undefined {
@@ -221,7 +217,7 @@ export function methodOptions(
   machine: Machine | undefined,
   family: MachineFamily | undefined,
 ): MethodOption[] {
-  const planeCount = planeCountOf(machine, family);
+  const planeCount = planeCountOf(job, machine, family);
   const base = baseRunOf(job);
   const side = base && worseSide(base);
   const planeIndex = side ? planeOfSide(side, planeCount) : 0;

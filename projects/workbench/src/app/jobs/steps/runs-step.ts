@@ -25,6 +25,7 @@ import {
 import type { AddRun, Job, JobRun } from '../jobs.api';
 import type { JobChange } from '../job-session';
 import { RUN_KIND_LABELS, RunEntry } from '../run-entry';
+import { planeCountOf } from '../job-labels';
 
 /** A weight in words: "120 g at 0° in the left plane". */
 export function describeWeight(
@@ -34,11 +35,6 @@ export function describeWeight(
   const plane = planeName(weight.planeIndex, planeCount);
   const where = planeCount <= 1 ? 'in the plane' : `in the ${plane.toLowerCase()}`;
   return `${formatNumber(weight.massGrams, 0)} g at ${formatDeg(weight.angleDeg)} ${where}`;
-}
-
-/** The number of planes to name weights by: the machine's, else as many as the job's sensors. */
-export function planeCountOf(job: Job, machine: Machine | undefined): number {
-  return machine?.planes.length ?? Math.max(1, job.setup?.sensors.length ?? 1);
 }
 
 /** How the rotor turns and how its angles count as seen from one sensor's end, for a polar plot. */

@@ -10,7 +10,8 @@ import {
 } from '../../records/record-labels';
 import type { Job } from '../jobs.api';
 import { RunEntry } from '../run-entry';
-import { describeWeight, planeCountOf } from './runs-step';
+import { planeCountOf } from '../job-labels';
+import { describeWeight } from './runs-step';
 
 /** Why a side without a limit is not judged: the level cannot be read as an amplitude there. */
 export function notJudgedReason(job: Job): string {
