@@ -1,4 +1,4 @@
-import { DatePipe } from '@angular/common';
+import { DatePipe, NgTemplateOutlet } from '@angular/common';
 import { HttpErrorResponse } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
@@ -30,7 +30,7 @@ import { baseRunOf, fittedCount, unitLabel } from './correction-view';
  */
 @Component({
   selector: 'app-job-completion-step',
-  imports: [BusyButton, DatePipe, ErrorBanner, MatButtonModule, MatIconModule, RouterLink],
+  imports: [BusyButton, DatePipe, ErrorBanner, MatButtonModule, MatIconModule, NgTemplateOutlet, RouterLink],
   templateUrl: './completion-step.html',
   styleUrl: './completion-step.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
