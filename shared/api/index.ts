@@ -15,3 +15,7 @@ export * from './accounts';
 export * from './records';
 export * from './people-rules';
 export * from './jobs';
+export * from './reports';
+export * from './photos';
+export * from './readings-import';
+export * from './machine-history';

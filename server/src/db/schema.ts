@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import {
   type AnySQLiteColumn,
+  blob,
   check,
   index,
   integer,
@@ -485,4 +486,136 @@ export const jobCorrections = sqliteTable(
     createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull(),
   },
   (table) => [uniqueIndex('job_corrections_job_sequence_idx').on(table.jobId, table.sequence)],
+);
+
+/** A point on a photo, as fractions of its width (`x`) and height (`y`) from the top-left corner. */
+export interface StoredPhotoPoint {
+  readonly x: number;
+  readonly y: number;
+}
+
+/** Where a rotor sits on a photo: its centre, a point on the weight circle, and the reference mark. */
+export interface StoredPhotoCalibration {
+  readonly centre: StoredPhotoPoint;
+  readonly rim: StoredPhotoPoint;
+  readonly referenceMark: StoredPhotoPoint;
+}
+
+/**
+ * Photos of a rotor, on a machine or on a job (never both, never neither). The image as uploaded is never
+ * kept: it is re-encoded (which drops location and camera data) and the re-encoded image and its thumbnail
+ * are stored as files under `data/uploads`, named by the SHA-256 of their content; a row names them. A
+ * removed photo keeps its row (`removed_at`). One photo of a machine may be the correction overlay's
+ * background, with where the rotor sits on it (`calibration`): the partial unique index allows one per
+ * machine.
+ */
+export const photos = sqliteTable(
+  'photos',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    organisationId: integer('organisation_id')
+      .notNull()
+      .references(() => organisations.id),
+    machineId: integer('machine_id').references(() => machines.id),
+    jobId: integer('job_id').references(() => jobs.id),
+    /** The SHA-256 (hex) of the stored, re-encoded image: its file name under `data/uploads`. */
+    sha256: text('sha256').notNull(),
+    /** The SHA-256 (hex) of the stored thumbnail. */
+    thumbnailSha256: text('thumbnail_sha256').notNull(),
+    mediaType: text('media_type', { enum: ['image/jpeg', 'image/png', 'image/webp'] }).notNull(),
+    widthPx: integer('width_px').notNull(),
+    heightPx: integer('height_px').notNull(),
+    byteSize: integer('byte_size').notNull(),
+    caption: text('caption'),
+    calibration: text('calibration', { mode: 'json' }).$type<StoredPhotoCalibration>(),
+    overlayBackground: integer('overlay_background', { mode: 'boolean' }).notNull().default(false),
+    createdById: integer('created_by_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: integer('created_at', { mode: 'timestamp_ms' }).notNull(),
+    removedAt: integer('removed_at', { mode: 'timestamp_ms' }),
+  },
+  (table) => [
+    index('photos_machine_id_idx').on(table.machineId),
+    index('photos_job_id_idx').on(table.jobId),
+    uniqueIndex('photos_machine_overlay_idx')
+      .on(table.machineId)
+      .where(sql`${table.overlayBackground} = 1 and ${table.removedAt} is null`),
+    check('photos_machine_or_job', sql`(${table.machineId} is null) <> (${table.jobId} is null)`),
+  ],
+);
+
+/**
+ * The service reports of a job that were signed: each signing freezes one revision, the PDF exactly as the
+ * customer signed it and the signature itself (a PNG), so that a later change of the job makes a new
+ * revision and never alters a signed one. `source_sha256` is the hash of what the report was built from,
+ * to tell whether the job has changed since. Numbered within the job.
+ */
+export const jobReports = sqliteTable(
+  'job_reports',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    organisationId: integer('organisation_id')
+      .notNull()
+      .references(() => organisations.id),
+    jobId: integer('job_id')
+      .notNull()
+      .references(() => jobs.id),
+    revision: integer('revision').notNull(),
+    /** The job's version the report was built from. */
+    jobVersion: integer('job_version').notNull(),
+    sourceSha256: text('source_sha256').notNull(),
+    signerName: text('signer_name').notNull(),
+    signaturePng: blob('signature_png', { mode: 'buffer' }).notNull(),
+    pdf: blob('pdf', { mode: 'buffer' }).notNull(),
+    pdfSha256: text('pdf_sha256').notNull(),
+    signedById: integer('signed_by_id')
+      .notNull()
+      .references(() => users.id),
+    signedAt: integer('signed_at', { mode: 'timestamp_ms' }).notNull(),
+  },
+  (table) => [uniqueIndex('job_reports_job_revision_idx').on(table.jobId, table.revision)],
+);
+
+/** Every sending of a job's report by e-mail: to whom, which revision, who sent it and when. */
+export const jobReportSendings = sqliteTable(
+  'job_report_sendings',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    organisationId: integer('organisation_id')
+      .notNull()
+      .references(() => organisations.id),
+    jobId: integer('job_id')
+      .notNull()
+      .references(() => jobs.id),
+    /** The signed revision sent, or null when an unsigned report was sent. */
+    reportId: integer('report_id').references(() => jobReports.id),
+    to: text('to').notNull(),
+    /** The message id the mail server was given. */
+    messageId: text('message_id'),
+    sentById: integer('sent_by_id')
+      .notNull()
+      .references(() => users.id),
+    sentAt: integer('sent_at', { mode: 'timestamp_ms' }).notNull(),
+  },
+  (table) => [index('job_report_sendings_job_id_idx').on(table.jobId)],
+);
+
+/**
+ * The attachments of the e-mails the local mail server captured (development and tests), so that an
+ * owner can open a report that went out from the Outbox.
+ */
+export const mailAttachments = sqliteTable(
+  'mail_attachments',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    messageId: integer('message_id')
+      .notNull()
+      .references(() => mailMessages.id),
+    filename: text('filename').notNull(),
+    contentType: text('content_type').notNull(),
+    byteSize: integer('byte_size').notNull(),
+    content: blob('content', { mode: 'buffer' }).notNull(),
+  },
+  (table) => [index('mail_attachments_message_id_idx').on(table.messageId)],
 );
