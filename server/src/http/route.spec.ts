@@ -206,6 +206,98 @@ describe('RouteTable', () => {
     expect(forgotten.headers['content-type']).toContain('application/problem+json');
   });
 
+  it('takes a body that is not JSON through its own parser, and documents answers that are not JSON', async () => {
+    const registry = new OpenAPIRegistry();
+    const table = new RouteTable({
+      basePath: '/api/v1',
+      registry,
+      tag: 'Things',
+      access: { open: { guard: [] } },
+    });
+    table
+      .add({
+        method: 'post',
+        path: '/things/import',
+        summary: 'Count the lines of a CSV file',
+        access: 'open',
+        rawBody: {
+          parse: [express.text({ type: 'text/csv', limit: '1kb' })],
+          content: { 'text/csv': { schema: { type: 'string' } } },
+          description: 'One thing per line.',
+        },
+        answer: { status: 200, description: 'Counted.', schema: Answer },
+        handle: ({ req }) => ({ id: String(req.body).trim().split('\n').length, name: 'lines' }),
+      })
+      .add({
+        method: 'get',
+        path: '/things/export',
+        summary: 'The things as CSV',
+        access: 'open',
+        answer: {
+          status: 200,
+          description: 'The file.',
+          content: { 'text/csv': { schema: { type: 'string', format: 'binary' } } },
+        },
+        handle: ({ res }) => {
+          res.type('text/csv').send('id,name\n3,Drum\n');
+          return undefined;
+        },
+      })
+      .add({
+        method: 'get',
+        path: '/things/forgotten',
+        summary: 'Forget to write the file',
+        access: 'open',
+        answer: {
+          status: 200,
+          description: 'The file.',
+          content: { 'text/csv': { schema: { type: 'string' } } },
+        },
+        handle: () => undefined,
+      });
+    const app = express();
+    app.use('/api/v1', table.router);
+    app.use(problemHandler(() => undefined));
+    const counted = await request(app)
+      .post('/api/v1/things/import')
+      .set('Content-Type', 'text/csv')
+      .send('a\nb\nc\n')
+      .expect(200);
+    expect(counted.body).toEqual({ id: 3, name: 'lines' });
+    const file = await request(app).get('/api/v1/things/export').expect(200);
+    expect(file.headers['content-type']).toContain('text/csv');
+    expect(file.text).toBe('id,name\n3,Drum\n');
+    await request(app).get('/api/v1/things/forgotten').expect(500);
+    const document = buildOpenApiDocument([registry], '0.0.0') as {
+      paths: Record<string, Record<string, { requestBody?: unknown; responses: Record<string, unknown> }>>;
+    };
+    expect(document.paths['/api/v1/things/import']?.['post']?.requestBody).toEqual({
+      required: true,
+      description: 'One thing per line.',
+      content: { 'text/csv': { schema: { type: 'string' } } },
+    });
+    expect(document.paths['/api/v1/things/export']?.['get']?.responses['200']).toEqual({
+      description: 'The file.',
+      content: { 'text/csv': { schema: { type: 'string', format: 'binary' } } },
+    });
+  });
+
+  it('refuses a route declared with both a JSON body and a raw body', () => {
+    const table = new RouteTable({ basePath: '/api/v1', tag: 'Things', access: { open: { guard: [] } } });
+    expect(() =>
+      table.add({
+        method: 'post',
+        path: '/things',
+        summary: 'Both',
+        access: 'open',
+        body: Body,
+        rawBody: { parse: [], content: { 'text/csv': { schema: { type: 'string' } } } },
+        answer: { status: 204, description: 'Nothing.' },
+        handle: () => undefined,
+      }),
+    ).toThrow(/both a JSON body and a raw body/);
+  });
+
   it('documents in a registry of its own unless given one', () => {
     const table = new RouteTable({ basePath: '/api/v1', tag: 'Things', access: { open: { guard: [] } } });
     const other = new RouteTable({ basePath: '/api/v1', tag: 'Things', access: { open: { guard: [] } } });

@@ -34,6 +34,24 @@ export interface RouteAnswer<S extends z.ZodType | undefined> {
   /** An example the schema accepts (the documentation test parses it). */
   readonly example?: S extends z.ZodType ? z.input<S> : never;
   readonly headers?: ResponseConfig['headers'];
+  /**
+   * The documented content of an answer that is not JSON (a PDF, a CSV file, an image), by media type:
+   * `{ 'application/pdf': { schema: { type: 'string', format: 'binary' } } }`. Such a route has no
+   * `schema`, and its handler writes the answer itself (`res.type(...).send(bytes)`).
+   */
+  readonly content?: ResponseConfig['content'];
+}
+
+/**
+ * A request body that is not JSON (a file sent as `multipart/form-data`, a CSV file as `text/csv`): the
+ * middleware that parses it (multer, `express.text`), run after the guard, the parameters and `before`,
+ * and how the OpenAPI document describes it. The handler reads what the parser left (`req.file`,
+ * `req.body`).
+ */
+export interface RawBody {
+  readonly parse: readonly RequestHandler[];
+  readonly content: NonNullable<NonNullable<RouteConfig['request']>['body']>['content'];
+  readonly description?: string;
 }
 
 /** What a handler receives: the parsed, typed parts of the request and the signed-in person, if any. */
@@ -80,6 +98,8 @@ export interface RouteDeclaration<
   readonly body?: B;
   /** An example of the body that the body schema accepts. */
   readonly bodyExample?: B extends z.ZodType ? z.input<B> : never;
+  /** A body that is not JSON, parsed by its own middleware; never together with `body`. */
+  readonly rawBody?: RawBody;
   /** Largest body accepted; 16 kB unless said. */
   readonly bodyLimit?: string;
   readonly answer: RouteAnswer<R>;
@@ -152,6 +172,9 @@ export class RouteTable<A extends string> implements FeatureRoutes {
     R extends z.ZodType | undefined = undefined,
     H extends z.ZodType | undefined = undefined,
   >(route: RouteDeclaration<A, P, Q, B, R, H>): this {
+    if (route.body !== undefined && route.rawBody !== undefined) {
+      throw new Error(`${route.method} ${route.path} declares both a JSON body and a raw body.`);
+    }
     const access = this.options.access[route.access];
     this.register(route, access);
     const handlers: RequestHandler[] = [
@@ -167,6 +190,7 @@ export class RouteTable<A extends string> implements FeatureRoutes {
             validateBody(route.body),
           ]
         : []),
+      ...(route.rawBody?.parse ?? []),
       async (req, res) => {
         const answer = await route.handle({
           params: res.locals.params as Out<P>,
@@ -178,7 +202,7 @@ export class RouteTable<A extends string> implements FeatureRoutes {
         });
         if (res.headersSent) return;
         res.status(route.answer.status);
-        if (route.answer.schema === undefined) res.end();
+        if (route.answer.schema === undefined && route.answer.content === undefined) res.end();
         else if (answer === undefined) throw new Error(`${route.method} ${route.path} answered nothing.`);
         else res.json(answer);
       },
@@ -203,6 +227,7 @@ export class RouteTable<A extends string> implements FeatureRoutes {
       [answer.status]: {
         description: answer.description,
         ...(answer.headers ? { headers: answer.headers } : {}),
+        ...(answer.content ? { content: answer.content } : {}),
         ...(answer.schema
           ? {
               content: {
@@ -216,7 +241,9 @@ export class RouteTable<A extends string> implements FeatureRoutes {
       },
       ...access.responses,
     };
-    if (route.params || route.query || route.headers || route.body) responses[400] = INVALID_INPUT;
+    if (route.params || route.query || route.headers || route.body || route.rawBody) {
+      responses[400] = INVALID_INPUT;
+    }
     for (const [status, problem] of Object.entries(route.problems ?? {})) {
       responses[Number(status)] = typeof problem === 'string' ? problemResponse(problem) : problem;
     }
@@ -242,6 +269,15 @@ export class RouteTable<A extends string> implements FeatureRoutes {
                     ...(route.bodyExample === undefined ? {} : { example: route.bodyExample }),
                   },
                 },
+              },
+            }
+          : {}),
+        ...(route.rawBody
+          ? {
+              body: {
+                required: true,
+                content: route.rawBody.content,
+                ...(route.rawBody.description ? { description: route.rawBody.description } : {}),
               },
             }
           : {}),
