@@ -206,6 +206,20 @@ export const UpdatePersonSchema = z
  */
 export const MASKED_SECRET = '••••••';
 
+/**
+ * A file an e-mail carried, as the Outbox lists it; `GET /api/v1/outbox/{messageId}/attachments/{id}` opens
+ * it.
+ */
+export const OutboxAttachmentSchema = z
+  .object({
+    id: z.number().int().positive(),
+    filename: z.string(),
+    contentType: z.string(),
+    byteSize: z.number().int().nonnegative(),
+  })
+  .meta({ id: 'OutboxAttachment' });
+export type OutboxAttachment = z.infer<typeof OutboxAttachmentSchema>;
+
 /** One e-mail the local SMTP server captured, as the Outbox shows it (`GET /api/v1/outbox`, owner). */
 export const OutboxMessageSchema = z
   .object({
@@ -218,6 +232,8 @@ export const OutboxMessageSchema = z
       .meta({ description: `The plain text, each link's secret replaced by \`${MASKED_SECRET}\`.` }),
     html: z.string().nullable().meta({ description: 'Not kept: always null.' }),
     receivedAt: z.iso.datetime(),
+    /** The files the message carried (a service report's PDF), each opened by its own route. */
+    attachments: z.array(OutboxAttachmentSchema),
   })
   .meta({ id: 'OutboxMessage' });
 export const OutboxSchema = z.object({ messages: z.array(OutboxMessageSchema) }).meta({ id: 'Outbox' });

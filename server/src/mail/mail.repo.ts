@@ -1,6 +1,6 @@
-import { desc, eq } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import type { Orm } from '../db/database';
-import { mailMessages } from '../db/schema';
+import { mailAttachments, mailMessages } from '../db/schema';
 
 /**
  * A captured message as stored: what shows that it went out, its links' secrets masked
@@ -17,19 +17,45 @@ export interface StoredMessage {
   readonly receivedAt: Date;
 }
 
+/** A file a captured message carried, without its bytes. */
+export interface StoredAttachmentSummary {
+  readonly id: number;
+  readonly messageId: number;
+  readonly filename: string;
+  readonly contentType: string;
+  readonly byteSize: number;
+}
+
+/** A file a captured message carried, with its bytes. */
+export interface StoredAttachment extends StoredAttachmentSummary {
+  readonly content: Buffer;
+}
+
 /** How many messages the Outbox shows at most, newest first. */
 export const OUTBOX_LIMIT = 200;
 
-/** The Drizzle queries of `mail_messages`. */
+/** The Drizzle queries of `mail_messages` and `mail_attachments`. */
 export class MailRepo {
   constructor(private readonly orm: Orm) {}
 
-  insert(message: Omit<StoredMessage, 'id'>): number {
-    return this.orm
-      .insert(mailMessages)
-      .values({ ...message, to: JSON.stringify(message.to) })
-      .returning({ id: mailMessages.id })
-      .get().id;
+  /** Stores a message and its attachments in one transaction; answers the message's id. */
+  insert(
+    message: Omit<StoredMessage, 'id'>,
+    attachments: readonly Omit<StoredAttachment, 'id' | 'messageId'>[] = [],
+  ): number {
+    return this.orm.transaction((tx) => {
+      const id = tx
+        .insert(mailMessages)
+        .values({ ...message, to: JSON.stringify(message.to) })
+        .returning({ id: mailMessages.id })
+        .get().id;
+      for (const attachment of attachments) {
+        tx.insert(mailAttachments)
+          .values({ ...attachment, messageId: id })
+          .run();
+      }
+      return id;
+    });
   }
 
   /** The organisation's messages, newest first. */
@@ -42,5 +68,45 @@ export class MailRepo {
       .limit(limit)
       .all()
       .map((row) => ({ ...row, to: JSON.parse(row.to) as string[] }));
+  }
+
+  /** The attachments (without their bytes) of the messages named, in the order they were sent. */
+  attachmentsOf(messageIds: readonly number[]): StoredAttachmentSummary[] {
+    if (messageIds.length === 0) return [];
+    return this.orm
+      .select({
+        id: mailAttachments.id,
+        messageId: mailAttachments.messageId,
+        filename: mailAttachments.filename,
+        contentType: mailAttachments.contentType,
+        byteSize: mailAttachments.byteSize,
+      })
+      .from(mailAttachments)
+      .where(inArray(mailAttachments.messageId, [...messageIds]))
+      .orderBy(asc(mailAttachments.id))
+      .all();
+  }
+
+  /** One attachment of one of the organisation's messages, with its bytes; undefined otherwise. */
+  findAttachment(organisationId: number, messageId: number, id: number): StoredAttachment | undefined {
+    return this.orm
+      .select({
+        id: mailAttachments.id,
+        messageId: mailAttachments.messageId,
+        filename: mailAttachments.filename,
+        contentType: mailAttachments.contentType,
+        byteSize: mailAttachments.byteSize,
+        content: mailAttachments.content,
+      })
+      .from(mailAttachments)
+      .innerJoin(mailMessages, eq(mailMessages.id, mailAttachments.messageId))
+      .where(
+        and(
+          eq(mailAttachments.id, id),
+          eq(mailAttachments.messageId, messageId),
+          eq(mailMessages.organisationId, organisationId),
+        ),
+      )
+      .get();
   }
 }

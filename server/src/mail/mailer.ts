@@ -8,6 +8,17 @@ export interface OutgoingMail {
   readonly subject: string;
   readonly text: string;
   readonly html: string;
+  /** Files sent with the message (a service report's PDF). */
+  readonly attachments?: readonly MailAttachment[];
+  /** The Message-ID to send it under (`<…@…>`), so that the sender can record it; one is drawn otherwise. */
+  readonly messageId?: string;
+}
+
+/** A file sent with an e-mail. */
+export interface MailAttachment {
+  readonly filename: string;
+  readonly contentType: string;
+  readonly content: Buffer;
 }
 
 /** Sends e-mail; resolves once the SMTP server has accepted the message. */
@@ -42,6 +53,16 @@ export function smtpMailer(
         text: mail.text,
         html: mail.html,
         headers: { [ORGANISATION_HEADER]: String(mail.organisationId) },
+        ...(mail.messageId === undefined ? {} : { messageId: mail.messageId }),
+        ...(mail.attachments === undefined
+          ? {}
+          : {
+              attachments: mail.attachments.map((attachment) => ({
+                filename: attachment.filename,
+                contentType: attachment.contentType,
+                content: attachment.content,
+              })),
+            }),
       });
     },
   };

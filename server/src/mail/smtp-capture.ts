@@ -10,8 +10,11 @@ import { maskLinkSecrets } from './mask-secrets';
 /** The header that names the organisation a message belongs to, so that its Outbox can show it. */
 export const ORGANISATION_HEADER = 'X-Counterpoise-Organisation';
 
-/** The largest message the local server takes. */
-const MAX_MESSAGE_BYTES = 2 * 1024 * 1024;
+/**
+ * The largest message the local server takes: a service report's PDF (a few hundred kB, a third more in
+ * base64) fits with room to spare.
+ */
+export const MAX_MESSAGE_BYTES = 8 * 1024 * 1024;
 
 /** A user name and password for SMTP AUTH, in nodemailer's `auth` shape. */
 export interface SmtpCredentials {
@@ -45,7 +48,8 @@ function addressesOf(field: AddressObject | AddressObject[] | undefined): string
  * loopback, so the server draws a user name and password at start and refuses MAIL FROM until a client
  * has authenticated with them (AUTH PLAIN or LOGIN; no TLS, since the password never leaves the
  * machine). It parses each message with mailparser and stores what the Outbox needs to show that it went
- * out (sender, recipients, subject, time, and the plain text with every link's secret masked): never a
+ * out (sender, recipients, subject, time, the plain text with every link's secret masked, and the files it
+ * carried, such as a service report, so that an owner can open what the customer received): never a
  * link that works, nor the HTML part, so that reading the database or the Outbox takes over no account.
  * The server answers the client only once the message is stored, so a sender told "sent" finds it there.
  */
@@ -79,16 +83,33 @@ export async function startSmtpCapture(deps: {
     onData(stream, _session, callback) {
       simpleParser(stream)
         .then((parsed) => {
+          // smtp-server only announces the size; a message past it is read to its end and refused here.
+          if ((stream as { sizeExceeded?: boolean }).sizeExceeded) {
+            callback(
+              Object.assign(new Error(`The message is larger than ${MAX_MESSAGE_BYTES} bytes.`), {
+                responseCode: 552,
+              }),
+            );
+            return;
+          }
           const organisation = Number(parsed.headers.get(ORGANISATION_HEADER.toLowerCase()));
-          repo.insert({
-            organisationId: Number.isSafeInteger(organisation) && organisation > 0 ? organisation : null,
-            from: parsed.from?.text ?? '',
-            to: addressesOf(parsed.to),
-            subject: maskLinkSecrets(parsed.subject ?? ''),
-            text: maskLinkSecrets(parsed.text ?? ''),
-            html: null,
-            receivedAt: deps.clock.now(),
-          });
+          repo.insert(
+            {
+              organisationId: Number.isSafeInteger(organisation) && organisation > 0 ? organisation : null,
+              from: parsed.from?.text ?? '',
+              to: addressesOf(parsed.to),
+              subject: maskLinkSecrets(parsed.subject ?? ''),
+              text: maskLinkSecrets(parsed.text ?? ''),
+              html: null,
+              receivedAt: deps.clock.now(),
+            },
+            parsed.attachments.map((attachment) => ({
+              filename: attachment.filename ?? 'attachment',
+              contentType: attachment.contentType,
+              byteSize: attachment.content.length,
+              content: attachment.content,
+            })),
+          );
           callback();
         })
         .catch((error: unknown) => {
