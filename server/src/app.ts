@@ -1,5 +1,6 @@
 import { existsSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { tmpdir } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
 import express, { type Express, Router } from 'express';
 import { randomBytes } from 'node:crypto';
 import { AccountsRepo } from './accounts/accounts.repo';
@@ -42,6 +43,15 @@ import { MachinesService } from './machines/machines.service';
 import { JobsRepo } from './jobs/jobs.repo';
 import { jobsRouter } from './jobs/jobs.router';
 import { JobsService } from './jobs/jobs.service';
+import { readingsImportRouter } from './readings-import/readings-import.router';
+import { ReadingsImportService } from './readings-import/readings-import.service';
+import { PhotoStore } from './photos/photo-store';
+import { PhotosRepo } from './photos/photos.repo';
+import { photosRouter } from './photos/photos.router';
+import { PhotosService } from './photos/photos.service';
+import { MachineHistoryRepo } from './machine-history/machine-history.repo';
+import { machineHistoryRouter } from './machine-history/machine-history.router';
+import { MachineHistoryService } from './machine-history/machine-history.service';
 import { buildOpenApiDocument, openApiRouter } from './openapi/openapi';
 import { UsageLog } from './usage/usage-log';
 import { documentedPaths } from './usage/usage.recorder';
@@ -56,6 +66,8 @@ export interface AppDeps {
   readonly version?: string;
   /** The built workbench (`dist/workbench/browser`); the app is not served when absent. */
   readonly staticDir?: string;
+  /** Where photos are stored (`UPLOADS_DIR`); `uploads/` beside the database file when absent. */
+  readonly uploadsDir?: string;
   readonly log?: (message: string, error?: unknown) => void;
   /**
    * The usage log of keyed requests. main.ts builds it so that it can `close()` it at shutdown, after
@@ -227,6 +239,43 @@ export function createApp(deps: AppDeps): Express {
       },
       jobs: new JobsService(new JobsRepo(deps.database.orm), families, clock),
     }),
+    // A job's run readings imported from a CSV file, through the jobs' service's own rules.
+    readingsImportRouter({
+      access: { write: signedInAccess(auth, 'jobs:write', 'jobs:write-any') },
+      imports: new ReadingsImportService(
+        deps.database.orm,
+        new JobsService(new JobsRepo(deps.database.orm), families, clock),
+      ),
+    }),
+    // A machine's job history and the CSV export of the shop's jobs, read through the jobs' service.
+    machineHistoryRouter({
+      access: {
+        history: signedInAccess(auth, 'jobs:read'),
+        export: signedInAccess(auth, 'reports:read'),
+      },
+      history: new MachineHistoryService(
+        new MachineHistoryRepo(deps.database.orm),
+        new JobsService(new JobsRepo(deps.database.orm), families, clock),
+        new MachinesService(new MachinesRepo(deps.database.orm), recordChanges, clock),
+        families,
+      ),
+    }),
+    // Photos of machines and jobs, stored by content hash under the uploads folder.
+    photosRouter({
+      access: {
+        readMachines: signedInAccess(auth, 'records:read'),
+        writeMachines: signedInAccess(auth, 'machines:write'),
+        readJobs: signedInAccess(auth, 'jobs:read'),
+        writeJobs: signedInAccess(auth, 'jobs:write', 'jobs:write-any'),
+        read: signedInAccess(auth, 'records:read', 'jobs:read'),
+        change: signedInAccess(auth, 'machines:write', 'jobs:write'),
+      },
+      photos: new PhotosService(
+        new PhotosRepo(deps.database.orm),
+        new PhotoStore(deps.uploadsDir ?? uploadsBesideDatabase(deps.database)),
+        clock,
+      ),
+    }),
   ];
   // The usage report sits behind the keyed chain, which has checked the key or the access token; its
   // guard is the chain's permission check.
@@ -300,6 +349,13 @@ export function createApp(deps: AppDeps): Express {
 
   app.use(problemHandler(log));
   return app;
+}
+
+/** `uploads/` in the folder of the database file (a folder of its own under the system's for one in memory). */
+function uploadsBesideDatabase(database: Database): string {
+  const file = database.sqlite.name;
+  if (file === ':memory:' || file === '') return join(tmpdir(), `counterpoise-uploads-${process.pid}`);
+  return join(dirname(resolve(file)), 'uploads');
 }
 
 /**
