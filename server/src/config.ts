@@ -1,4 +1,5 @@
 import { isIP } from 'node:net';
+import { dirname, join } from 'node:path';
 import * as z from 'zod';
 import { MAX_LIMIT_PER_MINUTE } from '@counterpoise/api';
 
@@ -117,6 +118,11 @@ const ConfigSchema = z.object({
   PASSWORD_HASH_COST: z.coerce.number().int().min(10).max(20).default(15),
   /** Calculations per minute a signed-in person may ask of the calculator routes. */
   USER_CALC_LIMIT: z.coerce.number().int().min(1).max(MAX_LIMIT_PER_MINUTE).default(600),
+  /**
+   * The folder of the photos' files (re-encoded images and thumbnails, named by their SHA-256). Unset,
+   * `uploads` beside the database file: `data/uploads` by default.
+   */
+  UPLOADS_DIR: z.string().trim().min(1).optional(),
 });
 
 /** The settings completed with the defaults that depend on one another. */
@@ -124,6 +130,7 @@ const CompletedConfigSchema = ConfigSchema.transform(({ SEED_DEMO, ...settings }
   ...settings,
   // A production server must not hand out the README's password and a working key unless asked to.
   SEED_DEMO: SEED_DEMO ?? settings.NODE_ENV !== 'production',
+  UPLOADS_DIR: settings.UPLOADS_DIR ?? join(dirname(settings.DATABASE_URL), 'uploads'),
   /** Whether SEED_DEMO was set or follows NODE_ENV, so that the start-up can say why. */
   seedDemoSetBy: SEED_DEMO === undefined ? ('NODE_ENV' as const) : ('SEED_DEMO' as const),
 }));

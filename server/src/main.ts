@@ -31,7 +31,7 @@ async function main(): Promise<void> {
   const migrations = migrateDatabase(database);
   const dataDir = dirname(config.DATABASE_URL);
   const seed = config.SEED_DEMO
-    ? seedDemoData(database, systemClock.now(), DEMO_SEEDERS, { dataDir })
+    ? seedDemoData(database, systemClock.now(), DEMO_SEEDERS, { dataDir, uploadsDir: config.UPLOADS_DIR })
     : { seeded: false };
   const demoData = demoDataNotice(
     config,
@@ -59,6 +59,7 @@ async function main(): Promise<void> {
     clock: systemClock,
     version: VERSION,
     staticDir: config.STATIC_DIR,
+    uploadsDir: config.UPLOADS_DIR,
     usageLog,
     corsOrigins: config.CORS_ORIGINS,
     // Behind HTTPS (the cookie is Secure), browsers are told to keep to HTTPS too.

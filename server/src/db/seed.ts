@@ -9,6 +9,8 @@ export const DEMO_SEEDED_KEY = 'demo-seeded-at';
 export interface DemoSeedContext {
   /** The folder of the SQLite file (`data/` by default, which git ignores). */
   readonly dataDir: string;
+  /** The photos' folder (`UPLOADS_DIR`); `uploads` in `dataDir` when absent. */
+  readonly uploadsDir?: string;
 }
 
 /** What one feature adds to the demo data; runs inside the seed's transaction. */
