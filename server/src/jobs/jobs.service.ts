@@ -240,39 +240,72 @@ export class JobsService {
 
   addRun(actor: JobActor, id: number, versions: readonly number[], body: AddRun): Job {
     return this.change(actor, id, versions, WORKING, (job) => {
+      this.insertRun(actor, job, body);
+      return {};
+    });
+  }
+
+  /**
+   * Several runs added in one transaction, in order (a file of readings), each checked and averaged exactly
+   * as `addRun` does, with one new version for them all. A run the job refuses throws, and nothing is
+   * stored; with `refused`, it is handed there with its index and left out instead, so that every run is
+   * judged (the caller then decides whether to keep what landed).
+   */
+  addRuns(
+    actor: JobActor,
+    id: number,
+    versions: readonly number[],
+    bodies: readonly AddRun[],
+    refused?: (index: number, problem: HttpProblem) => void,
+  ): Job {
+    return this.change(actor, id, versions, WORKING, (job) => {
       this.requireInspected(job);
-      const setup = job.setup;
-      if (setup === null) throw conflict('Record the set-up first.');
-      const machine = this.repo.findMachine(actor.organisationId, job.machineId)!;
-      const radii = machine.planes.map((plane) => plane.correctionRadiusMm);
-      const runs = this.repo.runsOf(actor.organisationId, job.id);
-      const corrections = this.repo.correctionsOf(actor.organisationId, job.id);
-      this.checkSensors(setup, body.readings);
-      const initial = runs.find((run) => run.kind === 'initial');
-      if (body.kind === 'initial' && initial !== undefined)
-        throw conflict('The job has its initial run already.');
-      if (body.kind !== 'initial' && initial === undefined) throw conflict('Take the initial run first.');
-      if (body.trialWeight !== undefined && body.trialWeight.planeIndex >= radii.length) {
-        throw badField('trialWeight.planeIndex', `The machine has ${radii.length} plane(s).`);
-      }
-      const onRotor = installedSoFar(corrections, radii);
-      if (body.kind === 'verification' && onRotor.length === 0) {
-        throw conflict('Record the weights installed before a verification run.');
-      }
-      const averaged = averageRun(body.readings, initial === undefined ? undefined : runSpeedRpm(initial));
-      this.repo.insertRun({
-        organisationId: actor.organisationId,
-        jobId: job.id,
-        sequence: runs.length + 1,
-        kind: body.kind,
-        trialWeight: body.trialWeight ?? null,
-        weightsOnRotor: onRotor,
-        readings: averaged.readings,
-        warnings: averaged.warnings,
-        createdById: actor.id,
-        createdAt: this.clock.now(),
+      if (job.setup === null) throw conflict('Record the set-up first.');
+      bodies.forEach((body, index) => {
+        try {
+          this.insertRun(actor, job, body);
+        } catch (error) {
+          if (refused === undefined || !(error instanceof HttpProblem)) throw error;
+          refused(index, error);
+        }
       });
       return {};
+    });
+  }
+
+  /** Checks a run against the job as stored (sensors, kinds in order, planes, weights), averages and inserts it. */
+  private insertRun(actor: JobActor, job: JobRow, body: AddRun): void {
+    this.requireInspected(job);
+    const setup = job.setup;
+    if (setup === null) throw conflict('Record the set-up first.');
+    const machine = this.repo.findMachine(actor.organisationId, job.machineId)!;
+    const radii = machine.planes.map((plane) => plane.correctionRadiusMm);
+    const runs = this.repo.runsOf(actor.organisationId, job.id);
+    const corrections = this.repo.correctionsOf(actor.organisationId, job.id);
+    this.checkSensors(setup, body.readings);
+    const initial = runs.find((run) => run.kind === 'initial');
+    if (body.kind === 'initial' && initial !== undefined)
+      throw conflict('The job has its initial run already.');
+    if (body.kind !== 'initial' && initial === undefined) throw conflict('Take the initial run first.');
+    if (body.trialWeight !== undefined && body.trialWeight.planeIndex >= radii.length) {
+      throw badField('trialWeight.planeIndex', `The machine has ${radii.length} plane(s).`);
+    }
+    const onRotor = installedSoFar(corrections, radii);
+    if (body.kind === 'verification' && onRotor.length === 0) {
+      throw conflict('Record the weights installed before a verification run.');
+    }
+    const averaged = averageRun(body.readings, initial === undefined ? undefined : runSpeedRpm(initial));
+    this.repo.insertRun({
+      organisationId: actor.organisationId,
+      jobId: job.id,
+      sequence: runs.length + 1,
+      kind: body.kind,
+      trialWeight: body.trialWeight ?? null,
+      weightsOnRotor: onRotor,
+      readings: averaged.readings,
+      warnings: averaged.warnings,
+      createdById: actor.id,
+      createdAt: this.clock.now(),
     });
   }
 
