@@ -4,6 +4,7 @@ import { seedDemoApiKey } from '../keys/keys.seed';
 import { seedDemoMachineFamilies } from '../machine-families/machine-families.seed';
 import { seedDemoJobs } from '../jobs/jobs.seed';
 import { seedDemoMachines } from '../machines/machines.seed';
+import { seedDemoPhotos } from '../photos/photos.seed';
 import type { DemoSeeder } from './seed';
 
 /**
@@ -18,4 +19,5 @@ export const DEMO_SEEDERS: readonly DemoSeeder[] = [
   seedDemoMachineFamilies,
   seedDemoMachines,
   seedDemoJobs,
+  seedDemoPhotos,
 ];
