@@ -68,6 +68,8 @@ export const MachineHistoryJobSchema = z
     /** The unit the job was read in; null before its set-up. */
     unit: AmplitudeUnitSchema.nullable(),
     operatingSpeedRpm: z.number().nullable(),
+    /** How the job counted weight angles from the reference mark; null before its set-up. */
+    weightAngles: z.enum(['againstRotation', 'withRotation']).nullable(),
     /** The acceptance level the job was judged against (the machine's, else its family's). */
     acceptance: AcceptanceLevelSchema.nullable(),
     /** Whether the job ended within the acceptance level; null while it has no after reading. */

@@ -87,6 +87,7 @@ export function historyJobOf(job: Job, historyUnit: AmplitudeUnit | null): Machi
     methods: [...new Set(job.corrections.map((correction) => correction.method))],
     unit,
     operatingSpeedRpm: job.setup?.operatingSpeedRpm ?? null,
+    weightAngles: job.setup?.weightAngles ?? null,
     acceptance: job.verification?.acceptance ?? null,
     accepted: job.completion?.accepted ?? verdict?.accepted ?? null,
     sides,

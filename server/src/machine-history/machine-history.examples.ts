@@ -22,6 +22,7 @@ export const MACHINE_JOB_HISTORY_EXAMPLE: MachineHistory = {
       methods: ['multi-plane'],
       unit: 'mm/s-rms',
       operatingSpeedRpm: 2150,
+      weightAngles: 'againstRotation',
       acceptance: ACCEPTANCE,
       accepted: true,
       sides: [
@@ -45,6 +46,7 @@ export const MACHINE_JOB_HISTORY_EXAMPLE: MachineHistory = {
       methods: ['single-plane'],
       unit: 'in/s-pk',
       operatingSpeedRpm: 2150,
+      weightAngles: 'againstRotation',
       acceptance: ACCEPTANCE,
       accepted: true,
       sides: [

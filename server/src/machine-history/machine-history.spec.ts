@@ -192,6 +192,7 @@ describe('a machine’s job history', () => {
         methods: ['multi-plane'],
         unit,
         operatingSpeedRpm: 2150,
+        weightAngles: 'againstRotation',
         acceptance: job.verification!.acceptance,
         accepted: job.completion!.accepted,
         weightsFitted: job.corrections.flatMap((correction) => correction.installed ?? []),
