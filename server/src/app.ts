@@ -43,6 +43,9 @@ import { MachinesService } from './machines/machines.service';
 import { JobsRepo } from './jobs/jobs.repo';
 import { jobsRouter } from './jobs/jobs.router';
 import { JobsService } from './jobs/jobs.service';
+import { ReportsRepo } from './reports/reports.repo';
+import { reportsRouter } from './reports/reports.router';
+import { ReportsService } from './reports/reports.service';
 import { readingsImportRouter } from './readings-import/readings-import.router';
 import { ReadingsImportService } from './readings-import/readings-import.service';
 import { PhotoStore } from './photos/photo-store';
@@ -238,6 +241,19 @@ export function createApp(deps: AppDeps): Express {
         manage: signedInAccess(auth, 'jobs:write-any'),
       },
       jobs: new JobsService(new JobsRepo(deps.database.orm), families, clock),
+    }),
+    // The service report of a completed job: signed by the customer, frozen per revision, sent by e-mail.
+    reportsRouter({
+      access: {
+        read: signedInAccess(auth, 'reports:read'),
+        write: signedInAccess(auth, 'jobs:write', 'jobs:write-any'),
+      },
+      reports: new ReportsService(
+        new JobsService(new JobsRepo(deps.database.orm), families, clock),
+        new ReportsRepo(deps.database.orm),
+        mailer,
+        clock,
+      ),
     }),
     // A job's run readings imported from a CSV file, through the jobs' service's own rules.
     readingsImportRouter({

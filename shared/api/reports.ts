@@ -29,6 +29,8 @@ export const REPORTS_PROBLEM_CODES = {
   reportOutdated: 'REPORT_OUTDATED',
   /** No address to send to: the customer has none on record and none was given (400 on `to`). */
   noAddress: 'NO_ADDRESS',
+  /** Other signings of the same report kept taking the next revision number (409): sign once more. */
+  signingBusy: 'SIGNING_BUSY',
   /** The mail server did not take the message (502); nothing was recorded. */
   mailNotSent: 'MAIL_NOT_SENT',
 } as const;
