@@ -6,7 +6,7 @@ import { provideRouter, Router, withComponentInputBinding } from '@angular/route
 import { RouterTestingHarness } from '@angular/router/testing';
 import { BehaviorSubject, map } from 'rxjs';
 import { RouteStandIn } from '../auth/testing';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { Outbox } from '../auth/api-types';
 import { MASKED_SECRET } from './message-text';
 import { OutboxPage } from './outbox-page';
@@ -23,6 +23,7 @@ const OUTBOX: Outbox = {
       text: 'Marit Okafor invites you to join.\n\nAccept: https://shop.example.com/accept-invitation?token=inv-1\n',
       html: '<p>Marit Okafor invites you to join.</p>',
       receivedAt: '2026-05-04T08:00:00.000Z',
+      attachments: [],
     },
     {
       id: 2,
@@ -32,6 +33,7 @@ const OUTBOX: Outbox = {
       text: `Choose a new password here: ${ORIGIN}/reset-password?token=rst-2\nThe link works once.`,
       html: null,
       receivedAt: '2026-05-05T09:30:00.000Z',
+      attachments: [],
     },
   ],
 };
@@ -144,6 +146,73 @@ describe('OutboxPage', () => {
     element().querySelector<HTMLAnchorElement>('a.back')?.click();
     await harness.fixture.whenStable();
     expect(document.activeElement?.id).toBe('message-1');
+  });
+
+  it('lists a report’s PDF with the message and downloads it through the data service', async () => {
+    const report = {
+      ...OUTBOX.messages[1]!,
+      id: 4,
+      subject: 'Service report J-000042 from Ridgeline Rotor Service',
+      text: 'The report is attached as a PDF file.\n',
+      attachments: [
+        { id: 9, filename: 'report-J-000042-r1.pdf', contentType: 'application/pdf', byteSize: 48213 },
+      ],
+    };
+    const created: string[] = [];
+    const clicked: string[] = [];
+    URL.createObjectURL = vi.fn((blob: Blob) => {
+      created.push(blob.type);
+      return 'blob:report';
+    });
+    URL.revokeObjectURL = vi.fn();
+    const click = vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(function (
+      this: HTMLAnchorElement,
+    ) {
+      clicked.push(this.download);
+    });
+    try {
+      const harness = await RouterTestingHarness.create('/outbox?message=4');
+      http.expectOne(OUTBOX_URL).flush({ messages: [report] });
+      await harness.fixture.whenStable();
+      const element = harness.routeNativeElement as HTMLElement;
+      expect(element.querySelector('.item')?.textContent).toContain('1 attachment');
+      const button = element.querySelector<HTMLButtonElement>('[data-testid=attachments] button');
+      expect(button?.textContent).toContain('report-J-000042-r1.pdf');
+      expect(button?.textContent).toContain('(47 kB)');
+      button?.click();
+      const request = http.expectOne(`${OUTBOX_URL}/4/attachments/9`);
+      expect(request.request.responseType).toBe('blob');
+      request.flush(new Blob(['%PDF-1.7'], { type: 'application/pdf' }), {
+        headers: { 'Content-Disposition': 'attachment; filename="report-J-000042-r1.pdf"' },
+      });
+      await harness.fixture.whenStable();
+      expect(created).toEqual(['application/pdf']);
+      expect(clicked).toEqual(['report-J-000042-r1.pdf']);
+    } finally {
+      click.mockRestore();
+    }
+  });
+
+  it('says when an attachment cannot be fetched', async () => {
+    const report = {
+      ...OUTBOX.messages[1]!,
+      id: 5,
+      attachments: [
+        { id: 10, filename: 'report-J-000042-r2.pdf', contentType: 'application/pdf', byteSize: 900 },
+      ],
+    };
+    const harness = await RouterTestingHarness.create('/outbox?message=5');
+    http.expectOne(OUTBOX_URL).flush({ messages: [report] });
+    await harness.fixture.whenStable();
+    const element = harness.routeNativeElement as HTMLElement;
+    element.querySelector<HTMLButtonElement>('[data-testid=attachments] button')?.click();
+    http
+      .expectOne(`${OUTBOX_URL}/5/attachments/10`)
+      .flush(new Blob(['{}']), { status: 404, statusText: 'Not Found' });
+    await harness.fixture.whenStable();
+    expect(element.querySelector('.attachments__error')?.textContent).toContain(
+      'report-J-000042-r2.pdf could not be fetched.',
+    );
   });
 
   it('says when nothing has been sent yet', async () => {

@@ -9,6 +9,7 @@ import {
   Injector,
   inject,
   input,
+  signal,
   untracked,
 } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
@@ -16,10 +17,13 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { Router, RouterLink } from '@angular/router';
-import { map } from 'rxjs';
+import { firstValueFrom, map } from 'rxjs';
+import type { OutboxAttachment } from '@counterpoise/api';
 import { hasMaskedSecret, linkify, MASKED_SECRET, pathInApp } from './message-text';
 import { OutboxApi } from './outbox.api';
 import { ErrorBanner } from '../forms/error-banner';
+import { saveFile } from '../reports/reports.api';
+import { httpErrorMessage } from '../shell/server-errors';
 
 /** From this width the list and the open message sit side by side. */
 const TWO_PANES = '(min-width: 960px)';
@@ -46,7 +50,11 @@ export class OutboxPage {
   private readonly injector = inject(Injector);
   private lastOpen: number | null = null;
 
-  protected readonly outbox = inject(OutboxApi).listResource();
+  private readonly api = inject(OutboxApi);
+  protected readonly outbox = this.api.listResource();
+  /** The attachment being fetched, and why the last one could not be. */
+  protected readonly fetching = signal<number | null>(null);
+  protected readonly attachmentError = signal<string | null>(null);
   /** Newest first: the message just sent is the one being looked for. */
   protected readonly messages = computed(() =>
     // value() throws while the resource is in error, hence hasValue() first.
@@ -84,6 +92,26 @@ export class OutboxPage {
         { injector: this.injector },
       );
     });
+  }
+
+  /** Downloads a file the message carried, through the data service (with the session's credentials). */
+  protected async openAttachment(messageId: number, attachment: OutboxAttachment): Promise<void> {
+    this.attachmentError.set(null);
+    this.fetching.set(attachment.id);
+    try {
+      saveFile(this.document, await firstValueFrom(this.api.attachment(messageId, attachment.id)));
+    } catch (error) {
+      this.attachmentError.set(`${attachment.filename} could not be fetched. ${httpErrorMessage(error)}`);
+    } finally {
+      this.fetching.set(null);
+    }
+  }
+
+  /** A file's size as people read it: "48 kB". */
+  protected size(bytes: number): string {
+    if (bytes < 1024) return `${bytes} bytes`;
+    if (bytes < 1024 * 1024) return `${Math.round(bytes / 1024)} kB`;
+    return `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
   }
 
   /** Links to this app stay in the page; others open beside it. */

@@ -16,6 +16,7 @@ const OUTBOX: Outbox = {
       text: 'Hello,\n',
       html: null,
       receivedAt: '2026-05-07T08:00:00.000Z',
+      attachments: [],
     },
   ],
 };

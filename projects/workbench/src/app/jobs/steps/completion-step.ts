@@ -6,6 +6,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import { BusyButton } from '../../forms/busy-button';
 import { ErrorBanner } from '../../forms/error-banner';
+import { ReportPanel } from '../../reports/report-panel';
 import type { MachineFamily } from '../../machine-families/machine-families.api';
 import type { Machine } from '../../machines/machines.api';
 import {
@@ -26,11 +27,21 @@ import { baseRunOf, fittedCount, unitLabel } from './correction-view';
  * Step 7 of a job: what completing it records (before and after per side, whether it ends within its
  * acceptance level, the weights fitted, the family's sensitivity refined), "Complete the job" once the
  * server allows it, and afterwards the record as the server stored it: before and after, the weights now
- * on the rotor, the influence coefficients measured, and the family's stored sensitivity as refined.
+ * on the rotor, the influence coefficients measured, and the family's stored sensitivity as refined; and the
+ * service report (`ReportPanel`): the customer's signature, the revisions and the e-mail to the customer.
  */
 @Component({
   selector: 'app-job-completion-step',
-  imports: [BusyButton, DatePipe, ErrorBanner, MatButtonModule, MatIconModule, NgTemplateOutlet, RouterLink],
+  imports: [
+    BusyButton,
+    DatePipe,
+    ErrorBanner,
+    MatButtonModule,
+    MatIconModule,
+    NgTemplateOutlet,
+    ReportPanel,
+    RouterLink,
+  ],
   templateUrl: './completion-step.html',
   styleUrl: './completion-step.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
