@@ -79,7 +79,7 @@ describe('endViewSvg', () => {
     expect(svg).toContain('W1 125 g at 210°');
     expect(svg).toContain(escapeXml('W2 <40 g> at 215°'));
     expect(svg).not.toContain('<40 g>');
-    // Two weights 5° apart: the second label steps outwards, so their labels do not share a spot.
+    // Two weights 5° apart: the second label steps inwards, so their labels do not share a spot.
     const labels = [...svg.matchAll(/<text x="([\d.-]+)" y="([\d.-]+)"[^>]*fill="#175cd3">/g)].map((m) => [
       Number(m[1]),
       Number(m[2]),

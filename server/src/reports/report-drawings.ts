@@ -151,7 +151,14 @@ export function polarPlotSvg(options: {
       `<line x1="${centre.x}" y1="${centre.y}" x2="${tip.x}" y2="${tip.y}" stroke="${colour}" stroke-width="1.6"/>`,
       `<circle cx="${tip.x}" cy="${tip.y}" r="3" fill="${colour}"/>`,
     );
-    const label = pointAt(centre, r + fontSize * 1.2, point.phaseDeg, counting);
+    // The label beyond the tip, or beside the centre when the arrow is too short to carry it.
+    const label =
+      r < fontSize * 2
+        ? {
+            x: round(centre.x + fontSize * 2.2),
+            y: round(centre.y + (point.kind === 'before' ? -1 : 1) * fontSize),
+          }
+        : pointAt(centre, r + fontSize * 1.2, point.phaseDeg, counting);
     parts.push(
       `<text x="${label.x}" y="${round(label.y + fontSize / 3)}" font-size="${fontSize}" text-anchor="middle" fill="${colour}">${escapeXml(point.label)}</text>`,
     );
@@ -169,7 +176,7 @@ export interface EndViewWeight {
 /**
  * The end view of one correction plane as the technician sees it from its side: the rim, ticks every
  * 30°, the reference mark at 0°, an arrow showing the rotation, and each weight as a dot on the rim with
- * its label outside it (labels of weights closer than 25° are stepped outwards so that they do not sit
+ * its label just inside it (labels of weights closer than 25° are stepped inwards so that they do not sit
  * on each other).
  */
 export function endViewSvg(options: {
@@ -181,7 +188,7 @@ export function endViewSvg(options: {
   const { size, counting } = options;
   const fontSize = Math.max(6, Math.round(size / 28));
   const centre = { x: size / 2, y: size / 2 + fontSize * 0.5 };
-  const radius = size / 2 - fontSize * 4.2;
+  const radius = size / 2 - fontSize * 3;
   const parts: string[] = [
     `<svg xmlns="http://www.w3.org/2000/svg" width="${size}" height="${size}" viewBox="0 0 ${size} ${size}">`,
     `<circle cx="${centre.x}" cy="${centre.y}" r="${round(radius)}" fill="#f5f7fa" stroke="${INK}" stroke-width="1.4"/>`,
@@ -215,9 +222,9 @@ export function endViewSvg(options: {
     step = weight.angleDeg - previousAngle < 25 ? step + 1 : 0;
     previousAngle = weight.angleDeg;
     const dot = pointAt(centre, radius, weight.angleDeg, counting);
-    const labelAt = pointAt(centre, radius + fontSize * (2.2 + step * 1.3), weight.angleDeg, counting);
-    const anchor =
-      Math.abs(labelAt.x - centre.x) < radius * 0.25 ? 'middle' : labelAt.x > centre.x ? 'start' : 'end';
+    // Inside the rim, where neither the angle labels nor the reference mark stand; close weights step inwards.
+    const labelAt = pointAt(centre, radius - fontSize * (1.8 + step * 1.3), weight.angleDeg, counting);
+    const anchor = 'middle';
     parts.push(
       `<line x1="${centre.x}" y1="${centre.y}" x2="${dot.x}" y2="${dot.y}" stroke="${AFTER}" stroke-width="0.6" stroke-dasharray="2 2"/>`,
       `<circle cx="${dot.x}" cy="${dot.y}" r="4.5" fill="${AFTER}" stroke="#ffffff" stroke-width="1"/>`,

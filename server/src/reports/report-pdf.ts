@@ -270,13 +270,19 @@ function weightsSection(source: ReportSource): Content[] {
         .map((weight, index) => ({ weight, index }))
         .filter(({ weight }) => weight.planeIndex === planeIndex)
         .map(({ weight, index }) => ({
-          label: `W${index + 1} ${formatFigure(weight.massGrams, 4)} g at ${formatFigure(weight.angleDeg, 4)}°`,
+          label: `W${index + 1}`,
           angleDeg: weight.angleDeg,
+          legend:
+            `W${index + 1}: ${formatFigure(weight.massGrams, 4)} g at ${formatFigure(weight.angleDeg, 4)}°, ` +
+            `${formatFigure(weight.radiusMm, 4)} mm, ${weight.fixing}`,
         }));
       return {
         stack: [
           { text: `${planeName(planeIndex, count)}, seen from the ${side} end`, style: 'figureTitle' },
           { svg: endViewSvg({ size: 230, rotation, counting, weights }), width: 230 },
+          ...(weights.length === 0
+            ? [{ text: 'No weight fitted in this plane.', style: 'value' } as Content]
+            : weights.map((weight) => ({ text: weight.legend, style: 'value' }) as Content)),
           {
             text:
               `The rotor turns ${rotation === 'clockwise' ? 'clockwise' : 'counter-clockwise'} seen from here (arrow); ` +
@@ -595,8 +601,7 @@ export function reportDocument(
       ...readingsSection(source),
       section('Weights fitted'),
       ...weightsSection(source),
-      section('Acceptance'),
-      ...acceptanceSection(source),
+      { stack: [section('Acceptance'), ...acceptanceSection(source)], unbreakable: true },
       {
         stack: [
           section('Safety notice'),

@@ -88,7 +88,7 @@ describe('the report’s PDF', () => {
     expect(whole).toContain(
       `W1 Plane (correction 1) ${formatFigure(done.weight.massGrams, 4)} ${done.weight.angleDeg}° 210 Welded`,
     );
-    expect(whole).toContain(`W1 ${done.weight.massGrams} g at ${done.weight.angleDeg}°`);
+    expect(whole).toContain(`W1: ${done.weight.massGrams} g at ${done.weight.angleDeg}°, 210 mm, welded`);
     expect(whole).toContain('Shop target: 0.15 in/s peak or less on each side');
     expect(whole).toContain('set for the machine family');
     expect(whole).toContain('Met on every side');
