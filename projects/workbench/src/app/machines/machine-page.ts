@@ -25,6 +25,7 @@ import { idFromRoute, recordView } from '../records/record-page';
 import { describePlane, MACHINE_FIELDS } from './machine-form-model';
 import { type Machine, MachinesApi, type PlaneLayout } from './machines.api';
 import { ErrorBanner } from '../forms/error-banner';
+import { PhotoGallery } from '../photos/photo-gallery';
 
 /**
  * One machine: whose it is, its family, identity and running figures, its sensors and direction of
@@ -43,6 +44,7 @@ import { ErrorBanner } from '../forms/error-banner';
     MatButtonModule,
     MatIconModule,
     MatProgressSpinnerModule,
+    PhotoGallery,
     RouterLink,
   ],
   templateUrl: './machine-page.html',

@@ -53,6 +53,10 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
   });
 
   afterEach(() => {
+    // The step asks for the machine's photos (its overlay background); these specs draw without one.
+    for (const request of http.match((each) => each.url.endsWith('/photos'))) {
+      if (!request.cancelled) request.flush({ photos: [], limit: 40 });
+    }
     http.verify();
     localStorage.clear();
   });

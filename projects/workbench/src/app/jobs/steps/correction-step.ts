@@ -1,4 +1,5 @@
 import { HttpErrorResponse } from '@angular/common/http';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -25,7 +26,11 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
-import { CpCorrectionOverlay, type OverlayWeight } from '@counterpoise/ng/correction-overlay';
+import {
+  CpCorrectionOverlay,
+  type OverlayWeight,
+  type RotorPhoto,
+} from '@counterpoise/ng/correction-overlay';
 import { BusyButton } from '../../forms/busy-button';
 import { ErrorBanner } from '../../forms/error-banner';
 import type { MachineFamily } from '../../machine-families/machine-families.api';
@@ -41,6 +46,8 @@ import {
 import { formErrorOf, httpErrorMessage, problemOf } from '../../shell/server-errors';
 import { JobDrafts } from '../job-drafts';
 import { JobSession } from '../job-session';
+import { type Photo, PhotosApi } from '../../photos/photos.api';
+import { PhotoUrls } from '../../photos/photo-urls';
 import { RunEntry } from '../run-entry';
 import type { CorrectionMethod, InstalledWeight, Job, JobCorrection } from '../jobs.api';
 import {
@@ -105,6 +112,7 @@ function roundTenth(value: number): number {
   templateUrl: './correction-step.html',
   styleUrl: './correction-step.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  providers: [PhotoUrls],
 })
 export class JobCorrectionStep {
   readonly job = input.required<Job>();
@@ -115,6 +123,26 @@ export class JobCorrectionStep {
   protected readonly session = inject(JobSession);
   private readonly drafts = inject(JobDrafts);
   private readonly destroyRef = inject(DestroyRef);
+  private readonly photos = inject(PhotosApi);
+  private readonly photoUrls = inject(PhotoUrls);
+
+  /** The machine's overlay background (a photo of its rotor, calibrated on the machine's page), if it has one. */
+  private readonly background = signal<Photo | null>(null);
+  /**
+   * The background as the overlay takes it, once its image is here. It is a photo of one end, drawn under the
+   * first plane's view (the left end's on a two-plane rotor, as the calibration dialog assumes).
+   */
+  protected readonly backgroundPhoto = computed<RotorPhoto | null>(() => {
+    const photo = this.background();
+    const src = photo && this.photoUrls.url(photo.id, 'image');
+    if (!photo || !src) return null;
+    return {
+      src,
+      aspectRatio: photo.widthPx / photo.heightPx,
+      ...(photo.calibration ? { calibration: photo.calibration } : {}),
+    };
+  });
+  private readonly machineId = computed(() => this.job().machine.id);
 
   protected readonly formatNumber = formatNumber;
   protected readonly formatDeg = formatDeg;
@@ -229,6 +257,23 @@ export class JobCorrectionStep {
   );
 
   constructor() {
+    // Without a background (or when it cannot be fetched) the overlay draws the plain end view.
+    effect(() => {
+      const machineId = this.machineId();
+      untracked(() =>
+        this.photos
+          .list({ kind: 'machine', id: machineId })
+          .pipe(takeUntilDestroyed(this.destroyRef))
+          .subscribe({
+            next: (list) => {
+              const photo = list.photos.find((each) => each.overlayBackground) ?? null;
+              this.background.set(photo);
+              if (photo) this.photoUrls.load([photo.id], 'image');
+            },
+            error: () => this.background.set(null),
+          }),
+      );
+    });
     // A form per correction, filled from the device's draft, else from what was stored, else from the plan.
     effect(() => {
       const job = this.job();

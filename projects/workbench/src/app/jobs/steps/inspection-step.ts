@@ -36,6 +36,7 @@ import { formErrorOf } from '../../shell/server-errors';
 import { errorMessage } from '../../shell/validators';
 import { JobDrafts } from '../job-drafts';
 import { JobSession } from '../job-session';
+import { PhotoGallery } from '../../photos/photo-gallery';
 import type { Job, RecordInspection } from '../jobs.api';
 import { askForReason } from '../reason-dialog';
 import { focusFirstInvalid } from './step-forms';
@@ -114,6 +115,7 @@ function checkControl(): FormControl<CheckOutcome | null> {
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
+    PhotoGallery,
     ReactiveFormsModule,
   ],
   templateUrl: './inspection-step.html',
@@ -174,6 +176,12 @@ export class JobInspectionStep implements OnInit {
   protected readonly inspection = computed(() => this.job().inspection);
   protected readonly onHold = computed(() => this.job().status === 'on-hold');
   protected readonly canDecide = computed(() => this.editable() && this.auth.can('jobs:write-any'));
+  /** Photos of the rotor as found are added by the job's technician or a manager, whatever the step. */
+  protected readonly canAddPhotos = computed(
+    () =>
+      this.auth.can('jobs:write-any') ||
+      (this.auth.can('jobs:write') && this.job().technician.id === this.auth.user()?.id),
+  );
   /** The form is open before the first measure, and again while the job is on hold (after a repair). */
   protected readonly formOpen = computed(
     () => this.editable() && (this.inspection() === null || this.onHold()),
