@@ -103,6 +103,13 @@ export const routes: Routes = [
         loadComponent: () => import('./machines/machine-page').then((m) => m.MachinePage),
       },
       {
+        path: ':id/history',
+        title: 'Machine history · Counterpoise',
+        canActivate: [requirePermission('jobs:read')],
+        loadComponent: () =>
+          import('./machine-history/machine-history-page').then((m) => m.MachineHistoryPage),
+      },
+      {
         path: ':id/edit',
         title: 'Edit the machine · Counterpoise',
         canActivate: [requirePermission('machines:write')],

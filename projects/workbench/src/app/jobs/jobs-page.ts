@@ -27,6 +27,7 @@ import { can, type User } from '@counterpoise/api';
 import { AuthSession } from '../auth/auth-session';
 import { type CustomerChoice, CustomerPicker, isCustomerRef } from '../customers/customer-picker';
 import { CustomersApi } from '../customers/customers.api';
+import { JobsExport } from '../machine-history/jobs-export';
 import { PeopleApi } from '../people/people.api';
 import { PAGE_SIZES } from '../records/list-query';
 import { pagedList } from '../records/paged-list';
@@ -70,6 +71,7 @@ function datesInOrder(group: AbstractControl): ValidationErrors | null {
   selector: 'app-jobs-page',
   imports: [
     CustomerPicker,
+    JobsExport,
     ListPage,
     MatButtonModule,
     MatFormFieldModule,

@@ -1,0 +1,216 @@
+import {
+  afterRenderEffect,
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  DestroyRef,
+  ElementRef,
+  inject,
+  input,
+  signal,
+  viewChild,
+} from '@angular/core';
+import {
+  Chart,
+  type ChartDataset,
+  Legend,
+  LinearScale,
+  LineController,
+  LineElement,
+  PointElement,
+  type PointStyle,
+  Tooltip,
+} from 'chart.js';
+import { jobDate } from '../jobs/job-dates';
+import {
+  formatAmplitude,
+  type HistoryPoint,
+  type HistorySeries,
+  historySeries,
+  historySummary,
+  unitLabel,
+} from './history-chart-model';
+import type { MachineHistory } from './machine-history.api';
+
+// Only what the chart draws: a line chart on two linear scales, its legend and tooltips.
+Chart.register(LineController, LineElement, PointElement, LinearScale, Legend, Tooltip);
+
+/** The colours the chart reads from the app's theme, so that it follows the light and dark schemes. */
+interface ChartColours {
+  readonly left: string;
+  readonly right: string;
+  readonly limit: string;
+  readonly text: string;
+  readonly grid: string;
+  readonly surface: string;
+}
+
+function themeColours(host: HTMLElement): ChartColours {
+  const style = getComputedStyle(host);
+  const read = (name: string, fallback: string) => style.getPropertyValue(name).trim() || fallback;
+  return {
+    left: read('--mat-sys-primary', '#36618e'),
+    right: read('--mat-sys-tertiary', '#8b4a62'),
+    limit: read('--mat-sys-error', '#ba1a1a'),
+    text: read('--mat-sys-on-surface', '#1a1c1e'),
+    grid: read('--mat-sys-outline-variant', '#c3c7cf'),
+    surface: read('--mat-sys-surface', '#ffffff'),
+  };
+}
+
+/** The shape of each side's points (circle left, diamond right): the sides differ without colour. */
+const SIDE_POINTS: Readonly<Record<'left' | 'right', PointStyle>> = { left: 'circle', right: 'rectRot' };
+
+/** A series as chart.js draws it: before dashed with hollow points, after solid and filled, limits dotted. */
+function datasetOf(series: HistorySeries, colours: ChartColours): ChartDataset<'line', HistoryPoint[]> {
+  const colour = series.stage === 'limit' || series.side === null ? colours.limit : colours[series.side];
+  if (series.stage === 'limit') {
+    return {
+      label: series.label,
+      data: [...series.points],
+      borderColor: colour,
+      backgroundColor: colour,
+      borderWidth: 2,
+      borderDash: series.side === 'right' ? [2, 6] : [2, 3],
+      pointStyle: 'line',
+      pointRadius: 0,
+      pointHoverRadius: 4,
+      stepped: 'middle',
+    };
+  }
+  const after = series.stage === 'after';
+  return {
+    label: series.label,
+    data: [...series.points],
+    borderColor: colour,
+    backgroundColor: after ? colour : colours.surface,
+    borderWidth: after ? 2.5 : 1.5,
+    borderDash: after ? [] : [7, 5],
+    pointStyle: SIDE_POINTS[series.side!],
+    pointRadius: 5,
+    pointHoverRadius: 7,
+    pointBorderWidth: 2,
+    tension: 0,
+  };
+}
+
+/**
+ * The amplitude of each side before and after every job on a machine, over the jobs' dates, with the
+ * acceptance limit, drawn by chart.js on a canvas. The canvas is an image to assistive technology with a
+ * summary as its name; the page's table holds every figure.
+ */
+@Component({
+  selector: 'app-history-chart',
+  template: `
+    <div class="frame">
+      <canvas #canvas role="img" [attr.aria-label]="summary()"></canvas>
+    </div>
+  `,
+  styles: `
+    :host {
+      display: block;
+    }
+    .frame {
+      position: relative;
+      block-size: clamp(16rem, 55vw, 22rem);
+      inline-size: 100%;
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class HistoryChart {
+  /** The machine's history. */
+  readonly history = input.required<MachineHistory>();
+
+  protected readonly summary = computed(() => historySummary(this.history()));
+  private readonly canvas = viewChild.required<ElementRef<HTMLCanvasElement>>('canvas');
+  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
+  /** Bumped when the colour scheme changes, so that the chart reads the theme again. */
+  private readonly scheme = signal(0);
+  private chart: Chart<'line', HistoryPoint[]> | null = null;
+
+  constructor() {
+    const media = typeof matchMedia === 'function' ? matchMedia('(prefers-color-scheme: dark)') : null;
+    const onScheme = () => this.scheme.update((n) => n + 1);
+    media?.addEventListener('change', onScheme);
+    inject(DestroyRef).onDestroy(() => {
+      media?.removeEventListener('change', onScheme);
+      this.chart?.destroy();
+      this.chart = null;
+    });
+    afterRenderEffect({
+      write: () => {
+        this.scheme();
+        this.draw(this.history());
+      },
+    });
+  }
+
+  private draw(history: MachineHistory): void {
+    const canvas = this.canvas().nativeElement;
+    this.chart?.destroy();
+    this.chart = null;
+    // No 2D context (a test's document): nothing to draw; the table and the summary still say it all.
+    if (canvas.getContext('2d') === null) return;
+    const colours = themeColours(this.host.nativeElement);
+    const series = historySeries(history);
+    const unit = unitLabel(history.unit);
+    this.chart = new Chart<'line', HistoryPoint[]>(canvas, {
+      type: 'line',
+      data: { datasets: series.map((one) => datasetOf(one, colours)) },
+      options: {
+        responsive: true,
+        maintainAspectRatio: false,
+        animation: false,
+        parsing: false,
+        normalized: true,
+        color: colours.text,
+        interaction: { mode: 'nearest', intersect: false },
+        scales: {
+          x: {
+            type: 'linear',
+            title: { display: true, text: 'Date of the job', color: colours.text },
+            ticks: {
+              color: colours.text,
+              maxTicksLimit: 5,
+              callback: (value) => jobDate(new Date(Number(value)).toISOString().slice(0, 10)),
+            },
+            grid: { color: colours.grid },
+            // Half a month either side at least, so that the first and last points do not sit on the frame.
+            afterDataLimits: (scale) => {
+              const pad = Math.max(15 * 86_400_000, (scale.max - scale.min) * 0.05);
+              scale.min -= pad;
+              scale.max += pad;
+            },
+          },
+          y: {
+            type: 'linear',
+            beginAtZero: true,
+            title: { display: true, text: `Amplitude (${unit})`, color: colours.text },
+            ticks: { color: colours.text, callback: (value) => formatAmplitude(Number(value)) },
+            grid: { color: colours.grid },
+          },
+        },
+        plugins: {
+          legend: {
+            position: 'bottom',
+            labels: { usePointStyle: true, color: colours.text, boxWidth: 10, padding: 12 },
+          },
+          tooltip: {
+            usePointStyle: true,
+            callbacks: {
+              title: (items) => {
+                const point = items[0]?.raw as HistoryPoint | undefined;
+                return point === undefined
+                  ? ''
+                  : `Job no. ${point.jobId}, ${jobDate(new Date(point.x).toISOString().slice(0, 10))}`;
+              },
+              label: (item) =>
+                `${item.dataset.label}: ${formatAmplitude((item.raw as HistoryPoint).y)} ${unit}`,
+            },
+          },
+        },
+      },
+    });
+  }
+}
