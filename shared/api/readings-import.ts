@@ -94,14 +94,15 @@ export const ReadingsCsvRowSchema = z.strictObject({
 export type ReadingsCsvRow = z.output<typeof ReadingsCsvRowSchema>;
 
 /**
- * One thing wrong with a file: the row (its line in the file, the header being line 1) and column at fault
+ * One thing wrong with a file: the row (its line in the file, every line counted: notes, the header and empty
+ * lines too, as a text editor numbers them) and column at fault
  * with the value found, or the file as a whole (`row` null). `path` names it as the API's errors do
  * (`rows[12].phaseDeg`, `columns`, `file`), so the same list is a preview's `errors` and a refused import's
  * problem `errors`.
  */
 export const ReadingsImportErrorSchema = FieldErrorSchema.extend({
   row: z.number().int().positive().nullable().meta({
-    description: 'The line of the file at fault (the header is line 1); null for the file as a whole.',
+    description: 'The line of the file at fault, as a text editor numbers it; null for the file as a whole.',
   }),
   column: z.enum(READINGS_CSV_COLUMNS).nullable().meta({ description: 'The column at fault, if one is.' }),
   value: z.string().nullable().meta({ description: 'The cell as found in the file (cut to 40 characters).' }),

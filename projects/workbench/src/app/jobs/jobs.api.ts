@@ -12,6 +12,7 @@ import type {
   JobSafetyTopic,
   RecordInspection,
   RecordInstalled,
+  ReadingsImportPreview,
   RecordSetup,
 } from '@counterpoise/api';
 import { map, type Observable } from 'rxjs';
@@ -44,6 +45,9 @@ export type {
   InstalledWeight,
   RecordInspection,
   RecordInstalled,
+  ImportedRun,
+  ReadingsImportError,
+  ReadingsImportPreview,
   RecordSetup,
   RunKind,
   RunRetype,
@@ -141,6 +145,29 @@ export class JobsApi {
     etag: string,
   ): Observable<VersionedJob> {
     return this.change('PUT', id, `runs/${encodeURIComponent(runId)}/readings`, body, etag);
+  }
+
+  /**
+   * Step 4: what a readings file (docs/readings-csv.md) would add to the job as it stands, and every bad row;
+   * the server saves nothing. The file goes as it is, for the server to read.
+   */
+  previewReadingsImport(id: number, file: Blob): Observable<ReadingsImportPreview> {
+    return this.http.post<ReadingsImportPreview>(`${this.jobUrl(id)}/runs/import/preview`, file, {
+      headers: { 'Content-Type': 'text/csv' },
+    });
+  }
+
+  /**
+   * Step 4: every run of a readings file added in one go, on the version its preview was made on (`etag`):
+   * all or none (a 400 naming each bad row), and a 412 when the job changed since the preview.
+   */
+  importReadings(id: number, file: Blob, etag: string): Observable<VersionedJob> {
+    return this.http
+      .post<Job>(`${this.jobUrl(id)}/runs/import`, file, {
+        observe: 'response',
+        headers: { 'Content-Type': 'text/csv', 'If-Match': etag },
+      })
+      .pipe(map((response) => versioned(response)));
   }
 
   /** Step 5: a correction by the method chosen, computed by the server from the stored runs. */

@@ -235,4 +235,18 @@ describe('JobRunsStep', { timeout: 30_000 }, () => {
     const { element } = await render(JOB_WITH_CORRECTION);
     expect(element.querySelector('.run__correct-button')).toBeNull();
   });
+
+  it('offers “Import readings from a file” beside the entries, and opens its dialog; not to someone who may not change the job', async () => {
+    const before: Job = { ...JOB_AFTER_LEFT_TRIAL, runs: [], nextStep: 'runs', verification: null };
+    const { fixture, element } = await render(before);
+    await press(fixture, button(element, 'Import readings from a file'));
+    expect(text(document.querySelector('mat-dialog-container h2'))).toBe('Import readings from a file');
+    document.querySelector<HTMLButtonElement>('mat-dialog-container [mat-dialog-close]')!.click();
+    await fixture.whenStable();
+
+    TestBed.resetTestingModule();
+    http = configureStepTesting();
+    const viewer = await render(JOB_AFTER_LEFT_TRIAL, false);
+    expect(button(viewer.element, 'Import readings from a file')).toBeUndefined();
+  });
 });

@@ -5,10 +5,12 @@ import {
   computed,
   ElementRef,
   inject,
+  Injector,
   input,
   signal,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import type { MachineSide } from '@counterpoise/api';
 import type { RotationCounting, RotationDirection } from '@counterpoise/ng/core';
@@ -26,6 +28,7 @@ import type { AddRun, Job, JobRun } from '../jobs.api';
 import type { JobChange } from '../job-session';
 import { RUN_KIND_LABELS, RunEntry } from '../run-entry';
 import { planeCountOf } from '../job-labels';
+import { openReadingsImport } from '../readings-import/readings-import-dialog';
 
 /** A weight in words: "120 g at 0° in the left plane". */
 export function describeWeight(
@@ -96,6 +99,8 @@ export class JobRunsStep {
   readonly editable = input(false);
 
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
+  private readonly dialog = inject(MatDialog);
+  private readonly injector = inject(Injector);
 
   protected readonly kindLabels = RUN_KIND_LABELS;
   protected readonly sideLabels = SIDE_LABELS;
@@ -160,6 +165,14 @@ export class JobRunsStep {
   protected showTrial(open: boolean): void {
     this.addingTrial.set(open);
     this.focusLater(open ? '#trial-run-heading' : '.runs-step__add-trial');
+  }
+
+  /**
+   * Opens the import of a readings file; the dialog reaches the page's JobSession through this step's
+   * injector, and the job shows as stored once it is imported.
+   */
+  protected importReadings(): void {
+    openReadingsImport(this.dialog, this.injector, { planeCount: this.planeCount() });
   }
 
   /** Opens or closes the correction of a run's readings, with the focus likewise. */
