@@ -61,6 +61,11 @@ describe('the API’s headers on paths spelt another way', () => {
     const response = await request(app()).get('/API/Docs/').set('Accept', 'text/html');
     expect(response.headers['content-security-policy']).toContain("default-src 'self'");
   });
+
+  it('lets the pages show images from their own object URLs (the photos, fetched with the access token)', async () => {
+    const response = await request(app()).get('/api/docs/').set('Accept', 'text/html');
+    expect(response.headers['content-security-policy']).toContain("img-src 'self' data: blob:");
+  });
 });
 
 describe('Strict-Transport-Security', () => {

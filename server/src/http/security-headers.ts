@@ -5,10 +5,14 @@ import { normaliseRoutePath } from './route-path';
 /**
  * helmet for the pages: the workbench and Swagger UI. Its defaults, less `upgrade-insecure-requests`:
  * the product is served over plain HTTP on a shop's network, where upgrading would break every asset.
- * `Strict-Transport-Security` is added apart, and only over HTTPS (see `securityHeaders`).
+ * Images may also come from `blob:` URLs: the workbench fetches photos with the session's access token and
+ * shows them as object URLs of its own document. `Strict-Transport-Security` is added apart, and only over
+ * HTTPS (see `securityHeaders`).
  */
 const pageHeaders = helmet({
-  contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } },
+  contentSecurityPolicy: {
+    directives: { upgradeInsecureRequests: null, imgSrc: ["'self'", 'data:', 'blob:'] },
+  },
   strictTransportSecurity: false,
 });
 
