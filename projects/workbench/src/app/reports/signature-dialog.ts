@@ -51,7 +51,9 @@ export const DRAWING_NEEDED =
     ReactiveFormsModule,
   ],
   template: `
-    <h2 mat-dialog-title>Customer signs report {{ data.jobNumber }}</h2>
+    <h2 mat-dialog-title>
+      Customer signs report <span class="nowrap">{{ data.jobNumber }}</span>
+    </h2>
     <mat-dialog-content>
       <p class="lead">
         By signing, the customer confirms the work recorded in the report. The signed report is kept as it is;
@@ -107,6 +109,9 @@ export const DRAWING_NEEDED =
   styles: `
     .lead {
       margin: 0 0 12px;
+    }
+    .nowrap {
+      white-space: nowrap;
     }
     .name {
       width: 100%;
