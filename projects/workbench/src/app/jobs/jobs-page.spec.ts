@@ -15,7 +15,7 @@ import { Router } from '@angular/router';
 import { RouterTestingHarness } from '@angular/router/testing';
 import type { Role } from '@counterpoise/api';
 import { BehaviorSubject, map } from 'rxjs';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { AuthSession } from '../auth/auth-session';
 import { aSession, aUser, RouteStandIn } from '../auth/testing';
 import { aCustomer, aMachine, aPage, nextRequest } from '../records/testing';
@@ -273,6 +273,37 @@ describe('JobsPage', { timeout: 30_000 }, () => {
     between.flush(aPage(JOBS));
     await fixed;
     expect(router().url).toBe('/jobs?from=2026-11-01&to=2026-11-30');
+  });
+
+  it('downloads the jobs of the filtered dates as a CSV file, with the session’s token', async () => {
+    const clicked: string[] = [];
+    vi.stubGlobal(
+      'URL',
+      Object.assign(URL, { createObjectURL: () => 'blob:jobs', revokeObjectURL: () => undefined }),
+    );
+    vi.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(function (this: HTMLAnchorElement) {
+      clicked.push(this.download);
+    });
+    try {
+      const { element, harness } = await open('/jobs?from=2026-11-01&to=2026-11-30');
+      const form = element.querySelector('app-jobs-export form')!;
+      const inputs = [...form.querySelectorAll('input')].map((input) => input.value);
+      expect(inputs).toEqual(['2026-11-01', '2026-11-30']);
+      form.dispatchEvent(new Event('submit'));
+      const request = await nextRequest(http, (r) => r.url === '/api/v1/exports/jobs.csv');
+      expect(request.request.params.get('from')).toBe('2026-11-01');
+      expect(request.request.params.get('to')).toBe('2026-11-30');
+      request.flush(new Blob(['\uFEFFJob no.\r\n']), {
+        headers: {
+          'Content-Disposition': 'attachment; filename=counterpoise-jobs-2026-11-01-to-2026-11-30.csv',
+        },
+      });
+      await harness.fixture.whenStable();
+      expect(clicked).toEqual(['counterpoise-jobs-2026-11-01-to-2026-11-30.csv']);
+    } finally {
+      vi.restoreAllMocks();
+      vi.unstubAllGlobals();
+    }
   });
 
   it('turns pages on the server', async () => {
