@@ -79,6 +79,7 @@ describe('MachineHistoryPage', { timeout: 30_000 }, () => {
       '0.24 in/s peak 212° · 2,150 rpm',
     );
     expect(cellText(begun[0]!.querySelector('[data-label="After"]'))).toBe('Not read yet');
+    expect(cellText(begun[0]!.querySelector('[data-label="Acceptance"]'))).toBe('Limit 0.15 in/s peak');
     expect(text(jobs[0]!.querySelector('th'))).toContain('Open · Not finished');
     const oldest = jobs[2]!.querySelectorAll('tr');
     expect(cellText(oldest[0]!.querySelector('[data-label="Before"]'))).toBe('9.9 mm/s RMS 212° · 2,150 rpm');

@@ -168,7 +168,7 @@ export class MachineHistoryPage {
       side.limit === null
         ? 'no limit as an amplitude'
         : `limit ${formatAmplitude(side.limit)} ${unitLabel(job.unit)}`;
-    if (side.accepted === null) return limit;
+    if (side.accepted === null) return `${limit[0]!.toUpperCase()}${limit.slice(1)}`;
     return `${side.accepted ? 'Within' : 'Above'} the ${limit}`;
   }
 
