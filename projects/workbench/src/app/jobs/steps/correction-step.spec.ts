@@ -9,6 +9,7 @@ import type { MachineFamily } from '../../machine-families/machine-families.api'
 import type { Machine } from '../../machines/machines.api';
 import { JobSession } from '../job-session';
 import type { Job, JobRun } from '../jobs.api';
+import { aPhoto, fakeObjectUrls } from '../../photos/photos-testing';
 import { JobCorrectionStep } from './correction-step';
 import {
   JOB_AFTER_LEFT_TRIAL,
@@ -319,6 +320,34 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
       'Left sensor: 0.004 in/s peak at 338.7°',
     ]);
     expect(localStorage.getItem('counterpoise.job-draft.8.installed-8')).toBeNull();
+  });
+
+  it('draws the first plane over the machine’s calibrated background photo', async () => {
+    const urls = fakeObjectUrls();
+    try {
+      const { fixture, element } = await render(JOB_WITH_CORRECTION);
+      const calibration = {
+        centre: { x: 0.5, y: 0.51 },
+        rim: { x: 0.75, y: 0.51 },
+        referenceMark: { x: 0.56, y: 0.19 },
+      };
+      const machineId = JOB_WITH_CORRECTION.machine.id;
+      http.expectOne(`/api/v1/machines/${machineId}/photos`).flush({
+        photos: [
+          aPhoto({ id: 4, machineId }),
+          aPhoto({ id: 5, machineId, overlayBackground: true, calibration }),
+        ],
+        limit: 40,
+      });
+      http.expectOne('/api/v1/photos/5').flush(new Blob(['jpeg']));
+      await settle(fixture);
+      const views = [...element.querySelectorAll('cp-correction-overlay.plane__view')];
+      expect(views.length).toBeGreaterThan(0);
+      expect(views[0]!.classList).toContain('cp-correction-overlay--on-photo');
+      expect(views[0]!.querySelector('image')?.getAttribute('href')).toBe('blob:photo-1');
+    } finally {
+      urls.restore();
+    }
   });
 
   it('keeps typed weights on the device until they are stored', async () => {

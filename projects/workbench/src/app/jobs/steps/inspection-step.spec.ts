@@ -14,6 +14,7 @@ import { aSession } from '../../auth/testing';
 import type { MachineFamily } from '../../machine-families/machine-families.api';
 import { JobSession } from '../job-session';
 import type { Job } from '../jobs.api';
+import { aPhoto, fakeObjectUrls } from '../../photos/photos-testing';
 import { JobInspectionStep } from './inspection-step';
 import { answered, configureStepTesting, renderStep, words } from './step-testing';
 import { JOB_LET_GO_ON, JOB_ON_HOLD, JOB_SAFETY_ACKNOWLEDGED, MULCHER_FAMILY } from './testing-jobs';
@@ -78,6 +79,33 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
       await toggle!.check();
     }
   }
+
+  it('shows the photos of the rotor as found, which the job’s technician may add to and a viewer may not', async () => {
+    const urls = fakeObjectUrls();
+    try {
+      const job = JOB_SAFETY_ACKNOWLEDGED;
+      const photo = aPhoto({
+        id: 31,
+        machineId: null,
+        jobId: job.id,
+        caption: 'Wire wrapped round the left hub',
+      });
+      for (const role of ['technician', 'viewer'] as const) {
+        const { fixture, element } = await render(job, { role });
+        http.expectOne(`/api/v1/jobs/${job.id}/photos`).flush({ photos: [photo], limit: 40 });
+        http.expectOne('/api/v1/photos/31/thumbnail').flush(new Blob(['webp']));
+        await new Promise((resolve) => setTimeout(resolve));
+        fixture.detectChanges();
+        const gallery = element.querySelector('app-photo-gallery')!;
+        expect(words(gallery.querySelector('h3'))).toBe('The rotor as found');
+        expect(gallery.querySelector('img')?.getAttribute('alt')).toBe('Wire wrapped round the left hub');
+        expect(gallery.querySelector('.photos__add-button') !== null).toBe(role === 'technician');
+        fixture.destroy();
+      }
+    } finally {
+      urls.restore();
+    }
+  });
 
   it('shows each measure beside the family’s limit, and whether what is typed is within it', async () => {
     const { element, input } = await render(JOB_SAFETY_ACKNOWLEDGED);
