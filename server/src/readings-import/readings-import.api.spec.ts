@@ -6,7 +6,12 @@
  */
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
-import { ProblemSchema, READINGS_CSV_MAX_BYTES, ReadingsImportPreviewSchema } from '@counterpoise/api';
+import {
+  type Job,
+  ProblemSchema,
+  READINGS_CSV_MAX_BYTES,
+  ReadingsImportPreviewSchema,
+} from '@counterpoise/api';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { type RecordsTestApp, rowCount, startRecordsTestApp } from '../records/records.test-app';
@@ -126,8 +131,8 @@ describe('the samples of docs/readings-csv.md', () => {
 
     const imported = await send(job.id, sample('readings.csv'), { version: shown.jobVersion });
     expect(imported.status, JSON.stringify(imported.body)).toBe(201);
-    expect(imported.headers.etag).toBe(`"${job.version + 1}"`);
-    const stored = imported.body as JobBody & { runs: Record<string, unknown>[] };
+    expect(imported.headers['etag']).toBe(`"${job.version + 1}"`);
+    const stored = imported.body as Job;
     expect(stored.version).toBe(job.version + 1);
     expect(
       stored.runs.map(
@@ -190,9 +195,7 @@ describe('readings of a modelled rotor after a typed initial run', () => {
 
     const imported = await send(job.id, file, { version: seen.jobVersion });
     expect(imported.status).toBe(201);
-    const stored = imported.body as JobBody & {
-      runs: { sequence: number; readings: unknown; warnings: string[] }[];
-    };
+    const stored = imported.body as Job;
     expect(
       stored.runs.slice(1).map(({ sequence, readings, warnings }) => ({ sequence, readings, warnings })),
     ).toEqual(seen.runs.map(({ sequence, readings, warnings }) => ({ sequence, readings, warnings })));
@@ -341,7 +344,7 @@ describe('versions', () => {
     expect(stale.status).toBe(412);
     expect(stale.body.code).toBe('CHANGED_MEANWHILE');
     expect(stale.body.current.version).toBe(typed.body.version);
-    expect(stale.headers.etag).toBe(`"${typed.body.version}"`);
+    expect(stale.headers['etag']).toBe(`"${typed.body.version}"`);
     expect((await storedJob(job.id)).runs).toHaveLength(1);
   });
 
