@@ -4,6 +4,7 @@ import type { ComponentFixture } from '@angular/core/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { JobSession } from '../job-session';
 import type { Job } from '../jobs.api';
+import { signedReports, unsignedReports } from '../../reports/reports-testing';
 import { JobCompletionStep } from './completion-step';
 import { configureStepTesting, renderStep, text } from './step-testing';
 import {
@@ -98,6 +99,10 @@ describe('JobCompletionStep', { timeout: 30_000 }, () => {
     expect(request.request.headers.get('If-Match')).toBe('"9"');
     request.flush(JOB_8_COMPLETED, { headers: { ETag: `"${JOB_8_COMPLETED.version}"` } });
     await settle(fixture);
+    // The completed job shows its service report, not signed yet.
+    http.expectOne('/api/v1/jobs/8/reports').flush(unsignedReports(8));
+    await settle(fixture);
+    expect(text(element.querySelector('[data-testid="report-state"]'))).toContain('Not signed yet');
 
     expect(text(element.querySelector('[data-testid="verdict"] span'))).toContain(
       'not within its acceptance level. The machine shows as due on the home page.',
@@ -128,7 +133,12 @@ describe('JobCompletionStep', { timeout: 30_000 }, () => {
   });
 
   it('shows a completed job: before and after, weights on the rotor, coefficients and the refined family', async () => {
-    const { element } = await render(COMPLETED_MULCHER_JOB, false);
+    const { fixture, element } = await render(COMPLETED_MULCHER_JOB, false);
+    http.expectOne('/api/v1/jobs/6/reports').flush(signedReports(6));
+    await settle(fixture);
+    expect(text(element.querySelector('[data-testid="report-state"]'))).toContain(
+      'Signed by Juno Hartwell on 5 Dec 2026',
+    );
     expect(text(element.querySelector('[data-testid="verdict"] span'))).toBe(
       'Completed by Tomasz Wrenfield on 5 Nov 2026, 08:30: within its acceptance level.',
     );
