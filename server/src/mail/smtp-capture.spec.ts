@@ -5,7 +5,7 @@ import nodemailer from 'nodemailer';
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { MASKED_SECRET, OutboxSchema } from '@counterpoise/api';
-import { mailMessages } from '../db/schema';
+import { mailAttachments, mailMessages } from '../db/schema';
 import {
   createTestOrganisation,
   signIn,
@@ -14,7 +14,7 @@ import {
 } from '../testing/accounts';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
 import { composeMail, smtpMailer } from './mailer';
-import { type SmtpCapture, startSmtpCapture } from './smtp-capture';
+import { MAX_MESSAGE_BYTES, type SmtpCapture, startSmtpCapture } from './smtp-capture';
 
 let temporary: TemporaryDatabase;
 let capture: SmtpCapture;
@@ -78,6 +78,38 @@ describe('the local mail server', () => {
     expect(stored()).toMatchObject([
       { organisationId: shop.id, to: '["owner@alder-shop.test"]', subject: message().subject },
     ]);
+  });
+
+  it('keeps the files a message carries, and refuses a message over its size limit whole', async () => {
+    const pdf = Buffer.concat([Buffer.from('%PDF-1.7\n'), randomBytes(2048)]);
+    await rawTransport(capture.credentials).sendMail({
+      ...message(),
+      attachments: [{ filename: 'report-J-000007-r1.pdf', contentType: 'application/pdf', content: pdf }],
+    });
+    const [row] = stored();
+    const files = temporary.database.orm.select().from(mailAttachments).all();
+    expect(files).toEqual([
+      {
+        id: expect.any(Number),
+        messageId: row!.id,
+        filename: 'report-J-000007-r1.pdf',
+        contentType: 'application/pdf',
+        byteSize: pdf.length,
+        content: pdf,
+      },
+    ]);
+    const tooLarge = await rawTransport(capture.credentials)
+      .sendMail({
+        ...message(),
+        attachments: [{ filename: 'huge.bin', content: randomBytes(MAX_MESSAGE_BYTES) }],
+      })
+      .then(
+        () => 'sent',
+        (error: { responseCode?: number }) => error.responseCode,
+      );
+    expect(tooLarge).toBe(552);
+    expect(stored()).toHaveLength(1);
+    expect(temporary.database.orm.select().from(mailAttachments).all()).toHaveLength(1);
   });
 
   it('draws new credentials at each start', async () => {
