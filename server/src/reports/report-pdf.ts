@@ -531,12 +531,7 @@ export function reportDocument(
               keyValues([
                 ['Name', source.customer.name],
                 ['Site', text(source.customer.siteAddress)],
-                [
-                  'Contact',
-                  contact
-                    ? [contact.name, contact.role].filter(Boolean).join(', ')
-                    : text(source.customer.phone),
-                ],
+                ['Contact', contact ? [contact.name, contact.role].filter(Boolean).join(', ') : '–'],
                 ['E-mail', text(source.customer.email)],
                 ['Phone', text(source.customer.phone)],
               ]),

@@ -52,7 +52,7 @@ export const DRAWING_NEEDED =
   ],
   template: `
     <h2 mat-dialog-title>
-      Customer signs report <span class="nowrap">{{ data.jobNumber }}</span>
+      <span>Customer signs report</span>&ngsp;<span class="nowrap">{{ data.jobNumber }}</span>
     </h2>
     <mat-dialog-content>
       <p class="lead">
@@ -113,6 +113,9 @@ export const DRAWING_NEEDED =
     .nowrap {
       white-space: nowrap;
     }
+    .error mat-icon {
+      flex: none;
+    }
     .name {
       width: 100%;
     }
@@ -147,7 +150,7 @@ export const DRAWING_NEEDED =
     .error {
       display: flex;
       gap: 6px;
-      align-items: center;
+      align-items: flex-start;
       min-height: 1.5em;
       margin: 4px 0 0;
       color: var(--mat-sys-error);
