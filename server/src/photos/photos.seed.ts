@@ -1,4 +1,7 @@
 import { execFileSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import { readFileSync, renameSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { and, eq } from 'drizzle-orm';
@@ -56,16 +59,42 @@ interface RenderedImage {
 /** The repository's root, where `node --import tsx` finds tsx. */
 const ROOT = fileURLToPath(new URL('../../..', import.meta.url));
 const RENDER_SCRIPT = fileURLToPath(new URL('./demo-photos.render.ts', import.meta.url));
+const IMAGE_PIPELINE = fileURLToPath(new URL('./photo-image.ts', import.meta.url));
 
-/** Renders the drawings through the upload pipeline, in a child process (see demo-photos.render.ts). */
-function render(svgs: readonly string[]): { image: RenderedImage; thumbnail: RenderedImage }[] {
+interface RenderedPhoto {
+  readonly image: RenderedImage;
+  readonly thumbnail: RenderedImage;
+}
+
+/**
+ * Renders the drawings through the upload pipeline, in a child process (see demo-photos.render.ts). The
+ * result is kept in the system's temporary folder, named by the hash of the drawings and of the code that
+ * renders them, so that seeding again (every test that seeds, every fresh demo) reads it instead of
+ * rendering it again; what a seed stores is the same either way.
+ */
+function render(svgs: readonly string[]): RenderedPhoto[] {
+  const key = createHash('sha256')
+    .update(JSON.stringify(svgs))
+    .update(readFileSync(RENDER_SCRIPT))
+    .update(readFileSync(IMAGE_PIPELINE))
+    .digest('hex')
+    .slice(0, 32);
+  const cached = join(tmpdir(), `counterpoise-demo-photos-${key}.json`);
+  try {
+    return JSON.parse(readFileSync(cached, 'utf8')) as RenderedPhoto[];
+  } catch {
+    // Not rendered yet on this machine (or unreadable): render it now.
+  }
   const output = execFileSync(process.execPath, ['--import', 'tsx', RENDER_SCRIPT], {
     cwd: ROOT,
     input: JSON.stringify(svgs),
     maxBuffer: 64 * 1024 * 1024,
     timeout: 60_000,
   });
-  return JSON.parse(output.toString('utf8')) as { image: RenderedImage; thumbnail: RenderedImage }[];
+  const temporary = `${cached}.${process.pid}.tmp`;
+  writeFileSync(temporary, output, { mode: 0o600 });
+  renameSync(temporary, cached);
+  return JSON.parse(output.toString('utf8')) as RenderedPhoto[];
 }
 
 function findMachine(database: Database, organisationId: number, serialNumber: string): number {
