@@ -31,7 +31,10 @@ async function main(): Promise<void> {
   const migrations = migrateDatabase(database);
   const dataDir = dirname(config.DATABASE_URL);
   const seed = config.SEED_DEMO
-    ? seedDemoData(database, systemClock.now(), DEMO_SEEDERS, { dataDir, uploadsDir: config.UPLOADS_DIR })
+    ? await seedDemoData(database, systemClock.now(), DEMO_SEEDERS, {
+        dataDir,
+        uploadsDir: config.UPLOADS_DIR,
+      })
     : { seeded: false };
   const demoData = demoDataNotice(
     config,

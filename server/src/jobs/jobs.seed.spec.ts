@@ -24,12 +24,12 @@ let first: TemporaryDatabase;
 let second: TemporaryDatabase;
 let dataDir: string;
 
-beforeAll(() => {
+beforeAll(async () => {
   dataDir = mkdtempSync(join(tmpdir(), 'counterpoise-demo-jobs-'));
   first = openTemporaryDatabase();
   second = openTemporaryDatabase();
-  seedDemoData(first.database, now, DEMO_SEEDERS, { dataDir });
-  seedDemoData(second.database, now, DEMO_SEEDERS, { dataDir });
+  await seedDemoData(first.database, now, DEMO_SEEDERS, { dataDir });
+  await seedDemoData(second.database, now, DEMO_SEEDERS, { dataDir });
 });
 afterAll(() => {
   first.dispose();
@@ -110,13 +110,13 @@ describe('the demo jobs', () => {
     expect(jobs.home(manager).myOpenJobs).toEqual([]);
   });
 
-  it('are the same on every fresh database, and seeded once', () => {
+  it('are the same on every fresh database, and seeded once', async () => {
     const a = service(first);
     const b = service(second);
     const all = (s: ReturnType<typeof service>) =>
       s.jobs.list(s.technician, everything).items.map((item) => s.jobs.get(s.technician, item.id));
     expect(all(b)).toEqual(all(a));
-    expect(seedDemoData(first.database, new Date(), DEMO_SEEDERS, { dataDir })).toEqual({
+    expect(await seedDemoData(first.database, new Date(), DEMO_SEEDERS, { dataDir })).toEqual({
       seeded: false,
     });
     expect(a.jobs.list(a.technician, everything).total).toBe(DEMO_JOBS.length);

@@ -14,9 +14,9 @@ beforeEach(() => (temporary = openTemporaryDatabase()));
 afterEach(() => temporary.dispose());
 
 describe('the demo API key', () => {
-  it('is created by the demo seed and left, readable by its owner only, beside the database', () => {
+  it('is created by the demo seed and left, readable by its owner only, beside the database', async () => {
     const dataDir = dirname(temporary.path);
-    seedDemoData(temporary.database, new Date('2026-05-04T08:00:00Z'), DEMO_SEEDERS, { dataDir });
+    await seedDemoData(temporary.database, new Date('2026-05-04T08:00:00Z'), DEMO_SEEDERS, { dataDir });
 
     const file = join(dataDir, DEMO_API_KEY_FILE);
     const key = readFileSync(file, 'utf8').trim();

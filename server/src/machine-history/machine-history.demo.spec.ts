@@ -125,10 +125,10 @@ function balance(machineId: number, scheduledFor: string, rotor: ModelRotor, uni
   return jobs.complete(technician, job.id, [job.version]);
 }
 
-beforeAll(() => {
+beforeAll(async () => {
   dataDir = mkdtempSync(join(tmpdir(), 'counterpoise-demo-history-'));
   temporary = openTemporaryDatabase();
-  seedDemoData(temporary.database, now, DEMO_SEEDERS, { dataDir });
+  await seedDemoData(temporary.database, now, DEMO_SEEDERS, { dataDir });
   const accounts = new AccountsRepo(temporary.database.orm);
   const organisation = accounts.findOrganisationByName(DEMO_ORGANISATION)!;
   technician = accounts.listUsers(organisation.id).find((person) => person.role === 'technician')!;

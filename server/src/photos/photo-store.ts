@@ -1,5 +1,4 @@
 import { randomBytes } from 'node:crypto';
-import { existsSync, mkdirSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { mkdir, readFile, rename, rm, stat, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 
@@ -36,23 +35,6 @@ export class PhotoStore {
       await rename(temporary, path);
     } catch (error) {
       await rm(temporary, { force: true });
-      throw error;
-    }
-    return true;
-  }
-
-  /** `put`, blocking: for the demo seed, which runs synchronously in its transaction. */
-  putSync(sha256: string, extension: string, bytes: Buffer): boolean {
-    const path = this.pathOf(sha256, extension);
-    if (existsSync(path)) return false;
-    const folder = join(this.folder, sha256.slice(0, 2));
-    mkdirSync(folder, { recursive: true, mode: FOLDER_MODE });
-    const temporary = join(folder, `.${sha256}.${randomBytes(6).toString('hex')}.tmp`);
-    try {
-      writeFileSync(temporary, bytes, { mode: FILE_MODE, flag: 'wx' });
-      renameSync(temporary, path);
-    } catch (error) {
-      rmSync(temporary, { force: true });
       throw error;
     }
     return true;

@@ -15,11 +15,14 @@ let temporary: TemporaryDatabase;
 let dataDir: string;
 let uploadsDir: string;
 
-beforeAll(() => {
+beforeAll(async () => {
   temporary = openTemporaryDatabase();
   dataDir = mkdtempSync(join(tmpdir(), 'counterpoise-demo-photos-'));
   uploadsDir = join(dataDir, 'photos-elsewhere');
-  seedDemoData(temporary.database, new Date('2026-05-04T08:00:00Z'), DEMO_SEEDERS, { dataDir, uploadsDir });
+  await seedDemoData(temporary.database, new Date('2026-05-04T08:00:00Z'), DEMO_SEEDERS, {
+    dataDir,
+    uploadsDir,
+  });
 }, 120_000);
 
 afterAll(() => {

@@ -1,18 +1,13 @@
-import { execFileSync } from 'node:child_process';
-import { createHash } from 'node:crypto';
-import { readFileSync, renameSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { and, eq } from 'drizzle-orm';
-import type { PhotoMediaType } from '@counterpoise/api';
+import sharp from 'sharp';
 import { AccountsRepo } from '../accounts/accounts.repo';
 import { DEMO_ORGANISATION } from '../auth/accounts.seed';
 import type { Database } from '../db/database';
 import { jobs, machines } from '../db/schema';
-import type { DemoSeeder } from '../db/seed';
+import type { PreparedDemoSeeder } from '../db/seed';
 import { calibrationOf, type DemoPlateDrawing, endPlateSvg } from './demo-photos';
-import { EXTENSIONS } from './photo-image';
+import { EXTENSIONS, type ProcessedPhoto, processPhoto } from './photo-image';
 import { PhotoStore } from './photo-store';
 import { PhotosRepo } from './photos.repo';
 
@@ -48,53 +43,24 @@ const DEMO_PHOTOS: readonly DemoPhoto[] = [
   },
 ];
 
-interface RenderedImage {
-  readonly bytes: string;
-  readonly sha256: string;
-  readonly mediaType: PhotoMediaType;
-  readonly widthPx: number;
-  readonly heightPx: number;
-}
-
-/** The repository's root, where `node --import tsx` finds tsx. */
-const ROOT = fileURLToPath(new URL('../../..', import.meta.url));
-const RENDER_SCRIPT = fileURLToPath(new URL('./demo-photos.render.ts', import.meta.url));
-const IMAGE_PIPELINE = fileURLToPath(new URL('./photo-image.ts', import.meta.url));
-
-interface RenderedPhoto {
-  readonly image: RenderedImage;
-  readonly thumbnail: RenderedImage;
-}
-
 /**
- * Renders the drawings through the upload pipeline, in a child process (see demo-photos.render.ts). The
- * result is kept in the system's temporary folder, named by the hash of the drawings and of the code that
- * renders them, so that seeding again (every test that seeds, every fresh demo) reads it instead of
- * rendering it again; what a seed stores is the same either way.
+ * Renders the drawings through the very pipeline an upload takes (an SVG drawn to a JPEG, then processed
+ * as a photo), once per process: every seed of a test run reads the same images.
  */
-function render(svgs: readonly string[]): RenderedPhoto[] {
-  const key = createHash('sha256')
-    .update(JSON.stringify(svgs))
-    .update(readFileSync(RENDER_SCRIPT))
-    .update(readFileSync(IMAGE_PIPELINE))
-    .digest('hex')
-    .slice(0, 32);
-  const cached = join(tmpdir(), `counterpoise-demo-photos-${key}.json`);
-  try {
-    return JSON.parse(readFileSync(cached, 'utf8')) as RenderedPhoto[];
-  } catch {
-    // Not rendered yet on this machine (or unreadable): render it now.
-  }
-  const output = execFileSync(process.execPath, ['--import', 'tsx', RENDER_SCRIPT], {
-    cwd: ROOT,
-    input: JSON.stringify(svgs),
-    maxBuffer: 64 * 1024 * 1024,
-    timeout: 60_000,
+let rendering: Promise<ProcessedPhoto[]> | undefined;
+function render(): Promise<ProcessedPhoto[]> {
+  rendering ??= Promise.all(
+    DEMO_PHOTOS.map(async (photo) => {
+      const jpeg = await sharp(Buffer.from(endPlateSvg(photo.drawing)))
+        .jpeg({ quality: 90 })
+        .toBuffer();
+      return processPhoto(jpeg, 'image/jpeg');
+    }),
+  ).catch((error: unknown) => {
+    rendering = undefined;
+    throw error;
   });
-  const temporary = `${cached}.${process.pid}.tmp`;
-  writeFileSync(temporary, output, { mode: 0o600 });
-  renameSync(temporary, cached);
-  return JSON.parse(output.toString('utf8')) as RenderedPhoto[];
+  return rendering;
 }
 
 function findMachine(database: Database, organisationId: number, serialNumber: string): number {
@@ -122,7 +88,19 @@ function openJobOf(database: Database, machineId: number): number {
  * calibrated on the drawing; one of the rotor as found on the machine's open job. Files go under the
  * uploads folder like any upload's.
  */
-export const seedDemoPhotos: DemoSeeder = (database, now, context) => {
+export const seedDemoPhotos: PreparedDemoSeeder = {
+  async prepare(context) {
+    const rendered = await render();
+    const store = new PhotoStore(context.uploadsDir ?? join(context.dataDir, 'uploads'));
+    for (const { image, thumbnail } of rendered) {
+      await store.put(image.sha256, EXTENSIONS[image.mediaType], image.bytes);
+      await store.put(thumbnail.sha256, EXTENSIONS[thumbnail.mediaType], thumbnail.bytes);
+    }
+    return (database, now) => insertDemoPhotos(database, now, rendered);
+  },
+};
+
+function insertDemoPhotos(database: Database, now: Date, rendered: readonly ProcessedPhoto[]): void {
   const accounts = new AccountsRepo(database.orm);
   const organisation = accounts.findOrganisationByName(DEMO_ORGANISATION);
   const technician =
@@ -130,13 +108,9 @@ export const seedDemoPhotos: DemoSeeder = (database, now, context) => {
   if (organisation === undefined || technician === undefined) {
     throw new Error(`The demo photos need ${DEMO_ORGANISATION} and its technician, seeded before them.`);
   }
-  const store = new PhotoStore(context.uploadsDir ?? join(context.dataDir, 'uploads'));
   const repo = new PhotosRepo(database.orm);
-  const rendered = render(DEMO_PHOTOS.map((photo) => endPlateSvg(photo.drawing)));
   for (const [index, photo] of DEMO_PHOTOS.entries()) {
     const { image, thumbnail } = rendered[index]!;
-    store.putSync(image.sha256, EXTENSIONS[image.mediaType], Buffer.from(image.bytes, 'base64'));
-    store.putSync(thumbnail.sha256, 'webp', Buffer.from(thumbnail.bytes, 'base64'));
     const machineId = findMachine(database, organisation.id, photo.serialNumber);
     const id = repo.insert({
       organisationId: organisation.id,
@@ -147,11 +121,11 @@ export const seedDemoPhotos: DemoSeeder = (database, now, context) => {
       mediaType: image.mediaType,
       widthPx: image.widthPx,
       heightPx: image.heightPx,
-      byteSize: Buffer.byteLength(image.bytes, 'base64'),
+      byteSize: image.bytes.length,
       caption: photo.caption,
       createdById: technician.id,
       createdAt: new Date(now.getTime() - (DEMO_PHOTOS.length - index) * 60_000),
     });
     if (photo.background) repo.setOverlayBackground(machineId, id, calibrationOf(photo.drawing));
   }
-};
+}

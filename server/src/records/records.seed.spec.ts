@@ -25,10 +25,10 @@ const now = new Date('2026-03-02T08:00:00Z');
 let temporary: TemporaryDatabase;
 let dataDir: string;
 
-beforeAll(() => {
+beforeAll(async () => {
   temporary = openTemporaryDatabase();
   dataDir = mkdtempSync(join(tmpdir(), 'counterpoise-demo-'));
-  seedDemoData(temporary.database, now, DEMO_SEEDERS, { dataDir });
+  await seedDemoData(temporary.database, now, DEMO_SEEDERS, { dataDir });
 });
 afterAll(() => {
   temporary.dispose();

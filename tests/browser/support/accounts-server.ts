@@ -30,7 +30,7 @@ export interface AccountsServer {
  */
 export async function startAccountsServer(): Promise<AccountsServer> {
   const temporary = openTemporaryDatabase();
-  seedDemoData(temporary.database, new Date(), DEMO_SEEDERS, { dataDir: dirname(temporary.path) });
+  await seedDemoData(temporary.database, new Date(), DEMO_SEEDERS, { dataDir: dirname(temporary.path) });
   const capture = await startSmtpCapture({
     database: temporary.database,
     clock: { now: () => new Date() },

@@ -20,7 +20,7 @@ export interface TestServer {
 /** Starts the server as `npm start` does, but on a temporary database and a free port. */
 export async function startServer(): Promise<TestServer> {
   const temporary = openTemporaryDatabase();
-  seedDemoData(temporary.database, new Date(), DEMO_SEEDERS, { dataDir: dirname(temporary.path) });
+  await seedDemoData(temporary.database, new Date(), DEMO_SEEDERS, { dataDir: dirname(temporary.path) });
   const usageLog = new UsageLog(temporary.database);
   const app = createApp({ database: temporary.database, staticDir: WORKBENCH_DIR, usageLog });
   const server = await new Promise<Server>((resolve) => {
