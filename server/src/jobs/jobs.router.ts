@@ -44,14 +44,16 @@ import type { JobActor, JobsService } from './jobs.service';
  */
 export type JobAccess = 'read' | 'write' | 'manage';
 
-const ETAG_HEADER: ResponseConfig['headers'] = {
+/** The `ETag` header of an answer that holds a job; other features' job routes document it too. */
+export const ETAG_HEADER: ResponseConfig['headers'] = {
   ETag: {
     description: 'The version of the job, quoted (`"3"`): send it back in `If-Match` to change the job.',
     schema: { type: 'string', example: '"3"' },
   },
 };
 
-const IF_MATCH_HEADERS = z.object({
+/** The `If-Match` header of a change of a job. */
+export const IF_MATCH_HEADERS = z.object({
   'if-match': z.string().optional().meta({
     description: 'The ETag of the version of the job the change is made on (`"3"`).',
     example: '"3"',
@@ -78,7 +80,8 @@ const IF_MATCH_RULE =
   'Send the job’s ETag in `If-Match`: without it 428; when the job changed since (another step, a run added ' +
   'from another tab), 412 with the job as stored in `current`, and nothing is written.';
 
-const PROBLEMS = {
+/** The problems a change of a job may answer, by status. */
+export const PROBLEMS = {
   403: 'The job is another technician’s and the caller may change only their own (`code` `NOT_YOUR_JOB`), or the role lacks the permission.',
   404: 'No job with this id in your organisation (another organisation’s jobs are not found either).',
   409: 'The job’s state does not allow the step (`JOB_NOT_OPEN`), a step before it is missing (`STEP_MISSING`), or the stored runs do not allow the method (`METHOD_NOT_POSSIBLE`, or the engine’s code).',

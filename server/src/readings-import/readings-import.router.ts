@@ -9,11 +9,11 @@ import {
   ReadingsImportPreviewSchema,
 } from '@counterpoise/api';
 import express, { type RequestHandler, type Response } from 'express';
-import * as z from 'zod';
 import { IdParamSchema } from '../http/params';
 import { HttpProblem } from '../http/problem';
 import { type AccessRule, type FeatureRoutes, type RawBody, RouteTable } from '../http/route';
 import { JOB_EXAMPLE } from '../jobs/jobs.examples';
+import { ETAG_HEADER, IF_MATCH_HEADERS, PROBLEMS as JOB_PROBLEMS } from '../jobs/jobs.router';
 import type { JobActor } from '../jobs/jobs.service';
 import { RECORDS_BASE_PATH } from '../records/record-routes';
 import { etagOf, ifMatchVersions, requireIfMatch } from '../records/versions';
@@ -71,23 +71,9 @@ const CSV_BODY: RawBody = {
   description: `The readings file (docs/readings-csv.md), at most ${KB} kB, UTF-8.`,
 };
 
-const ETAG_HEADER: ResponseConfig['headers'] = {
-  ETag: {
-    description: 'The version of the job, quoted (`"3"`).',
-    schema: { type: 'string', example: '"3"' },
-  },
-};
-
-const IF_MATCH_HEADERS = z.object({
-  'if-match': z.string().optional().meta({
-    description: 'The ETag of the version the preview was made on (`"<jobVersion>"`).',
-    example: '"3"',
-  }),
-});
-
 const PROBLEMS = {
-  403: 'The job is another technician’s and the caller may change only their own (`code` `NOT_YOUR_JOB`), or the role lacks the permission.',
-  404: 'No job with this id in your organisation (another organisation’s jobs are not found either).',
+  403: JOB_PROBLEMS[403],
+  404: JOB_PROBLEMS[404],
   409: 'The job’s state does not take runs (`JOB_NOT_OPEN`), or a step before the runs is missing (`STEP_MISSING`).',
   413: `The file is larger than ${KB} kB.`,
   415: 'The body is not declared `text/csv` (or `text/plain`) in UTF-8.',

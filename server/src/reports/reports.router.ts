@@ -6,9 +6,9 @@ import {
   SignReportSchema,
 } from '@counterpoise/api';
 import type { Response } from 'express';
-import * as z from 'zod';
 import { IdParamSchema } from '../http/params';
 import { type AccessRule, type FeatureRoutes, RouteTable } from '../http/route';
+import { IF_MATCH_HEADERS, PROBLEMS as JOB_PROBLEMS } from '../jobs/jobs.router';
 import type { JobActor } from '../jobs/jobs.service';
 import { RECORDS_BASE_PATH } from '../records/record-routes';
 import { ifMatchVersions, requireIfMatch } from '../records/versions';
@@ -21,17 +21,8 @@ import type { ReportsService } from './reports.service';
  */
 export type ReportAccess = 'read' | 'write';
 
-const IF_MATCH_HEADERS = z.object({
-  'if-match': z.string().optional().meta({
-    description: 'The ETag of the version of the job the customer saw (`"12"`).',
-    example: '"12"',
-  }),
-});
-
-const NOT_FOUND =
-  'No job with this id in your organisation (another organisation’s jobs are not found either).';
-const FORBIDDEN =
-  'The job is another technician’s and the caller may change only their own (`code` `NOT_YOUR_JOB`), or the role lacks the permission.';
+const NOT_FOUND = JOB_PROBLEMS[404];
+const FORBIDDEN = JOB_PROBLEMS[403];
 
 /** The signed-in person of a request that passed the guard. */
 function actorOf(res: Response): JobActor {

@@ -19,6 +19,7 @@ import {
 } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import { READINGS_CSV_COLUMN_LABELS } from '@counterpoise/api';
 import { firstValueFrom } from 'rxjs';
 import { BusyButton } from '../../forms/busy-button';
 import { ErrorBanner } from '../../forms/error-banner';
@@ -35,20 +36,6 @@ import {
 import { RUN_KIND_LABELS } from '../run-entry';
 import { describeWeight } from '../steps/runs-step';
 import SAMPLE_CSV from '../../../../../../docs/samples/readings.csv' with { loader: 'text' };
-
-/** How each column is named in a sentence (the API's `READINGS_CSV_COLUMN_LABELS`, by type only here). */
-const COLUMN_LABELS: Readonly<Record<NonNullable<ReadingsImportError['column']>, string>> = {
-  run: 'run',
-  kind: 'kind',
-  sensorSide: 'sensor side',
-  amplitude: 'amplitude',
-  phaseDeg: 'phase',
-  speedRpm: 'speed',
-  amplitudeUnit: 'unit',
-  trialPlaneIndex: 'trial plane',
-  trialMassGrams: 'trial mass',
-  trialAngleDeg: 'trial angle',
-};
 
 /** The columns of a readings file, for the summary in the dialog (docs/readings-csv.md has the rest). */
 export const FORMAT_SUMMARY: readonly { readonly column: string; readonly holds: string }[] = [
@@ -72,7 +59,7 @@ export function describeImportError(error: ReadingsImportError): string {
       ? error.path === 'columns'
         ? 'Header'
         : 'File'
-      : `Row ${error.row}${error.column === null ? '' : `, ${COLUMN_LABELS[error.column]}`}`;
+      : `Row ${error.row}${error.column === null ? '' : `, ${READINGS_CSV_COLUMN_LABELS[error.column]}`}`;
   const found = error.value === null || error.value === '' ? '' : ` Found “${error.value}”.`;
   return `${where}: ${error.message}${found}`;
 }
