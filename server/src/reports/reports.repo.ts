@@ -1,11 +1,12 @@
 import { and, desc, eq, sql } from 'drizzle-orm';
 import type { Orm } from '../db/database';
+import { JobsRepo } from '../jobs/jobs.repo';
 import {
   customers,
   jobReports,
   jobReportSendings,
-  machineFamilies,
-  machines,
+  type machineFamilies,
+  type machines,
   organisations,
   users,
 } from '../db/schema';
@@ -40,7 +41,11 @@ const summaryColumns = {
  * its sendings, always within one organisation.
  */
 export class ReportsRepo {
-  constructor(private readonly orm: Orm) {}
+  private readonly jobs: JobsRepo;
+
+  constructor(private readonly orm: Orm) {
+    this.jobs = new JobsRepo(orm);
+  }
 
   organisationName(organisationId: number): string {
     return (
@@ -60,20 +65,13 @@ export class ReportsRepo {
       .get();
   }
 
+  /** The machine and its family, as the jobs read them. */
   findMachine(organisationId: number, id: number): MachineRow | undefined {
-    return this.orm
-      .select()
-      .from(machines)
-      .where(and(eq(machines.organisationId, organisationId), eq(machines.id, id)))
-      .get();
+    return this.jobs.findMachine(organisationId, id);
   }
 
   findFamily(organisationId: number, id: number): FamilyRow | undefined {
-    return this.orm
-      .select()
-      .from(machineFamilies)
-      .where(and(eq(machineFamilies.organisationId, organisationId), eq(machineFamilies.id, id)))
-      .get();
+    return this.jobs.findFamily(organisationId, id);
   }
 
   /** The names of the organisation's people, by id. */
