@@ -73,7 +73,8 @@ function datasetOf(series: HistorySeries, colours: ChartColours): ChartDataset<'
       borderWidth: 2,
       borderDash: series.side === 'right' ? [2, 6] : [2, 3],
       pointStyle: 'line',
-      pointRadius: 0,
+      // A line needs two jobs: the one job of a new machine's history gets its limit as a dash instead.
+      pointRadius: series.points.length === 1 ? 10 : 0,
       pointHoverRadius: 4,
       stepped: 'middle',
     };
@@ -177,10 +178,14 @@ export class HistoryChart {
             },
             grid: { color: colours.grid },
             // Half a month either side at least, so that the first and last points do not sit on the frame.
+            // From the data's own limits: chart.js has already widened one date alone by 5 % of its value
+            // (years, counted from 1970) by the time this runs.
             afterDataLimits: (scale) => {
-              const pad = Math.max(15 * 86_400_000, (scale.max - scale.min) * 0.05);
-              scale.min -= pad;
-              scale.max += pad;
+              const { min, max } = scale.getMinMax(false);
+              if (!Number.isFinite(min) || !Number.isFinite(max)) return;
+              const pad = Math.max(15 * 86_400_000, (max - min) * 0.05);
+              scale.min = min - pad;
+              scale.max = max + pad;
             },
           },
           y: {
