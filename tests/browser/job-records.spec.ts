@@ -16,6 +16,7 @@ import { DEMO_JOBS } from '../../server/src/jobs/jobs.seed';
 import { type ModelRotor, modelReadings } from '../../server/src/jobs/model-rotor';
 import { type Browser, launchChromium } from './support/chromium';
 import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
+import { animationsSettled } from './support/animations';
 
 const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
 const TABLET = { width: 820, height: 1180 };
@@ -128,17 +129,8 @@ async function machineIdOf(serialNumber: string): Promise<number> {
 
 /** A screenshot of the whole page once the animations that end have ended (spinners turn for ever). */
 async function shoot(name: string): Promise<void> {
-  await page.evaluate(() =>
-    Promise.all(
-      document
-        .getAnimations()
-        .filter((animation) => animation.effect?.getComputedTiming().iterations !== Infinity)
-        .map((animation) =>
-          // An animation cancelled (a dialog closing, a view leaving) rejects its promise: nothing to wait for.
-          animation.finished.catch(() => undefined),
-        ),
-    ),
-  );
+  await animationsSettled(page);
+
   const height = await page.evaluate(() => {
     const main = document.querySelector('main');
     return main ? main.scrollHeight + 64 : document.body.scrollHeight;

@@ -15,6 +15,7 @@ import { DEMO_PASSWORD } from '../../server/src/auth/accounts.seed';
 import { type ModelRotor, modelReadings } from '../../server/src/jobs/model-rotor';
 import { type Browser, launchChromium } from './support/chromium';
 import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
+import { animationsSettled } from './support/animations';
 
 const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
 const TABLET = { width: 820, height: 1180 };
@@ -161,15 +162,7 @@ function jobIdOf(on: Page): number {
 /** Takes the screenshot of the whole job page (the shell scrolls its content, so the window grows to it). */
 async function shoot(on: Page, name: string): Promise<void> {
   // The stepper slides to the step a stored change moved it to: the picture waits for the slide to end.
-  // (Spinners turn for ever: only animations that end are waited for.)
-  await on.evaluate(() =>
-    Promise.all(
-      document
-        .getAnimations()
-        .filter((animation) => animation.effect?.getComputedTiming().iterations !== Infinity)
-        .map((animation) => animation.finished),
-    ),
-  );
+  await animationsSettled(on);
   const viewport = on.viewportSize() ?? TABLET;
   const height = await on.evaluate(() => {
     const main = document.querySelector('main');
