@@ -220,6 +220,9 @@ export function createApp(deps: AppDeps): Express {
     recordChanges,
     clock,
   );
+  const machinesService = new MachinesService(new MachinesRepo(deps.database.orm), recordChanges, clock);
+  // One jobs service for every feature that reads or changes jobs (reports, import, history).
+  const jobsService = new JobsService(new JobsRepo(deps.database.orm), families, clock);
   const recordFeatures: FeatureRoutes[] = [
     customersRouter({
       access: recordAccess(auth, 'customers:write'),
@@ -231,7 +234,7 @@ export function createApp(deps: AppDeps): Express {
     }),
     machinesRouter({
       access: recordAccess(auth, 'machines:write'),
-      machines: new MachinesService(new MachinesRepo(deps.database.orm), recordChanges, clock),
+      machines: machinesService,
     }),
     // The balancing jobs; completing one refines its machine family's stored sensitivity.
     jobsRouter({
@@ -240,7 +243,7 @@ export function createApp(deps: AppDeps): Express {
         write: signedInAccess(auth, 'jobs:write', 'jobs:write-any'),
         manage: signedInAccess(auth, 'jobs:write-any'),
       },
-      jobs: new JobsService(new JobsRepo(deps.database.orm), families, clock),
+      jobs: jobsService,
     }),
     // The service report of a completed job: signed by the customer, frozen per revision, sent by e-mail.
     reportsRouter({
@@ -248,20 +251,12 @@ export function createApp(deps: AppDeps): Express {
         read: signedInAccess(auth, 'reports:read'),
         write: signedInAccess(auth, 'jobs:write', 'jobs:write-any'),
       },
-      reports: new ReportsService(
-        new JobsService(new JobsRepo(deps.database.orm), families, clock),
-        new ReportsRepo(deps.database.orm),
-        mailer,
-        clock,
-      ),
+      reports: new ReportsService(jobsService, new ReportsRepo(deps.database.orm), mailer, clock),
     }),
     // A job's run readings imported from a CSV file, through the jobs' service's own rules.
     readingsImportRouter({
       access: { write: signedInAccess(auth, 'jobs:write', 'jobs:write-any') },
-      imports: new ReadingsImportService(
-        deps.database.orm,
-        new JobsService(new JobsRepo(deps.database.orm), families, clock),
-      ),
+      imports: new ReadingsImportService(deps.database.orm, jobsService),
     }),
     // A machine's job history and the CSV export of the shop's jobs, read through the jobs' service.
     machineHistoryRouter({
@@ -271,8 +266,8 @@ export function createApp(deps: AppDeps): Express {
       },
       history: new MachineHistoryService(
         new MachineHistoryRepo(deps.database.orm),
-        new JobsService(new JobsRepo(deps.database.orm), families, clock),
-        new MachinesService(new MachinesRepo(deps.database.orm), recordChanges, clock),
+        jobsService,
+        machinesService,
         families,
       ),
     }),
