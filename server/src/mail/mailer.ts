@@ -70,12 +70,12 @@ export function smtpMailer(
 
 const escapeHtml = (text: string) => text.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 
-/** Paragraphs and one link, as plain text and as simple HTML. */
-export function composeMail(paragraphs: readonly string[], link: { label: string; url: string }) {
-  const text = [...paragraphs, `${link.label}: ${link.url}`].join('\n\n');
+/** Paragraphs and, when given, one link after them, as plain text and as simple HTML. */
+export function composeMail(paragraphs: readonly string[], link?: { label: string; url: string }) {
+  const text = [...paragraphs, ...(link ? [`${link.label}: ${link.url}`] : [])].join('\n\n');
   const html = [
     ...paragraphs.map((paragraph) => `<p>${escapeHtml(paragraph)}</p>`),
-    `<p><a href="${escapeHtml(link.url)}">${escapeHtml(link.label)}</a></p>`,
+    ...(link ? [`<p><a href="${escapeHtml(link.url)}">${escapeHtml(link.label)}</a></p>`] : []),
   ].join('\n');
   return { text: `${text}\n`, html };
 }

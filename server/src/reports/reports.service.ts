@@ -14,7 +14,7 @@ import {
 import type { Clock } from '../clock';
 import { HttpProblem } from '../http/problem';
 import type { JobActor, JobsService } from '../jobs/jobs.service';
-import type { Mailer } from '../mail/mailer';
+import { composeMail, type Mailer } from '../mail/mailer';
 import { checkVersion } from '../records/versions';
 import { buildReportPdf, formatTime } from './report-pdf';
 import { type ReportSource, reportSourceOf, sourceSha256 } from './report-source';
@@ -39,8 +39,6 @@ function conflict(detail: string, code: string): HttpProblem {
 function badField(path: string, message: string, code: string): HttpProblem {
   return new HttpProblem(400, 'Bad Request', `${path}: ${message}`, [{ path, message }], 'about:blank', code);
 }
-
-const escapeHtml = (text: string) => text.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 
 /**
  * The service report of a job: built from the job and its records, signed by the customer (each signing
@@ -245,8 +243,7 @@ export class ReportsService {
         organisationId: actor.organisationId,
         to,
         subject: `Service report ${source.jobNumber} from ${source.shopName}`,
-        text: `${paragraphs.join('\n\n')}\n`,
-        html: paragraphs.map((paragraph) => `<p>${escapeHtml(paragraph)}</p>`).join('\n'),
+        ...composeMail(paragraphs),
         attachments: [
           {
             filename: reportFileName(jobId, stored.revision),
