@@ -146,7 +146,9 @@ describe('the shop’s records in the workbench', () => {
     await tap(await screenPointOf(leftPlane(), 130, 0.85));
     await leftPlane().getByText('Marked: 130° from the reference mark.').waitFor();
     await leftPlane().getByRole('button', { name: 'End the sector here' }).click();
-    // The field of what blocks it has the focus, so the technician types straight away.
+    // The field of what blocks it takes the focus once drawn, so the technician types straight away.
+    const blocker = leftPlane().getByLabel('What blocks it', { exact: true });
+    await expect.poll(() => blocker.evaluate((field) => field === document.activeElement)).toBe(true);
     await page.keyboard.type('holder');
     expect(await leftPlane().getByLabel('From', { exact: true }).inputValue()).toBe('100');
     expect(await leftPlane().getByLabel('To', { exact: true }).inputValue()).toBe('130');
