@@ -28,6 +28,8 @@ export default defineConfig({
       { extends: true, test: { name: 'shared', include: ['shared/**/*.spec.ts'] } },
       { extends: true, test: { name: 'server', include: ['server/**/*.spec.ts'], pool: 'forks' } },
       { extends: true, test: { name: 'reference', include: ['tests/reference/**/*.spec.ts'] } },
+      // Checks that read the workbench's source as text (the icons its templates name).
+      { extends: true, test: { name: 'source', include: ['tests/source/**/*.spec.ts'] } },
       {
         extends: true,
         test: {

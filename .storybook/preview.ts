@@ -1,7 +1,6 @@
 import '@fontsource/roboto/400.css';
 import '@fontsource/roboto/500.css';
 import '@fontsource/roboto/700.css';
-import 'material-symbols/outlined.css';
 import './preview.scss';
 import type { Preview } from '@storybook/angular-vite';
 

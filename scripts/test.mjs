@@ -39,7 +39,7 @@ const steps = [
     commands: [node('typescript/bin/tsc', '-p', 'tsconfig.node.json')],
   },
   {
-    name: 'Engine, server, reference checks',
+    name: 'Engine, server, reference, source',
     report: 'node.json',
     commands: [
       vitest(
@@ -50,6 +50,8 @@ const steps = [
         'server',
         '--project',
         'reference',
+        '--project',
+        'source',
       ),
     ],
   },

@@ -8,8 +8,9 @@ import { seedDemoData } from '../../../server/src/db/seed';
 import { openTemporaryDatabase } from '../../../server/src/testing/temporary-database';
 import { UsageLog } from '../../../server/src/usage/usage-log';
 
-/** The production build of the workbench that `npm run build` leaves. */
-export const WORKBENCH_DIR = fileURLToPath(new URL('../../../dist/workbench/browser', import.meta.url));
+/** The production build of the workbench that `npm run build` leaves (WORKBENCH_DIR names another). */
+export const WORKBENCH_DIR =
+  process.env['WORKBENCH_DIR'] ?? fileURLToPath(new URL('../../../dist/workbench/browser', import.meta.url));
 
 /** A real Counterpoise server on a free loopback port, over a fresh SQLite file with the demo data. */
 export interface TestServer {

@@ -6,11 +6,11 @@ import {
   provideBrowserGlobalErrorListeners,
   provideZonelessChangeDetection,
 } from '@angular/core';
-import { MatIconRegistry } from '@angular/material/icon';
 import { provideRouter, withComponentInputBinding, withInMemoryScrolling } from '@angular/router';
 import { routes } from './app.routes';
 import { authInterceptor } from './auth/auth.interceptor';
 import { AuthSession } from './auth/auth-session';
+import { provideAppIcons } from './icons/app-icons';
 
 export const appConfig: ApplicationConfig = {
   providers: [
@@ -22,10 +22,8 @@ export const appConfig: ApplicationConfig = {
       withComponentInputBinding(),
       withInMemoryScrolling({ scrollPositionRestoration: 'enabled', anchorScrolling: 'enabled' }),
     ),
-    // Icons are ligatures of the Material Symbols font shipped from npm (angular.json styles).
-    provideAppInitializer(() => {
-      inject(MatIconRegistry).setDefaultFontSetClass('material-symbols-outlined', 'mat-ligature-font');
-    }),
+    // The icons the templates name, as SVG from npm (icons/app-icons.ts): no icon font to download.
+    provideAppIcons(),
     // The session survives a reload only as the refresh cookie: trade it for a token once, at start. Not
     // awaited, so that public pages draw at once; the guards wait for the answer.
     provideAppInitializer(() => {

@@ -21,7 +21,7 @@ import { FormRequest } from '../forms/form-request';
     <h1>Set a new password</h1>
     @if (sentTo(); as address) {
       <div class="notice" role="status">
-        <mat-icon aria-hidden="true">mark_email_read</mat-icon>
+        <mat-icon aria-hidden="true" svgIcon="mark_email_read" />
         <p>
           If an account uses <strong>{{ address }}</strong>, an e-mail with a link to set a new password is on
           its way. The link works once; open it on this device or any other.

@@ -14,7 +14,7 @@ import { PERMISSION_LABELS, ROLE_LABELS } from './roles';
   selector: 'app-not-available-page',
   imports: [MatButtonModule, MatIconModule, RouterLink],
   template: `
-    <mat-icon class="icon" aria-hidden="true">lock_person</mat-icon>
+    <mat-icon class="icon" aria-hidden="true" svgIcon="lock_person" />
     <h1>Not available for your role</h1>
     @if (session.user(); as user) {
       <p>

@@ -39,7 +39,7 @@ import { FormRequest } from '../forms/form-request';
       </div>
     } @else if (done()) {
       <div class="notice" role="status">
-        <mat-icon aria-hidden="true">check_circle</mat-icon>
+        <mat-icon aria-hidden="true" svgIcon="check_circle" />
         <p>
           Your password is changed. Sign in with it now; other devices signed in as you have to sign in again.
         </p>

@@ -57,7 +57,7 @@ describe('CustomerPage', { timeout: 30_000 }, () => {
 
   it('lets a technician edit and add a machine, but not archive', async () => {
     const { buttons, element } = await open('technician');
-    expect(buttons()).toEqual(['edit Edit', 'add Add a machine']);
+    expect(buttons()).toEqual(['Edit', 'Add a machine']);
     expect(element.querySelector('a[href="/machines/new?customerId=7"]')).not.toBeNull();
   });
 
@@ -68,7 +68,7 @@ describe('CustomerPage', { timeout: 30_000 }, () => {
 
   it('lets a manager archive the customer after asking, with the ETag it was read with', async () => {
     const { loader, buttons, harness, element } = await open('manager');
-    expect(buttons()).toEqual(['edit Edit', 'archive Archive', 'add Add a machine']);
+    expect(buttons()).toEqual(['Edit', 'Archive', 'Add a machine']);
     await (await loader.getHarness(MatButtonHarness.with({ text: /Archive/ }))).click();
     const overlays = TestbedHarnessEnvironment.documentRootLoader(harness.fixture);
     const dialog = await overlays.getHarness(MatDialogHarness);
@@ -86,7 +86,7 @@ describe('CustomerPage', { timeout: 30_000 }, () => {
     await confirmed;
     await harness.fixture.whenStable();
     expect(element.querySelector('h1 .badge')?.textContent).toBe('Archived');
-    expect(buttons()).toEqual(['edit Edit', 'unarchive Restore']);
+    expect(buttons()).toEqual(['Edit', 'Restore']);
     expect(element.textContent).toContain('Dagny Fairbrook archived this customer.');
   });
 });

@@ -67,7 +67,7 @@ const SUGGESTIONS = 10;
   template: `
     <mat-form-field appearance="outline" [subscriptSizing]="subscriptSizing()">
       <mat-label>{{ label() }}</mat-label>
-      <mat-icon matPrefix aria-hidden="true">storefront</mat-icon>
+      <mat-icon matPrefix aria-hidden="true" svgIcon="storefront" />
       <input
         matInput
         type="text"
@@ -85,7 +85,7 @@ const SUGGESTIONS = 10;
           [attr.aria-label]="'Clear ' + label().toLowerCase()"
           (click)="clear()"
         >
-          <mat-icon aria-hidden="true">close</mat-icon>
+          <mat-icon aria-hidden="true" svgIcon="close" />
         </button>
       }
       @if (hint(); as hint) {

@@ -2,6 +2,7 @@ import { booleanAttribute, ChangeDetectionStrategy, Component, computed, input }
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import type { AppIconName } from '../icons/app-icons';
 
 /** Room the spinner or an icon takes before the words: 20 px and the 8 px gap; an icon is 18 px. */
 const SPINNER_ROOM = '28px';
@@ -37,8 +38,8 @@ const ICON_ROOM = '26px';
         <span class="busy-button__now">
           @if (busy()) {
             <mat-spinner diameter="20" aria-hidden="true" />
-          } @else if (icon()) {
-            <mat-icon aria-hidden="true">{{ icon() }}</mat-icon>
+          } @else if (icon(); as iconName) {
+            <mat-icon aria-hidden="true" [svgIcon]="iconName" />
           }
           {{ busy() ? (busyLabel() ?? label()) : label() }}
         </span>
@@ -98,7 +99,7 @@ export class BusyButton {
   /** `submit` for a form's button; `button` (the default) for an action. */
   readonly type = input<'submit' | 'button'>('button');
   /** The icon before the label, which the spinner takes the place of while busy. */
-  readonly icon = input<string | null>(null);
+  readonly icon = input<AppIconName | null>(null);
 
   /** The words of the state not shown, with the room its spinner or icon takes. */
   protected readonly _other = computed(() => {

@@ -2,6 +2,7 @@ import { booleanAttribute, ChangeDetectionStrategy, Component, computed, input, 
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { httpErrorMessage } from '../shell/server-errors';
+import type { AppIconName } from '../icons/app-icons';
 
 /**
  * Why a request failed, on the error colours: an icon, the sentence, and the way on (a retry button, or
@@ -16,7 +17,7 @@ import { httpErrorMessage } from '../shell/server-errors';
   selector: 'app-error-banner',
   imports: [MatButtonModule, MatIconModule],
   template: `
-    <mat-icon class="error-banner__icon" aria-hidden="true">{{ icon() }}</mat-icon>
+    <mat-icon class="error-banner__icon" aria-hidden="true" [svgIcon]="icon()" />
     <p class="error-banner__text">
       {{ text() }}
       <ng-content />
@@ -24,7 +25,7 @@ import { httpErrorMessage } from '../shell/server-errors';
     <ng-content select="[errorBannerAction]" />
     @if (retryLabel(); as label) {
       <button matButton="outlined" class="error-banner__retry" type="button" (click)="retry.emit()">
-        <mat-icon aria-hidden="true">refresh</mat-icon>
+        <mat-icon aria-hidden="true" svgIcon="refresh" />
         {{ label }}
       </button>
     }
@@ -76,7 +77,7 @@ export class ErrorBanner {
   /** What could not be done, before the reason: "The keys could not be fetched." */
   readonly lead = input<string>('');
   /** The icon before the sentence: `error`, or `link_off` for a broken link. */
-  readonly icon = input('error');
+  readonly icon = input<AppIconName>('error');
   /** The label of the button that tries again; no button without it. */
   readonly retryLabel = input<string | null>(null);
   /** `assertive` (role `alert`, the default) interrupts; `polite` (role `status`) waits its turn. */

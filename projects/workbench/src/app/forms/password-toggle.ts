@@ -19,7 +19,7 @@ import { MatIconModule } from '@angular/material/icon';
       [attr.aria-pressed]="visible()"
       (click)="visible.set(!visible())"
     >
-      <mat-icon aria-hidden="true">{{ visible() ? 'visibility_off' : 'visibility' }}</mat-icon>
+      <mat-icon aria-hidden="true" [svgIcon]="visible() ? 'visibility_off' : 'visibility'" />
     </button>
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,

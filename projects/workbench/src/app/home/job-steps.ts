@@ -1,6 +1,8 @@
+import type { AppIconName } from '../icons/app-icons';
+
 /** One stage of a field balancing job, as the home page explains it. */
 export interface JobStep {
-  readonly icon: string;
+  readonly icon: AppIconName;
   readonly title: string;
   readonly summary: string;
 }

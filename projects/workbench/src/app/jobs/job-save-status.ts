@@ -22,7 +22,7 @@ import { JobSession } from './job-session';
           <span>Saving: {{ state.what }}…</span>
         }
         @case ('retrying') {
-          <mat-icon aria-hidden="true">cloud_off</mat-icon>
+          <mat-icon aria-hidden="true" svgIcon="cloud_off" />
           <span>
             <strong>Not saved yet: {{ state.what }}.</strong> {{ state.reason }} Trying again by itself
             (attempt {{ state.attempt + 1 }}, in {{ state.delayMs / 1000 }} s).
@@ -30,25 +30,25 @@ import { JobSession } from './job-session';
           <button matButton="outlined" type="button" (click)="session.retryNow()">Try now</button>
         }
         @case ('saved') {
-          <mat-icon aria-hidden="true">cloud_done</mat-icon>
+          <mat-icon aria-hidden="true" svgIcon="cloud_done" />
           <span>Saved: {{ state.what }}, at {{ state.at | date: 'HH:mm:ss' }}.</span>
         }
         @case ('refused') {
-          <mat-icon aria-hidden="true">error</mat-icon>
+          <mat-icon aria-hidden="true" svgIcon="error" />
           <span
             ><strong>Not saved: {{ state.what }}.</strong> {{ state.message }}</span
           >
           <button matButton type="button" (click)="session.dismiss()">Dismiss</button>
         }
         @case ('changed-meanwhile') {
-          <mat-icon aria-hidden="true">sync_problem</mat-icon>
+          <mat-icon aria-hidden="true" svgIcon="sync_problem" />
           <span
             ><strong>Not saved: {{ state.what }}.</strong> {{ state.message }}</span
           >
           <button matButton type="button" (click)="session.dismiss()">Dismiss</button>
         }
         @default {
-          <mat-icon aria-hidden="true">cloud_done</mat-icon>
+          <mat-icon aria-hidden="true" svgIcon="cloud_done" />
           <span
             >Each step is saved on the server as you store it; what you type stays on this device until
             then.</span

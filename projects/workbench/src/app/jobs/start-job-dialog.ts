@@ -104,7 +104,7 @@ const SUGGESTIONS = 10;
         }
         <mat-form-field appearance="outline">
           <mat-label>Machine</mat-label>
-          <mat-icon matPrefix aria-hidden="true">agriculture</mat-icon>
+          <mat-icon matPrefix aria-hidden="true" svgIcon="agriculture" />
           <input
             matInput
             type="text"

@@ -128,8 +128,8 @@ describe('MachineHistoryPage', { timeout: 30_000 }, () => {
     const { element } = await open(aHistory({ jobs: [], unit: null, weightsOnRotor: null, family: null }));
     const states = [...element.querySelectorAll('.state')].map((state) => text(state));
     expect(states).toEqual([
-      'show_chart No readings yet: the chart fills in as jobs on this machine are read.',
-      'history No job on this machine yet.',
+      'No readings yet: the chart fills in as jobs on this machine are read.',
+      'No job on this machine yet.',
       'No job on this machine is completed yet, so no weight is on record.',
       'The machine has no family, so there is no stored sensitivity to show.',
     ]);

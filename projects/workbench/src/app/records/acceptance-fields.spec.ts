@@ -61,7 +61,7 @@ describe('AcceptanceFields', { timeout: 20_000 }, () => {
     await kind.open();
     await kind.clickOptions({ text: /vibration zone/ });
     expect((fixture.nativeElement as HTMLElement).querySelector('.guidance')?.textContent?.trim()).toBe(
-      'info As guidance: mobile machines are outside the scope of these zones (ISO 10816-3 / 20816-3).',
+      'As guidance: mobile machines are outside the scope of these zones (ISO 10816-3 / 20816-3).',
     );
     expect(acceptanceValue(group)).toEqual({
       kind: 'severity-zone',

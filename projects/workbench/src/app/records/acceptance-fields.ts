@@ -197,7 +197,7 @@ export function acceptanceValue(group: AcceptanceGroup): AcceptanceLevel | null 
             </mat-select>
           </mat-form-field>
           <p class="guidance">
-            <mat-icon aria-hidden="true">info</mat-icon>
+            <mat-icon aria-hidden="true" svgIcon="info" />
             {{ zoneGuidance }}
           </p>
         }

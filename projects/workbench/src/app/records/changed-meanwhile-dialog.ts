@@ -46,7 +46,7 @@ export type ChangedMeanwhileChoice = 'mine' | 'theirs';
             <h3>
               {{ capitalised(row.label) }}
               @if (row.changedBy === 'both') {
-                <span class="tag"><mat-icon aria-hidden="true">warning</mat-icon>changed by both</span>
+                <span class="tag"><mat-icon aria-hidden="true" svgIcon="warning" />changed by both</span>
               }
             </h3>
             <dl>

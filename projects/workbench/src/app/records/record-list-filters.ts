@@ -16,7 +16,7 @@ import type { RecordList } from './record-list';
   template: `
     <mat-form-field appearance="outline" class="search" subscriptSizing="dynamic">
       <mat-label>{{ searchLabel() }}</mat-label>
-      <mat-icon matPrefix aria-hidden="true">search</mat-icon>
+      <mat-icon matPrefix aria-hidden="true" svgIcon="search" />
       <input matInput type="search" autocomplete="off" [formControl]="records().search" />
       <mat-hint>{{ searchHint() }}</mat-hint>
     </mat-form-field>

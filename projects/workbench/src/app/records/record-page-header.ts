@@ -28,7 +28,7 @@ import { BusyButton } from '../forms/busy-button';
       <div class="actions">
         @if (session.can(editPermission())) {
           <a matButton="filled" [routerLink]="editLink()">
-            <mat-icon aria-hidden="true">edit</mat-icon>
+            <mat-icon aria-hidden="true" svgIcon="edit" />
             Edit
           </a>
         }

@@ -95,7 +95,7 @@ describe('ReportPanel', { timeout: 30_000 }, () => {
   it('says the report is not signed yet and offers signing, not e-mail', async () => {
     const { element } = await render();
     expect(text(element.querySelector('[data-testid="report-state"]'))).toBe(
-      'drawNot signed yet: the download is a draft, marked so on every page.',
+      'Not signed yet: the download is a draft, marked so on every page.',
     );
     expect(button(element, 'Customer signs')).toBeDefined();
     expect(button(element, 'E-mail to the customer')).toBeUndefined();
@@ -154,7 +154,7 @@ describe('ReportPanel', { timeout: 30_000 }, () => {
     name.dispatchEvent(new Event('input'));
     button(open, 'Sign')!.click();
     await settle();
-    expect(text(open.querySelector('[data-testid="pad-error"]'))).toBe(`error ${DRAWING_NEEDED}`);
+    expect(text(open.querySelector('[data-testid="pad-error"]'))).toBe(DRAWING_NEEDED);
     http.expectNone('/api/v1/jobs/6/report/signature');
 
     drawOn(open.querySelector('canvas')!, [

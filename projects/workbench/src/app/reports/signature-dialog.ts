@@ -88,7 +88,7 @@ export const DRAWING_NEEDED =
       </p>
       <p id="pad-error" class="error" role="alert" data-testid="pad-error">
         @if (padError(); as message) {
-          <mat-icon aria-hidden="true">error</mat-icon>
+          <mat-icon aria-hidden="true" svgIcon="error" />
           {{ message }}
         }
       </p>
@@ -98,7 +98,7 @@ export const DRAWING_NEEDED =
     </mat-dialog-content>
     <mat-dialog-actions>
       <button matButton type="button" (click)="clear()" [disabled]="busy()">
-        <mat-icon aria-hidden="true">backspace</mat-icon>
+        <mat-icon aria-hidden="true" svgIcon="backspace" />
         Clear
       </button>
       <span class="spacer"></span>

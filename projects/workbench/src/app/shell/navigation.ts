@@ -1,11 +1,12 @@
 import type { Permission } from '@counterpoise/api';
+import type { AppIconName } from '../icons/app-icons';
 
 /** One entry of the main navigation. */
 export interface NavigationItem {
   /** The visible label. */
   readonly label: string;
-  /** The Material Symbols ligature of its icon. */
-  readonly icon: string;
+  /** Its icon (one of app-icons.ts). */
+  readonly icon: AppIconName;
   /** A route inside the app, or an address served by the server beside it. */
   readonly link: string;
   /** True when the address is served by the server (the API reference), not by the app's router. */

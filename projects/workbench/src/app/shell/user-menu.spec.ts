@@ -62,8 +62,8 @@ describe('UserMenu', () => {
     expect(text).toContain('Technician · Alder Ridge Rotor Service');
     expect(text).toContain('suvi@example.com');
     expect(await Promise.all((await menu.getItems()).map((item) => item.getText()))).toEqual([
-      'badge Your account',
-      'logout Sign out',
+      'Your account',
+      'Sign out',
     ]);
   });
 

@@ -24,7 +24,7 @@ import { httpErrorMessage } from './server-errors';
         [matMenuTriggerFor]="menu"
         [attr.aria-label]="'Your account: ' + user.name"
       >
-        <mat-icon aria-hidden="true">account_circle</mat-icon>
+        <mat-icon aria-hidden="true" svgIcon="account_circle" />
         <span class="trigger__name">{{ user.name }}</span>
       </button>
       <mat-menu #menu="matMenu" xPosition="before" class="user-menu">
@@ -34,17 +34,17 @@ import { httpErrorMessage } from './server-errors';
           <span class="who__line">{{ user.email }}</span>
         </div>
         <a mat-menu-item routerLink="/account">
-          <mat-icon aria-hidden="true">badge</mat-icon>
+          <mat-icon aria-hidden="true" svgIcon="badge" />
           Your account
         </a>
         <button mat-menu-item type="button" [disabled]="signingOut()" (click)="signOut()">
-          <mat-icon aria-hidden="true">logout</mat-icon>
+          <mat-icon aria-hidden="true" svgIcon="logout" />
           Sign out
         </button>
       </mat-menu>
     } @else if (session.restored()) {
       <a matButton class="trigger" routerLink="/sign-in">
-        <mat-icon aria-hidden="true">login</mat-icon>
+        <mat-icon aria-hidden="true" svgIcon="login" />
         Sign in
       </a>
     }

@@ -170,7 +170,7 @@ describe('ReadingsImportDialog', { timeout: 30_000 }, () => {
     expect(text(dialog()!.querySelector('[role=status]'))).toBe(
       '1 run to add from 4 rows. Nothing is saved until you import.',
     );
-    expect(text(dialog()!.querySelector('.readings-import__file'))).toBe('description right-trial.csv');
+    expect(text(dialog()!.querySelector('.readings-import__file'))).toBe('right-trial.csv');
     const run = dialog()!.querySelector('tbody[data-run="3"]')!;
     expect([...run.querySelectorAll('.run-cell > span')].map((line) => text(line))).toEqual([
       'Run 3 · Trial run',
@@ -182,10 +182,10 @@ describe('ReadingsImportDialog', { timeout: 30_000 }, () => {
     );
     expect(rows).toEqual([
       ['Left', '0.585 in/s peak at 302.5°', '2', '1 %'],
-      ['Right', '0.36 in/s peak at 140°', '2', '25 % errornot trusted'],
+      ['Right', '0.36 in/s peak at 140°', '2', '25 % not trusted'],
     ]);
     expect(text(run.querySelector('.warnings'))).toBe(
-      'warning Right sensor: the readings spread by 25 % of their average (limit 20 %).',
+      'Right sensor: the readings spread by 25 % of their average (limit 20 %).',
     );
     expect(dialog()!.querySelector('.readings-import__problems')).toBeNull();
 
@@ -213,7 +213,7 @@ describe('ReadingsImportDialog', { timeout: 30_000 }, () => {
     expect(dialog()).toBeNull();
     // The runs step shows the job as stored, the imported run with it.
     expect(text((fixture.nativeElement as HTMLElement).querySelector('.run[data-run="3"] .run__trial'))).toBe(
-      'add_circle Trial weight: 120 g at 0° in the right plane',
+      'Trial weight: 120 g at 0° in the right plane',
     );
   });
 

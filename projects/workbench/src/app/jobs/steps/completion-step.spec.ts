@@ -167,8 +167,8 @@ describe('JobCompletionStep', { timeout: 30_000 }, () => {
       link.getAttribute('href'),
     ]);
     expect(links).toEqual([
-      ['precision_manufacturing Quernstone QS-180 · QS180-0457', '/machines/3'],
-      ['category Fixed-tooth mulcher drum, 2.0 m', '/machine-families/1'],
+      ['Quernstone QS-180 · QS180-0457', '/machines/3'],
+      ['Fixed-tooth mulcher drum, 2.0 m', '/machine-families/1'],
     ]);
     expect(completeButton(element)).toBeUndefined();
   });

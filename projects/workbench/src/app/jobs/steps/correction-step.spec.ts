@@ -114,24 +114,23 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
       {
         method: 'one-run',
         label: 'Stored sensitivity, one run',
-        status:
-          'check_circle This job has it: the left sensor and left plane, 619 g per in/s peak, from 4 jobs.',
+        status: 'This job has it: the left sensor and left plane, 619 g per in/s peak, from 4 jobs.',
       },
       {
         method: 'single-plane',
         label: 'Trial weight, one plane',
-        status: 'check_circle This job has it: trial run 2 in the left plane, read by the left sensor.',
+        status: 'This job has it: trial run 2 in the left plane, read by the left sensor.',
       },
       {
         method: 'multi-plane',
         label: 'Two planes',
-        status: 'radio_button_unchecked Missing: a trial run in the right plane (run 2 is in the other).',
+        status: 'Missing: a trial run in the right plane (run 2 is in the other).',
       },
       {
         method: 'four-run',
         label: 'Amplitude only, trial at three positions',
         status:
-          'radio_button_unchecked The initial run (run 1) was read with phase: amplitude only needs it read without phase. Use a method with phase.',
+          'The initial run (run 1) was read with phase: amplitude only needs it read without phase. Use a method with phase.',
       },
     ]);
     expect(text(element.querySelector('[data-method="four-run"] .method__needs'))).toBe(
@@ -143,27 +142,23 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
 
   it('says the stored sensitivity is missing on a machine without a family', async () => {
     const { element } = await render(JOB_AFTER_LEFT_TRIAL, { family: undefined });
-    expect(methods(element)[0]?.status).toBe(
-      'radio_button_unchecked The machine has no family, so no stored sensitivity.',
-    );
+    expect(methods(element)[0]?.status).toBe('The machine has no family, so no stored sensitivity.');
   });
 
   it('offers no method while fitted weights wait for their verification run', async () => {
     const { element } = await render(JOB_WITH_INSTALLED);
     expect(methods(element).map((method) => method.status)).toEqual(
-      Array(4).fill(
-        'radio_button_unchecked Weights were fitted since the last run: take a verification run with them on first.',
-      ),
+      Array(4).fill('Weights were fitted since the last run: take a verification run with them on first.'),
     );
   });
 
   it('after a verification, works the worse side: no trim where no weight went in its plane', async () => {
     const { element } = await render(JOB_VERIFIED_RIGHT_ABOVE);
     expect(methods(element).map((method) => method.status)).toEqual([
-      'check_circle This job has it: the right sensor and right plane, 668 g per in/s peak, from 4 jobs.',
-      'radio_button_unchecked A trim needs weights fitted in the right plane between run 1 and verification run 3; none were. Work the right side with two planes.',
-      'radio_button_unchecked Missing: a trial run in the right plane (run 2 is in the other).',
-      'radio_button_unchecked Run 3 was read with phase: amplitude only needs it read without phase. Use a method with phase.',
+      'This job has it: the right sensor and right plane, 668 g per in/s peak, from 4 jobs.',
+      'A trim needs weights fitted in the right plane between run 1 and verification run 3; none were. Work the right side with two planes.',
+      'Missing: a trial run in the right plane (run 2 is in the other).',
+      'Run 3 was read with phase: amplitude only needs it read without phase. Use a method with phase.',
     ]);
   });
 
@@ -171,7 +166,7 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
     const { element } = await render(JOB_VERIFIED_RIGHT_ABOVE);
     const verdict = element.querySelector('[data-testid="not-yet-accepted"]');
     expect(text(verdict?.querySelector('h3'))).toBe(
-      'replay Run 3 is above the acceptance level: work the right side next',
+      'Run 3 is above the acceptance level: work the right side next',
     );
     expect(text(verdict)).toContain(
       'The right side reads 0.32 in/s-pk, above its limit of 0.15 in/s-pk; the left side is within its limit.',
@@ -225,7 +220,7 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
     const { fixture, element } = await render(JOB_AFTER_LEFT_TRIAL);
     (element.querySelector('[data-method="single-plane"] input') as HTMLInputElement).click();
     await fixture.whenStable();
-    button(element, 'calculate Work it out').click();
+    button(element, 'Work it out').click();
     const request = http.expectOne('/api/v1/jobs/8/corrections');
     expect(request.request.method).toBe('POST');
     expect(request.request.headers.get('If-Match')).toBe('"6"');
@@ -260,7 +255,7 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
 
   it('says in plain words why the engine refused the readings', async () => {
     const { fixture, element } = await render(JOB_AFTER_LEFT_TRIAL);
-    button(element, 'calculate Work it out').click();
+    button(element, 'Work it out').click();
     http.expectOne('/api/v1/jobs/8/corrections').flush(
       {
         type: 'about:blank',
@@ -299,7 +294,7 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
     second!.value = '50';
     second!.dispatchEvent(new Event('input'));
     await fixture.whenStable();
-    button(element, 'done Record what was fitted').click();
+    button(element, 'Record what was fitted').click();
 
     const request = http.expectOne('/api/v1/jobs/8/corrections/8/installed');
     expect(request.request.method).toBe('PUT');
@@ -366,7 +361,7 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
 
   it('puts the server’s field errors on the weight at fault', async () => {
     const { fixture, element } = await render(JOB_WITH_CORRECTION);
-    button(element, 'done Record what was fitted').click();
+    button(element, 'Record what was fitted').click();
     http.expectOne('/api/v1/jobs/8/corrections/8/installed').flush(
       {
         type: 'about:blank',
@@ -418,10 +413,8 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
     it('picks amplitude only for runs read without phase, and asks for the trial at 0° with its mass typed once', async () => {
       const { fixture, element } = await render(amplitudeOnlyJob([]));
       expect(methods(element).map((method) => method.status)).toEqual([
-        ...Array(3).fill(
-          'radio_button_unchecked The initial run (run 1) was read without phase: this method needs the phase.',
-        ),
-        'radio_button_unchecked The initial run (run 1); no trial run read without phase yet. Missing: 3 more trial runs in the left plane.',
+        ...Array(3).fill('The initial run (run 1) was read without phase: this method needs the phase.'),
+        'The initial run (run 1); no trial run read without phase yet. Missing: 3 more trial runs in the left plane.',
       ]);
       const checked = element.querySelector('mat-radio-button.mat-mdc-radio-checked');
       expect(checked?.getAttribute('data-method')).toBe('four-run');
@@ -447,7 +440,7 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
       await typeInto('[id$="-s0-r0-speedRpm"]', '2100');
       await typeInto('[id$="-s1-r0-amplitude"]', '0.33');
       await typeInto('[id$="-s1-r0-speedRpm"]', '2100');
-      button(entry as HTMLElement, 'save Save the trial run at 0° (1 of 3)').click();
+      button(entry as HTMLElement, 'Save the trial run at 0° (1 of 3)').click();
       await settle(fixture);
       const request = http.expectOne('/api/v1/jobs/8/runs');
       expect(request.request.body).toEqual({
@@ -474,7 +467,7 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
     it('says what the job has, and works it out once the three positions are stored', async () => {
       const { fixture, element } = await render(amplitudeOnlyJob([0, 120]));
       expect(methods(element)[3]?.status).toBe(
-        'radio_button_unchecked The initial run (run 1) and 40 g at 0° (run 2), 120° (run 3). Missing: 1 more trial run in the left plane.',
+        'The initial run (run 1) and 40 g at 0° (run 2), 120° (run 3). Missing: 1 more trial run in the left plane.',
       );
       expect(text(element.querySelector('[data-testid="amplitude-only"] h4'))).toBe(
         'Trial run at 240° (3 of 3), amplitude only',
@@ -482,10 +475,10 @@ describe('JobCorrectionStep', { timeout: 30_000 }, () => {
 
       await render(amplitudeOnlyJob([0, 120, 240])).then(async ({ fixture: ready, element: page }) => {
         expect(methods(page)[3]?.status).toBe(
-          'check_circle This job has it: the initial run (run 1) and 40 g at 0° (run 2), 120° (run 3), 240° (run 4) in the left plane.',
+          'This job has it: the initial run (run 1) and 40 g at 0° (run 2), 120° (run 3), 240° (run 4) in the left plane.',
         );
         expect(page.querySelector('[data-testid="amplitude-only"]')).toBeNull();
-        button(page, 'calculate Work it out').click();
+        button(page, 'Work it out').click();
         const request = http.expectOne('/api/v1/jobs/8/corrections');
         expect(request.request.body).toEqual({ method: 'four-run' });
         request.flush(

@@ -16,7 +16,7 @@ import { JobSession } from '../job-session';
 import type { Job } from '../jobs.api';
 import { aPhoto, fakeObjectUrls } from '../../photos/photos-testing';
 import { JobInspectionStep } from './inspection-step';
-import { answered, configureStepTesting, renderStep, words } from './step-testing';
+import { answered, configureStepTesting, renderStep, text } from './step-testing';
 import { JOB_LET_GO_ON, JOB_ON_HOLD, JOB_SAFETY_ACKNOWLEDGED, MULCHER_FAMILY } from './testing-jobs';
 
 /** The step as the job page shows it: the job as the session stores it, so a stored change shows at once. */
@@ -97,7 +97,7 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
         await new Promise((resolve) => setTimeout(resolve));
         fixture.detectChanges();
         const gallery = element.querySelector('app-photo-gallery')!;
-        expect(words(gallery.querySelector('h3'))).toBe('The rotor as found');
+        expect(text(gallery.querySelector('h3'))).toBe('The rotor as found');
         expect(gallery.querySelector('img')?.getAttribute('alt')).toBe('Wire wrapped round the left hub');
         expect(gallery.querySelector('.photos__add-button') !== null).toBe(role === 'technician');
         fixture.destroy();
@@ -109,14 +109,14 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
 
   it('shows each measure beside the family’s limit, and whether what is typed is within it', async () => {
     const { element, input } = await render(JOB_SAFETY_ACKNOWLEDGED);
-    const limits = [...element.querySelectorAll('.limit')].map(words);
+    const limits = [...element.querySelectorAll('.limit')].map(text);
     expect(limits).toEqual(['Limit 0.3 mm', 'Limit 0.2 mm']);
-    expect(words(element.querySelector('fieldset .hint'))).toBe(
+    expect(text(element.querySelector('fieldset .hint'))).toBe(
       'Judged against the limits of Fixed-tooth mulcher drum, 2.0 m.',
     );
     await (await input('Bearing end play')).setValue('0.42');
     await (await input('Shaft runout')).setValue('0.2');
-    expect([...element.querySelectorAll('.limit')].map(words)).toEqual([
+    expect([...element.querySelectorAll('.limit')].map(text)).toEqual([
       'Limit 0.3 mm: over the limit',
       'Limit 0.2 mm: within',
     ]);
@@ -125,8 +125,8 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
 
   it('shows the common-practice limits in mm for a machine without a family', async () => {
     const { element } = await render(JOB_WITHOUT_FAMILY, { family: undefined });
-    expect([...element.querySelectorAll('.limit')].map(words)).toEqual(['Limit 3.175 mm', 'Limit 0.356 mm']);
-    expect(words(element.querySelector('fieldset .hint'))).toBe(
+    expect([...element.querySelectorAll('.limit')].map(text)).toEqual(['Limit 3.175 mm', 'Limit 0.356 mm']);
+    expect(text(element.querySelector('fieldset .hint'))).toBe(
       'Judged against common-practice limits (the machine has no family).',
     );
   });
@@ -141,7 +141,7 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     );
     expect(errors.flat()).toEqual(['Enter the bearing end play in mm.', 'Enter the shaft runout in mm.']);
     expect(document.activeElement).toBe(element.querySelector('input[formcontrolname="bearingEndPlayMm"]'));
-    expect([...element.querySelectorAll('.check .field-error')].map(words)).toEqual(
+    expect([...element.querySelectorAll('.check .field-error')].map(text)).toEqual(
       Array(4).fill('Choose OK, fixed or fault left.'),
     );
   });
@@ -166,17 +166,17 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     });
     request.flush(JOB_ON_HOLD, { headers: { ETag: '"3"' } });
     await answered(fixture);
-    expect(words(element.querySelector('.hold__heading'))).toBe('The job is on hold');
+    expect(text(element.querySelector('.hold__heading'))).toBe('The job is on hold');
     expect(localStorage.getItem('counterpoise.job-draft.13.inspection')).toBeNull();
   });
 
   it('shows a job on hold with its reasons, tells a technician that a manager decides, and keeps the form to re-measure', async () => {
     const { fixture, element, loader, input, submit } = await render(JOB_ON_HOLD);
-    expect([...element.querySelectorAll('.hold__reasons li')].map(words)).toEqual([
+    expect([...element.querySelectorAll('.hold__reasons li')].map(text)).toEqual([
       'Bearing end play is 0.42 mm, over the limit of 0.3 mm: repair before balancing.',
       'Welds: a fault is left; fix it before balancing.',
     ]);
-    expect(words(element.querySelector('.hold__decision'))).toContain(
+    expect(text(element.querySelector('.hold__decision'))).toContain(
       'a manager must decide whether the job goes on: it is listed on the manager’s home page',
     );
     expect(element.querySelector('.hold button')).toBeNull();
@@ -212,14 +212,14 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     await answered(fixture);
     expect(element.querySelector('.hold')).toBeNull();
     expect(element.querySelector('form')).toBeNull();
-    expect(words(element.querySelector('.summary__heading'))).toBe('Within the limits');
+    expect(text(element.querySelector('.summary__heading'))).toBe('Within the limits');
   });
 
   it('lets a manager let the job go on, with the reason asked for and sent', async () => {
     const { fixture, element, overlays } = await render(JOB_ON_HOLD, { role: 'manager' });
-    expect(words(element.querySelector('.hold__decision'))).not.toContain('a manager must decide');
+    expect(text(element.querySelector('.hold__decision'))).not.toContain('a manager must decide');
     const button = [...element.querySelectorAll<HTMLButtonElement>('.hold button')].find(
-      (candidate) => words(candidate) === 'Let the job go on',
+      (candidate) => text(candidate) === 'Let the job go on',
     )!;
     button.click();
     const dialog = await overlays.getHarness(MatDialogHarness);
@@ -227,7 +227,7 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     const reason = await dialog.getHarness(MatInputHarness);
     await reason.setValue(JOB_LET_GO_ON.inspection!.override!.reason);
     const confirm = [...document.querySelectorAll<HTMLButtonElement>('mat-dialog-actions button')].find(
-      (candidate) => words(candidate) === 'Let the job go on',
+      (candidate) => text(candidate) === 'Let the job go on',
     )!;
     confirm.click();
     await new Promise((resolve) => setTimeout(resolve));
@@ -239,7 +239,7 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     request.flush(JOB_LET_GO_ON, { headers: { ETag: '"4"' } });
     await answered(fixture);
     expect(element.querySelector('.hold')).toBeNull();
-    expect(words(element.querySelector('.decided__reason'))).toBe(
+    expect(text(element.querySelector('.decided__reason'))).toBe(
       `“${JOB_LET_GO_ON.inspection!.override!.reason}”`,
     );
   });
@@ -247,15 +247,13 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
   it('shows an overridden inspection with the reason, who and when, and what it had found', async () => {
     const { element } = await render(JOB_LET_GO_ON);
     const override = JOB_LET_GO_ON.inspection!.override!;
-    expect(words(element.querySelector('.decided__heading'))).toBe(
+    expect(text(element.querySelector('.decided__heading'))).toBe(
       `Let go on by Dagny Fairbrook on ${formatDate(override.at, 'd MMM y, HH:mm', 'en-US')}`,
     );
-    expect(words(element.querySelector('.decided__reason'))).toBe(`“${override.reason}”`);
-    expect([...element.querySelectorAll('.decided li')].map(words)).toEqual(
-      JOB_LET_GO_ON.inspection!.reasons,
-    );
+    expect(text(element.querySelector('.decided__reason'))).toBe(`“${override.reason}”`);
+    expect([...element.querySelectorAll('.decided li')].map(text)).toEqual(JOB_LET_GO_ON.inspection!.reasons);
     expect(element.querySelector('form')).toBeNull();
-    expect(words(element.querySelector('.details'))).toContain('Bearing end play 0.42 mm (limit 0.3 mm)');
+    expect(text(element.querySelector('.details'))).toContain('Bearing end play 0.42 mm (limit 0.3 mm)');
   });
 
   it('puts the server’s field errors on their fields', async () => {
@@ -279,7 +277,7 @@ describe('JobInspectionStep', { timeout: 30_000 }, () => {
     await answered(fixture);
     const runout = await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Shaft runout' }));
     expect(await runout.getTextErrors()).toEqual(['The runout is at most 10 mm.']);
-    expect(words(element.querySelector('#check-error-welds'))).toBe('A check is ok, fixed or fault.');
+    expect(text(element.querySelector('#check-error-welds'))).toBe('A check is ok, fixed or fault.');
     expect(element.querySelector('app-error-banner')).toBeNull();
   });
 

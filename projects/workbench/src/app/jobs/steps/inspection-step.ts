@@ -40,6 +40,7 @@ import { PhotoGallery } from '../../photos/photo-gallery';
 import type { Job, RecordInspection } from '../jobs.api';
 import { askForReason } from '../reason-dialog';
 import { focusFirstInvalid } from './step-forms';
+import type { AppIconName } from '../../icons/app-icons';
 
 /** The outcome of one visual check. */
 export type CheckOutcome = RecordInspection['checks'][keyof RecordInspection['checks']];
@@ -72,7 +73,7 @@ export const VISUAL_CHECKS: readonly {
 export const CHECK_OUTCOMES: readonly {
   readonly value: CheckOutcome;
   readonly label: string;
-  readonly icon: string;
+  readonly icon: AppIconName;
 }[] = [
   { value: 'ok', label: 'OK', icon: 'check_circle' },
   { value: 'fixed', label: 'Fixed', icon: 'build' },

@@ -80,7 +80,7 @@ describe('JobRunsStep', { timeout: 30_000 }, () => {
     ]);
     expect(element.querySelector('.run[data-run="1"] .run__trial')).toBeNull();
     expect(text(element.querySelector('.run[data-run="2"] .run__trial'))).toBe(
-      'add_circle Trial weight: 120 g at 0° in the left plane',
+      'Trial weight: 120 g at 0° in the left plane',
     );
     expect(text(element.querySelector('.run[data-run="2"] .run__weights'))).toContain(
       'No weights of this job on the rotor.',
@@ -130,12 +130,10 @@ describe('JobRunsStep', { timeout: 30_000 }, () => {
     ]);
     const left = element.querySelector('.run[data-run="2"] .sensor-reading[data-side="left"]');
     expect(left?.classList).toContain('sensor-reading--untrusted');
-    expect(text(left?.querySelector('.sensor-reading__trust'))).toBe(
-      'error Not trusted: the repeats disagree.',
-    );
+    expect(text(left?.querySelector('.sensor-reading__trust'))).toBe('Not trusted: the repeats disagree.');
     expect(values(element, 2, 'left')['Spread']).toBe('0.007 (34 %)');
     expect(text(element.querySelector('.run[data-run="2"] .run__weights'))).toBe(
-      'radio_button_checked On the rotor: 85 g at 200° in the right plane',
+      'On the rotor: 85 g at 200° in the right plane',
     );
   });
 

@@ -94,7 +94,7 @@ describe('JobSafetyStep', { timeout: 30_000 }, () => {
 
     const when = formatDate(JOB_SAFETY_ACKNOWLEDGED.safety!.acknowledgedAt, 'd MMM y, HH:mm', 'en-US');
     expect(element.querySelector('.stored__heading')?.textContent?.trim()).toBe(
-      `verified_user Acknowledged by Tomasz Wrenfield on ${when}`,
+      `Acknowledged by Tomasz Wrenfield on ${when}`,
     );
     expect(element.querySelectorAll('.stored__list li').length).toBe(5);
     // The cautions stay on the step, as titles with their detail one tap away.

@@ -14,7 +14,7 @@ import type { Machine } from '../../machines/machines.api';
 import { JobSession } from '../job-session';
 import type { Job } from '../jobs.api';
 import { JobSetupStep } from './setup-step';
-import { answered, configureStepTesting, renderStep, words } from './step-testing';
+import { answered, configureStepTesting, renderStep, text } from './step-testing';
 import { JOB_AFTER_LEFT_TRIAL, JOB_LET_GO_ON, MULCHER_FAMILY, MULCHER_MACHINE } from './testing-jobs';
 
 /** The step as the job page shows it: the job as the session stores it, the machine and family as they load. */
@@ -88,13 +88,13 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
     expect(await (await sensor('Left side')).isChecked()).toBe(true);
     expect(await (await sensor('Right side')).isChecked()).toBe(true);
     const { rotation, unit, phase, angles } = await groups();
-    expect(await checkedText(rotation)).toEqual(['rotate_left Counter-clockwise']);
-    expect(words(element.querySelector('#setup-rotation-hint'))).toBe(
+    expect(await checkedText(rotation)).toEqual(['Counter-clockwise']);
+    expect(text(element.querySelector('#setup-rotation-hint'))).toBe(
       'Seen from the right end it turns clockwise.',
     );
     expect(await (await input('Operating speed')).getValue()).toBe('2100');
     expect(await checkedText(unit)).toEqual(['in/s peak']);
-    expect(words(element.querySelector('#setup-unit-hint'))).toBe(
+    expect(text(element.querySelector('#setup-unit-hint'))).toBe(
       'in/s peak is the unit of the family’s acceptance level.',
     );
     expect(await checkedText(phase)).toEqual(['Lag (the usual)']);
@@ -117,14 +117,14 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
 
   it('explains how the phase and the weight angles count in plain words as they are chosen', async () => {
     const { element, groups } = await render(JOB_LET_GO_ON);
-    expect(words(element.querySelector('#setup-phase-hint'))).toContain(
+    expect(text(element.querySelector('#setup-phase-hint'))).toContain(
       'how far the rotor turns from the moment the reference mark passes the tachometer until the vibration peaks',
     );
     const { phase, angles } = await groups();
     await (await phase.getToggles({ text: 'Lead' }))[0]!.check();
-    expect(words(element.querySelector('#setup-phase-hint'))).toContain('as a lead on the reference mark');
+    expect(text(element.querySelector('#setup-phase-hint'))).toContain('as a lead on the reference mark');
     await (await angles.getToggles({ text: 'With rotation' }))[0]!.check();
-    expect(words(element.querySelector('#setup-angles-hint'))).toBe(
+    expect(text(element.querySelector('#setup-angles-hint'))).toBe(
       'A weight at 90° sits a quarter turn from the reference mark, counted the way the rotor turns.',
     );
   });
@@ -132,7 +132,7 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
   it('warns, without refusing, when one sensor is set on a two-plane rotor, and sends the set-up on the stored version', async () => {
     const { fixture, element, groups, input, sensor, submit } = await render(JOB_LET_GO_ON);
     await (await sensor('Right side')).uncheck();
-    expect([...element.querySelectorAll('.warning')].map(words)).toEqual([
+    expect([...element.querySelectorAll('.warning')].map(text)).toEqual([
       'This rotor has two correction planes, and two-plane correction needs a sensor on each side. With the left sensor alone, only one plane can be corrected at a time.',
     ]);
     await (await input('Where on the left side')).setValue(' Left bearing housing, vertical ');
@@ -166,7 +166,7 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
     expect(element.querySelector('.warning')).toBeNull();
     await (await sensor('Left side')).uncheck();
     await (await sensor('Right side')).check();
-    expect([...element.querySelectorAll('.warning')].map(words)).toEqual([
+    expect([...element.querySelectorAll('.warning')].map(text)).toEqual([
       'The machine’s record has sensors on the left side: check that the readings will match earlier jobs.',
     ]);
   });
@@ -179,7 +179,7 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
     submit();
     await answered(fixture);
     http.expectNone('/api/v1/jobs/13/setup');
-    expect(words(element.querySelector('#sensors-error'))).toBe('Place at least one sensor.');
+    expect(text(element.querySelector('#sensors-error'))).toBe('Place at least one sensor.');
     expect(document.activeElement).toBe(element.querySelector('.sensor__used input'));
     const speed = await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Operating speed' }));
     expect(await speed.getTextErrors()).toEqual(['Enter the operating speed in rpm.']);
@@ -218,24 +218,24 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
       'Reflective tape on the left end plate, in line with tooth row 1',
     );
     expect(await (await sensor('Right side')).isChecked()).toBe(true);
-    expect(words(element.querySelector('app-busy-button'))).toBe('Store the changed set-up');
+    expect(text(element.querySelector('app-busy-button'))).toBe('Store the changed set-up');
   });
 
   it('shows the set-up read-only once a run is read, and says why', async () => {
     const { element, loader } = await render(JOB_AFTER_LEFT_TRIAL);
     expect(element.querySelector('form')).toBeNull();
     expect(await loader.getAllHarnesses(MatInputHarness)).toEqual([]);
-    expect(words(element.querySelector('.fixed'))).toBe(
+    expect(text(element.querySelector('.fixed'))).toBe(
       'The runs are read with this set-up, so it can no longer change. Another set-up needs a new job.',
     );
-    expect([...element.querySelectorAll('.details__list li')].map(words)).toEqual([
+    expect([...element.querySelectorAll('.details__list li')].map(text)).toEqual([
       'Left side: Left bearing housing, horizontal',
       'Right side: Right bearing housing, horizontal',
     ]);
     const details = Object.fromEntries(
       [...element.querySelectorAll('.details > div:not(.wide)')].map((item) => [
-        words(item.querySelector('dt')),
-        words(item.querySelector('dd')),
+        text(item.querySelector('dt')),
+        text(item.querySelector('dd')),
       ]),
     );
     expect(details).toEqual({
@@ -271,7 +271,7 @@ describe('JobSetupStep', { timeout: 30_000 }, () => {
     expect(await (await input('Where on the left side')).getValue()).toBe('Left housing, top');
     expect(await (await input('Operating speed')).getValue()).toBe('1990');
     const { rotation, phase } = await groups();
-    expect(await checkedText(rotation)).toEqual(['rotate_right Clockwise']);
+    expect(await checkedText(rotation)).toEqual(['Clockwise']);
     expect(await checkedText(phase)).toEqual(['Lead']);
   });
 });

@@ -64,15 +64,7 @@ export async function answered(fixture: ComponentFixture<unknown>): Promise<void
   fixture.detectChanges();
 }
 
-/** An element's text on one line, its icons' ligature names included (they tell which icon shows). */
+/** An element's text on one line, as read (icons are SVG and add no words). */
 export function text(element: Element | null | undefined): string {
   return element?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
-}
-
-/** The words of an element as read, without its icons' ligature names. */
-export function words(element: Element | null | undefined): string {
-  if (!element) return '';
-  const copy = element.cloneNode(true) as Element;
-  copy.querySelectorAll('mat-icon').forEach((icon) => icon.remove());
-  return text(copy);
 }

@@ -104,15 +104,15 @@ describe('JobVerificationStep', { timeout: 30_000 }, () => {
     const { element } = await render(JOB_VERIFIED_RIGHT_ABOVE);
     expect(element.querySelector('app-run-entry')).toBeNull();
     expect(text(element.querySelector('.verdict__heading'))).toBe(
-      'report Run 3 is not yet within the acceptance level',
+      'Run 3 is not yet within the acceptance level',
     );
     expect(text(element.querySelector('.verdict__level'))).toBe(
       'Acceptance level: Shop target 0.15 in/s peak',
     );
     // 0.05999 → 0.06 and 0.31995 → 0.32 at three decimals.
     expect(verdictRows(element)).toEqual([
-      ['Left', '0.06', '0.15', 'check Within'],
-      ['Right', '0.32', '0.15', 'close Above'],
+      ['Left', '0.06', '0.15', 'Within'],
+      ['Right', '0.32', '0.15', 'Above'],
     ]);
     expect(text(element.querySelector('.verdict__next'))).toBe('Work the right side next.');
     expect(text(element.querySelector('.verdict__why'))).toBe(JOB_VERIFIED_RIGHT_ABOVE.verification!.why);
@@ -123,12 +123,10 @@ describe('JobVerificationStep', { timeout: 30_000 }, () => {
 
   it('says when every side is within the acceptance level', async () => {
     const { element } = await render(COMPLETED_MULCHER_JOB);
-    expect(text(element.querySelector('.verdict__heading'))).toBe(
-      'verified Run 4 is within the acceptance level',
-    );
+    expect(text(element.querySelector('.verdict__heading'))).toBe('Run 4 is within the acceptance level');
     expect(verdictRows(element)).toEqual([
-      ['Left', '0.001', '0.12', 'check Within'],
-      ['Right', '0.012', '0.12', 'check Within'],
+      ['Left', '0.001', '0.12', 'Within'],
+      ['Right', '0.012', '0.12', 'Within'],
     ]);
     expect(text(element.querySelector('.verdict__next'))).toBe(
       'The job is completed with this run as its after.',
