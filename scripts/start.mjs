@@ -48,6 +48,14 @@ const builds = [
   { name: 'the shared packages', args: [fileURLToPath(new URL('./build-shared.mjs', import.meta.url))] },
   { name: 'counterpoise', args: [ng, 'build', 'counterpoise'] },
   { name: 'workbench', args: [ng, 'build', 'workbench'] },
+  // Brotli and gzip copies beside the built files, which the server sends by the browser's Accept-Encoding.
+  {
+    name: 'the compressed copies of the workbench',
+    args: [
+      fileURLToPath(new URL('./compress-static.mjs', import.meta.url)),
+      join(root, 'dist/workbench/browser'),
+    ],
+  },
 ];
 const skipBuild = ['true', '1', 'yes'].includes(process.env.SKIP_BUILD ?? '');
 

@@ -76,6 +76,11 @@ const steps = [
       [process.execPath, join(root, 'scripts', 'build-shared.mjs')],
       ng('build', 'counterpoise'),
       ng('build', 'workbench'),
+      [
+        process.execPath,
+        join(root, 'scripts', 'compress-static.mjs'),
+        join(root, 'dist', 'workbench', 'browser'),
+      ],
     ],
   },
   {
