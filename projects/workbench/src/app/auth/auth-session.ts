@@ -1,7 +1,17 @@
-import { HttpClient } from '@angular/common/http';
+import { HttpClient, HttpErrorResponse } from '@angular/common/http';
 import { computed, Injectable, inject, signal } from '@angular/core';
 import type { Permission, Session, User } from '@counterpoise/api';
-import { catchError, finalize, firstValueFrom, map, type Observable, of, shareReplay, tap } from 'rxjs';
+import {
+  catchError,
+  finalize,
+  firstValueFrom,
+  map,
+  type Observable,
+  of,
+  shareReplay,
+  Subject,
+  tap,
+} from 'rxjs';
 import type { AcceptInvitation } from './api-types';
 
 /** The routes of the session itself. */
@@ -18,19 +28,56 @@ export const AUTH_URLS = {
 interface SignedIn {
   readonly user: User;
   readonly permissions: readonly Permission[];
-  readonly accessToken: string;
+  /** Null while the session goes on with no connection, from the profile kept on the device. */
+  readonly accessToken: string | null;
+}
+
+/** Who was signed in on this device, without any token: enough to go on working with no connection. */
+export interface KeptProfile {
+  readonly user: User;
+  readonly permissions: readonly Permission[];
+}
+
+/** Where the profile is kept (the browser's localStorage; the specs give a map in its place). */
+export type ProfileStorage = Pick<Storage, 'getItem' | 'setItem' | 'removeItem'>;
+
+const PROFILE_KEY = 'counterpoise.profile';
+
+/**
+ * Whether a failed refresh met no server at all (no network: status 0; the service worker's 504 with no
+ * problem; a gateway that cannot reach the server), rather than a refusal of the session.
+ */
+function unreachable(error: unknown): boolean {
+  if (!(error instanceof HttpErrorResponse)) return false;
+  return error.status === 0 || error.status === 502 || error.status === 503 || error.status === 504;
+}
+
+function browserProfileStorage(): ProfileStorage | null {
+  try {
+    return typeof localStorage === 'undefined' ? null : localStorage;
+  } catch {
+    return null;
+  }
 }
 
 /**
  * The signed-in person, held in memory only. The access token never reaches localStorage or any other
  * storage a script could read later; what survives a reload is the server's httpOnly refresh cookie, which
  * `restore()` trades for a new token once at start.
+ *
+ * With no connection the refresh cannot be made: the person's profile (name, role, permissions; never a token)
+ * is kept on the device at sign-in, and `restore()` then goes on as that person in an offline state (reads
+ * from the device, changes queued) until `reconnect()` refreshes the session. A refresh the server refuses
+ * still signs out.
  */
 @Injectable({ providedIn: 'root' })
 export class AuthSession {
   private readonly http = inject(HttpClient);
   private readonly current = signal<SignedIn | null>(null);
   private readonly restoredState = signal(false);
+  private readonly offlineState = signal(false);
+  private readonly endedSubject = new Subject<number>();
+  private readonly profiles: ProfileStorage | null = browserProfileStorage();
   private inFlightRefresh: Observable<Session> | null = null;
   private restoring: Promise<void> | null = null;
 
@@ -44,6 +91,10 @@ export class AuthSession {
   readonly signedIn = computed(() => this.current() !== null);
   /** False until the first attempt to restore the session has answered, so that pages do not flash. */
   readonly restored = this.restoredState.asReadonly();
+  /** True while the session goes on with no connection, from the profile kept on the device (no token). */
+  readonly offline = this.offlineState.asReadonly();
+  /** The id of each person whose session ends here (signed out, or a refresh refused). */
+  readonly ended: Observable<number> = this.endedSubject.asObservable();
 
   /** Whether the signed-in person holds a permission; false when signed out. */
   can(permission: Permission): boolean {
@@ -58,10 +109,29 @@ export class AuthSession {
     this.restoring ??= firstValueFrom(
       this.refresh().pipe(
         map(() => undefined),
-        catchError(() => of(undefined)),
+        catchError((error: unknown) => {
+          if (unreachable(error)) this.goOnOffline();
+          return of(undefined);
+        }),
       ),
     ).finally(() => this.restoredState.set(true));
     return this.restoring;
+  }
+
+  /**
+   * Once the connection returns, trades the refresh cookie for a token again if the session went on offline.
+   * Resolves true when the session is live (or was already); a refusal signs out (what waits to be sent stays
+   * on the device for the same person to send after signing in again).
+   */
+  async reconnect(): Promise<boolean> {
+    if (!this.offlineState()) return this.signedIn();
+    try {
+      await firstValueFrom(this.refresh());
+      return true;
+    } catch (error) {
+      if (!unreachable(error)) this.clear();
+      return false;
+    }
   }
 
   /**
@@ -101,22 +171,51 @@ export class AuthSession {
     return this.http.post<void>(AUTH_URLS.signOut, null).pipe(tap(() => this.clear()));
   }
 
-  /** Takes up a session the server has just issued. */
+  /** Takes up a session the server has just issued, and keeps the profile (not the token) on the device. */
   start(session: Session): void {
     this.current.set({
       user: session.user,
       permissions: session.permissions,
       accessToken: session.accessToken,
     });
+    this.offlineState.set(false);
+    this.keepProfile({ user: session.user, permissions: session.permissions });
   }
 
   /** Replaces the person and permissions with fresher ones (`GET /api/v1/me`), keeping the token. */
   update(user: User, permissions: readonly Permission[]): void {
     this.current.update((signedIn) => (signedIn ? { ...signedIn, user, permissions } : null));
+    this.keepProfile({ user, permissions });
   }
 
   /** Forgets the session here, for instance once the server has refused to refresh it. */
   clear(): void {
+    const userId = this.current()?.user.id;
     this.current.set(null);
+    this.offlineState.set(false);
+    this.profiles?.removeItem(PROFILE_KEY);
+    if (userId !== undefined) this.endedSubject.next(userId);
+  }
+
+  /** Goes on as the person whose profile the device keeps, with no token, until the connection returns. */
+  private goOnOffline(): void {
+    const text = this.profiles?.getItem(PROFILE_KEY);
+    if (!text) return;
+    try {
+      const profile = JSON.parse(text) as KeptProfile;
+      if (typeof profile.user?.id !== 'number' || !Array.isArray(profile.permissions)) return;
+      this.current.set({ user: profile.user, permissions: profile.permissions, accessToken: null });
+      this.offlineState.set(true);
+    } catch {
+      this.profiles?.removeItem(PROFILE_KEY);
+    }
+  }
+
+  private keepProfile(profile: KeptProfile): void {
+    try {
+      this.profiles?.setItem(PROFILE_KEY, JSON.stringify(profile));
+    } catch {
+      // Storage full or refused: the session works, only not with no connection after a reload.
+    }
   }
 }

@@ -51,7 +51,11 @@ export const authInterceptor: HttpInterceptorFn = (request, next) => {
               ? of(current)
               : session.refresh().pipe(map((fresh) => fresh.accessToken));
           return renewed.pipe(
-            catchError(() => {
+            catchError((refreshError: unknown) => {
+              // With no connection the session is not refused, only unreachable: it goes on (offline).
+              if (refreshError instanceof HttpErrorResponse && refreshError.status === 0) {
+                return throwError(() => refreshError);
+              }
               endSession(session, router);
               return throwError(() => error);
             }),

@@ -1,6 +1,9 @@
 import { HttpErrorResponse } from '@angular/common/http';
-import { computed, DestroyRef, inject, Injectable, signal } from '@angular/core';
+import { computed, DestroyRef, effect, inject, Injectable, signal, untracked } from '@angular/core';
 import { firstValueFrom, type Observable, race, retry, Subject, takeUntil, throwError, timer } from 'rxjs';
+import { captureChange } from '../offline/change-capture';
+import { isNoAnswer } from '../offline/connection';
+import { OfflineJobs, type PendingJobChange } from '../offline/offline-jobs';
 import { httpErrorMessage } from '../shell/server-errors';
 import { type Job, JobsApi, type VersionedJob } from './jobs.api';
 
@@ -19,6 +22,8 @@ export type SaveState =
     }
   /** Stored on the server. */
   | { readonly kind: 'saved'; readonly what: string; readonly at: Date }
+  /** No connection: kept on the device, in the queue, to be sent when the connection returns. */
+  | { readonly kind: 'queued'; readonly what: string; readonly at: Date }
   /** The server refused it (bad input, a step out of order…); the step shows why beside its fields. */
   | { readonly kind: 'refused'; readonly what: string; readonly message: string }
   /** The job changed on the server meanwhile; the screen now shows it as stored. */
@@ -49,9 +54,19 @@ export function isTransient(error: unknown): boolean {
   return error.status === 0 || error.status === 429 || error.status >= 500;
 }
 
+/** What the save line says once a change kept offline has reached the server. */
+export const SENT_FROM_DEVICE = 'Changes kept on this device';
+
+/** What the save line says of a change that needs the server when there is no connection. */
+export const NEEDS_CONNECTION =
+  'This needs a connection to the server: it cannot wait on this device. Try again once the status says online.';
+
 /**
  * One job on one screen: the job as the server stores it with its ETag, and the changes the steps make to it,
- * one at a time. Each change is sent on the stored ETag; a change that meets no connection or a failing server
+ * one at a time. Each change is sent on the stored ETag; a change that meets no connection (or is made while
+ * offline, or while earlier changes of the job still wait) goes into the device's queue (`OfflineJobs`), and
+ * the screen shows the job as it will be, by the server's own rules, until the queue has been sent. A change
+ * that needs the server (completing, abandoning…) says so when offline. A change that meets a failing server
  * is sent again (1 s, 2 s, 4 s… then every 30 s) until it lands, with the screen saying so and a "Try now";
  * a change refused because the job changed meanwhile (412) shows the job as stored, which holds the change
  * itself when only its answer was lost. What a step has typed but not yet stored is kept by `JobDrafts`, so a
@@ -60,7 +75,10 @@ export function isTransient(error: unknown): boolean {
 @Injectable()
 export class JobSession {
   private readonly api = inject(JobsApi);
+  private readonly offline = inject(OfflineJobs);
   private readonly stopped = new Subject<void>();
+  private readonly jobId = signal<number | null>(null);
+  private lastSent: VersionedJob | null = null;
   private readonly tryNow = new Subject<void>();
 
   private readonly stored = signal<VersionedJob | null>(null);
@@ -80,6 +98,13 @@ export class JobSession {
     const kind = this.state().kind;
     return kind === 'saving' || kind === 'retrying';
   });
+  /** The job's changes waiting on the device to be sent, in order. */
+  readonly pending = computed((): readonly PendingJobChange[] => {
+    const id = this.jobId();
+    return id === null ? [] : this.offline.pendingFor(id)();
+  });
+  /** Whether the server can be reached now. */
+  readonly online = this.offline.online;
   /** True when the job takes changes: open, or on hold (for the inspection and a manager's decisions). */
   readonly changeable = computed(() => {
     const status = this.job()?.status;
@@ -91,16 +116,34 @@ export class JobSession {
       this.stopped.next();
       this.stopped.complete();
     });
+    // Once every change kept on the device is stored on the server, the job is shown as the server has it.
+    effect(() => {
+      const id = this.jobId();
+      if (id === null) return;
+      const sent = this.offline.sentJob(id);
+      if (sent === null || sent === this.lastSent || this.offline.pendingFor(id)().length > 0) return;
+      this.lastSent = sent;
+      untracked(() => {
+        this.stored.set(sent);
+        if (!this.busy()) this.state.set({ kind: 'saved', what: SENT_FROM_DEVICE, at: new Date() });
+      });
+    });
   }
 
-  /** Fetches the job (again), trying again by itself while the connection or the server fails. */
+  /**
+   * Fetches the job (again), trying again by itself while the connection or the server fails; with no
+   * connection, the copy kept on the device. Changes waiting on the device are shown applied.
+   */
   async load(id: number): Promise<void> {
     this.loadFailure.set(null);
+    this.jobId.set(id);
     try {
       const job = await firstValueFrom(
         this.api.get(id).pipe(this.retryingTransient('Opening the job'), takeUntil(this.stopped)),
       );
-      this.stored.set(job);
+      this.lastSent = this.offline.sentJob(id);
+      const waiting = this.offline.pendingFor(id)();
+      this.stored.set(waiting.length > 0 ? { record: waiting.at(-1)!.after, etag: job.etag } : job);
       if (this.state().kind === 'retrying') this.state.set({ kind: 'idle' });
     } catch (error) {
       this.loadFailure.set(httpErrorMessage(error));
@@ -117,12 +160,14 @@ export class JobSession {
     if (current === null || this.busy()) {
       return { ok: false, error: new Error('Another change of this job is still being saved.') };
     }
+    if (this.offline.mustQueue(current.record.id)) return this.queue(what, change, current);
+    const queueable = captureChange(change, current.record) !== null;
     this.state.set({ kind: 'saving', what });
     let attempts = 1;
     try {
       const saved = await firstValueFrom(
         change(this.api, current.record.id, current.etag).pipe(
-          this.retryingTransient(what, () => attempts++),
+          this.retryingTransient(what, () => attempts++, queueable),
           takeUntil(this.stopped),
         ),
       );
@@ -130,6 +175,8 @@ export class JobSession {
       this.state.set({ kind: 'saved', what, at: new Date() });
       return { ok: true, job: saved.record };
     } catch (error) {
+      // No connection: the change waits on the device (if the server did store it, the replay finds it there).
+      if (queueable && isNoAnswer(error)) return this.queue(what, change, current);
       const meanwhile = this.api.changedMeanwhile(error);
       if (meanwhile) {
         this.stored.set({ record: meanwhile.record, etag: meanwhile.etag });
@@ -158,10 +205,30 @@ export class JobSession {
     if (!this.busy()) this.state.set({ kind: 'idle' });
   }
 
-  private retryingTransient<T>(what: string, onAttempt?: () => void) {
+  /** Puts the change in the device's queue and shows the job as it will be; refuses one that needs the server. */
+  private async queue(what: string, change: JobChange, current: VersionedJob): Promise<SaveOutcome> {
+    const captured = captureChange(change, current.record);
+    if (captured === null) {
+      this.state.set({ kind: 'refused', what, message: NEEDS_CONNECTION });
+      return { ok: false, error: new Error(NEEDS_CONNECTION) };
+    }
+    this.state.set({ kind: 'saving', what });
+    try {
+      const queued = await this.offline.enqueue(current.record, captured, what);
+      this.stored.set({ record: queued.after, etag: current.etag });
+      this.state.set({ kind: 'queued', what, at: new Date() });
+      return { ok: true, job: queued.after };
+    } catch (error) {
+      this.state.set({ kind: 'refused', what, message: httpErrorMessage(error) });
+      return { ok: false, error };
+    }
+  }
+
+  private retryingTransient<T>(what: string, onAttempt?: () => void, queueable = false) {
     return retry<T>({
       delay: (error: unknown, attempt: number) => {
         if (!isTransient(error)) return throwError(() => error);
+        if (queueable && isNoAnswer(error)) return throwError(() => error);
         const delayMs = retryDelayMs(attempt);
         this.state.set({ kind: 'retrying', what, attempt, delayMs, reason: httpErrorMessage(error) });
         onAttempt?.();
