@@ -19,3 +19,5 @@ export * from './reports';
 export * from './photos';
 export * from './readings-import';
 export * from './machine-history';
+export * from './job-calculations';
+export * from './job-rules';

@@ -5,14 +5,14 @@
  */
 import { describe, expect, it } from 'vitest';
 import { balanceTolerance, convertVibration } from '@counterpoise/engine';
-import { HttpProblem } from '../http/problem';
 import {
   averageRun,
   computeCorrection,
+  JobChangeRefusal,
   predictInstalled,
   refinedSensitivities,
   verdictOf,
-} from './job-calculations';
+} from '@counterpoise/api';
 import type { StoredSetup } from './job-records';
 import type { CorrectionRow, RunRow } from './jobs.repo';
 import { type ModelRotor, modelReadings } from './model-rotor';
@@ -181,7 +181,7 @@ describe('corrections from stored runs', () => {
         familySensitivities: [],
       });
     expect(attempt([fitted], 'single-plane')).toThrow(/verification run/);
-    expect(attempt([], 'single-plane')).toThrow(HttpProblem);
+    expect(attempt([], 'single-plane')).toThrow(JobChangeRefusal);
     expect(attempt([], 'single-plane')).toThrow(/trial run/);
     expect(attempt([], 'one-run')).toThrow(/no stored sensitivity/);
   });

@@ -15,26 +15,39 @@ import {
   type RecordInspection,
   type RecordSetup,
   type Role,
+  acceptanceOf,
+  baseRun,
+  checkSensors,
+  computeCorrection,
+  inspectionLimitsOf,
+  installedSoFar,
+  JobChangeRefusal,
+  judgeInspection,
+  measuredCoefficients,
+  nextStepOf,
+  planeRadiiOf,
+  planInstalled,
+  planRun,
+  refinedSensitivities,
+  requireInspected,
+  requireSafety,
+  requireSetupChangeable,
+  requireStatus,
+  requireWorking,
+  runIsAmplitudeOnly,
+  runSpeedRpm,
+  averageRun,
+  verdictOf,
+  verificationOf,
+  WORKING_OR_ON_HOLD_STATUSES,
+  WORKING_STATUSES,
 } from '@counterpoise/api';
-import { COMMON_PRACTICE_INSPECTION_LIMITS_IN, evaluateInspection } from '@counterpoise/engine';
 import type { Clock } from '../clock';
 import { HttpProblem } from '../http/problem';
 import type { MachineFamiliesService } from '../machine-families/machine-families.service';
 import { checkVersion } from '../records/versions';
-import {
-  averageRun,
-  baseRun,
-  computeCorrection,
-  runIsAmplitudeOnly,
-  installedSoFar,
-  measuredCoefficients,
-  predictInstalled,
-  refinedSensitivities,
-  runSpeedRpm,
-  verdictOf,
-} from './job-calculations';
 import type { StoredCompletion, StoredInspection, StoredSetup } from './job-records';
-import type { CorrectionRow, JobChange, JobRow, JobsRepo, RunRow } from './jobs.repo';
+import type { CorrectionRow, JobChange, JobRow, JobsRepo } from './jobs.repo';
 
 /** Who calls the jobs' service: a signed-in person of an organisation, with their role. */
 export interface JobActor {
@@ -45,8 +58,6 @@ export interface JobActor {
 
 /** A machine whose last job is older than this many days is due again (a product default). */
 export const DUE_AFTER_DAYS = 365;
-
-const MM_PER_IN = 25.4;
 
 function conflict(detail: string, code: string = JOBS_PROBLEM_CODES.stepMissing): HttpProblem {
   return new HttpProblem(409, 'Conflict', detail, undefined, 'about:blank', code);
@@ -68,8 +79,17 @@ function notFound(): HttpProblem {
 }
 
 /** What a step may be written in, by the job's status. */
-const WORKING: readonly JobStatus[] = ['open'];
-const WORKING_OR_ON_HOLD: readonly JobStatus[] = ['open', 'on-hold'];
+const WORKING = WORKING_STATUSES;
+const WORKING_OR_ON_HOLD = WORKING_OR_ON_HOLD_STATUSES;
+
+/**
+ * The problem answer of a job's rule refused (`JobChangeRefusal`, from the rules the device shares); any
+ * other error as it is. The one place where the jobs' rules become HTTP.
+ */
+export function asProblem(error: unknown): unknown {
+  if (!(error instanceof JobChangeRefusal)) return error;
+  return new HttpProblem(error.status, error.title, error.detail, error.errors, 'about:blank', error.code);
+}
 
 /**
  * The balancing jobs of an organisation: each step is stored as it is done, every stored correction is
@@ -173,48 +193,18 @@ export class JobsService {
    */
   recordInspection(actor: JobActor, id: number, versions: readonly number[], body: RecordInspection): Job {
     return this.change(actor, id, versions, WORKING_OR_ON_HOLD, (job) => {
-      if (job.safety === null) throw conflict('Acknowledge the safety cautions first.');
+      requireSafety(job);
       const machine = this.repo.findMachine(actor.organisationId, job.machineId)!;
       const family =
         machine.familyId === null ? undefined : this.repo.findFamily(actor.organisationId, machine.familyId);
-      const limits = family?.inspectionLimits ?? {
-        bearingEndPlayMm: COMMON_PRACTICE_INSPECTION_LIMITS_IN.bearingEndPlay * MM_PER_IN,
-        shaftRunoutMm: COMMON_PRACTICE_INSPECTION_LIMITS_IN.stubShaftRunout * MM_PER_IN,
-      };
-      const judged = evaluateInspection({
-        items: [
-          {
-            name: 'Bearing end play',
-            measured: body.bearingEndPlayMm,
-            limit: limits.bearingEndPlayMm,
-            unit: 'mm',
-          },
-          { name: 'Shaft runout', measured: body.shaftRunoutMm, limit: limits.shaftRunoutMm, unit: 'mm' },
-        ],
-      });
-      const checkNames = {
-        teethOrKnives: 'Teeth or knives',
-        buildUpCleaned: 'Build-up',
-        welds: 'Welds',
-        beltsAndPulleys: 'Belts and pulleys',
-      } as const;
-      const faults = (Object.keys(checkNames) as (keyof typeof checkNames)[])
-        .filter((key) => body.checks[key] === 'fault')
-        .map((key) => `${checkNames[key]}: a fault is left; fix it before balancing.`);
-      const passed = judged.pass && faults.length === 0;
+      const judged = judgeInspection(body, inspectionLimitsOf(family));
       const inspection: StoredInspection = {
-        bearingEndPlayMm: body.bearingEndPlayMm,
-        shaftRunoutMm: body.shaftRunoutMm,
-        checks: body.checks,
-        notes: body.notes === undefined || body.notes === '' ? null : body.notes,
-        limits,
-        passed,
-        reasons: [...judged.reasons, ...faults],
+        ...judged.inspection,
         measuredAt: this.now(),
         byId: actor.id,
         override: null,
       };
-      return { inspection, status: passed ? 'open' : 'on-hold' };
+      return { inspection, status: judged.status };
     });
   }
 
@@ -227,12 +217,7 @@ export class JobsService {
 
   recordSetup(actor: JobActor, id: number, versions: readonly number[], body: RecordSetup): Job {
     return this.change(actor, id, versions, WORKING, (job) => {
-      this.requireInspected(job);
-      if (this.repo.runsOf(actor.organisationId, job.id).length > 0) {
-        throw conflict(
-          'The runs are read with this set-up: it can no longer change. Start a new job for another set-up.',
-        );
-      }
+      requireSetupChangeable(job, this.repo.runsOf(actor.organisationId, job.id).length);
       const setup: StoredSetup = { ...body, recordedAt: this.now() };
       return { setup };
     });
@@ -259,14 +244,15 @@ export class JobsService {
     refused?: (index: number, problem: HttpProblem) => void,
   ): Job {
     return this.change(actor, id, versions, WORKING, (job) => {
-      this.requireInspected(job);
+      requireInspected(job);
       if (job.setup === null) throw conflict('Record the set-up first.');
       bodies.forEach((body, index) => {
         try {
           this.insertRun(actor, job, body);
         } catch (error) {
-          if (refused === undefined || !(error instanceof HttpProblem)) throw error;
-          refused(index, error);
+          const problem = asProblem(error);
+          if (refused === undefined || !(problem instanceof HttpProblem)) throw problem;
+          refused(index, problem);
         }
       });
       return {};
@@ -275,35 +261,22 @@ export class JobsService {
 
   /** Checks a run against the job as stored (sensors, kinds in order, planes, weights), averages and inserts it. */
   private insertRun(actor: JobActor, job: JobRow, body: AddRun): void {
-    this.requireInspected(job);
-    const setup = job.setup;
-    if (setup === null) throw conflict('Record the set-up first.');
     const machine = this.repo.findMachine(actor.organisationId, job.machineId)!;
-    const radii = machine.planes.map((plane) => plane.correctionRadiusMm);
-    const runs = this.repo.runsOf(actor.organisationId, job.id);
-    const corrections = this.repo.correctionsOf(actor.organisationId, job.id);
-    this.checkSensors(setup, body.readings);
-    const initial = runs.find((run) => run.kind === 'initial');
-    if (body.kind === 'initial' && initial !== undefined)
-      throw conflict('The job has its initial run already.');
-    if (body.kind !== 'initial' && initial === undefined) throw conflict('Take the initial run first.');
-    if (body.trialWeight !== undefined && body.trialWeight.planeIndex >= radii.length) {
-      throw badField('trialWeight.planeIndex', `The machine has ${radii.length} plane(s).`);
-    }
-    const onRotor = installedSoFar(corrections, radii);
-    if (body.kind === 'verification' && onRotor.length === 0) {
-      throw conflict('Record the weights installed before a verification run.');
-    }
-    const averaged = averageRun(body.readings, initial === undefined ? undefined : runSpeedRpm(initial));
+    const run = planRun(
+      {
+        safety: job.safety,
+        inspection: job.inspection,
+        setup: job.setup,
+        planeRadiiMm: planeRadiiOf(machine),
+        runs: this.repo.runsOf(actor.organisationId, job.id),
+        corrections: this.repo.correctionsOf(actor.organisationId, job.id),
+      },
+      body,
+    );
     this.repo.insertRun({
       organisationId: actor.organisationId,
       jobId: job.id,
-      sequence: runs.length + 1,
-      kind: body.kind,
-      trialWeight: body.trialWeight ?? null,
-      weightsOnRotor: onRotor,
-      readings: averaged.readings,
-      warnings: averaged.warnings,
+      ...run,
       createdById: actor.id,
       createdAt: this.clock.now(),
     });
@@ -345,7 +318,7 @@ export class JobsService {
           { path: 'trialWeight', message: 'Only a trial run has a trial weight.' },
         ]);
       }
-      this.checkSensors(setup, body.readings);
+      checkSensors(setup, body.readings);
       if (body.trialWeight !== undefined && body.trialWeight.planeIndex >= radii.length) {
         throw badField('trialWeight.planeIndex', `The machine has ${radii.length} plane(s).`);
       }
@@ -425,20 +398,11 @@ export class JobsService {
       const correction = corrections.find((c) => c.id === correctionId);
       if (correction === undefined)
         throw new HttpProblem(404, 'Not Found', 'The job has no correction with this id.');
-      if (correction !== corrections.at(-1))
-        throw conflict('Only the latest correction can be fitted.', JOBS_PROBLEM_CODES.jobNotOpen);
-      const lastUsed = Math.max(...runIdsSequence(correction, runs));
-      if (runs.some((run) => run.sequence > lastUsed)) {
-        throw conflict(
-          'A run was taken after this correction: what is fitted now is read from that run; compute a new correction.',
-          JOBS_PROBLEM_CODES.jobNotOpen,
-        );
-      }
-      weights.forEach((weight, index) => {
-        if (weight.planeIndex >= radii.length)
-          throw badField(`weights[${index}].planeIndex`, `The machine has ${radii.length} plane(s).`);
-      });
-      const predicted = predictInstalled(correction, weights, runs, setup, radii);
+      const predicted = planInstalled(
+        { safety: job.safety, inspection: job.inspection, setup, planeRadiiMm: radii, runs, corrections },
+        correction,
+        weights,
+      );
       this.repo.setInstalled(actor.organisationId, correction.id, {
         installed: [...weights],
         predicted,
@@ -461,7 +425,7 @@ export class JobsService {
         throw conflict('Weights were fitted since the last run: take a verification run with them on first.');
       }
       const initial = runs.find((run) => run.kind === 'initial')!;
-      const level = machine.acceptance ?? family?.acceptance ?? null;
+      const level = acceptanceOf(machine, family);
       const verdict =
         level === null
           ? null
@@ -562,6 +526,20 @@ export class JobsService {
     statuses: readonly JobStatus[],
     work: (job: JobRow) => JobChange,
   ): Job {
+    try {
+      return this.changeInTransaction(actor, id, versions, statuses, work);
+    } catch (error) {
+      throw asProblem(error);
+    }
+  }
+
+  private changeInTransaction(
+    actor: JobActor,
+    id: number,
+    versions: readonly number[],
+    statuses: readonly JobStatus[],
+    work: (job: JobRow) => JobChange,
+  ): Job {
     return this.repo.transaction(() => {
       const job = this.repo.find(actor.organisationId, id);
       if (job === undefined) throw notFound();
@@ -576,12 +554,7 @@ export class JobsService {
           JOBS_PROBLEM_CODES.notYourJob,
         );
       }
-      if (!statuses.includes(job.status)) {
-        throw conflict(
-          `The job is ${job.status}: this step needs it ${statuses.join(' or ')}.`,
-          JOBS_PROBLEM_CODES.jobNotOpen,
-        );
-      }
+      requireStatus(job.status, statuses);
       const change = work(job);
       if (!this.repo.writeAtVersion(actor.organisationId, id, job.version, change, this.clock.now())) {
         throw new Error('The job changed inside its own write transaction.');
@@ -590,37 +563,19 @@ export class JobsService {
     });
   }
 
-  /** Each sensor of a run's readings is one of the set-up's (400 on the side named otherwise). */
-  private checkSensors(setup: StoredSetup, readings: AddRun['readings']): void {
-    readings.forEach((reading, index) => {
-      if (!setup.sensors.some((sensor) => sensor.side === reading.sensorSide)) {
-        throw badField(
-          `readings[${index}].sensorSide`,
-          `The set-up has no sensor on the ${reading.sensorSide} side.`,
-        );
-      }
-    });
-  }
-
-  private requireInspected(job: JobRow): void {
-    if (job.safety === null) throw conflict('Acknowledge the safety cautions first.');
-    if (job.inspection === null) throw conflict('Record the inspection first.');
-  }
-
   /** What the correction steps read: set-up, planes, runs, corrections, machine and family. */
   private workingState(job: JobRow) {
-    this.requireInspected(job);
-    if (job.setup === null) throw conflict('Record the set-up first.');
     const machine = this.repo.findMachine(job.organisationId, job.machineId)!;
     const family =
       machine.familyId === null ? undefined : this.repo.findFamily(job.organisationId, machine.familyId);
+    const radii = planeRadiiOf(machine);
     const runs = this.repo.runsOf(job.organisationId, job.id);
-    if (!runs.some((run) => run.kind === 'initial')) throw conflict('Take the initial run first.');
+    const { setup } = requireWorking({ ...job, planeRadiiMm: radii, runs, corrections: [] });
     return {
-      setup: job.setup,
+      setup,
       machine,
       family,
-      radii: machine.planes.map((plane) => plane.correctionRadiusMm),
+      radii,
       runs,
       corrections: this.repo.correctionsOf(job.organisationId, job.id),
     };
@@ -652,25 +607,13 @@ export class JobsService {
     const machine = this.repo.findMachine(row.organisationId, row.machineId)!;
     const family =
       machine.familyId === null ? undefined : this.repo.findFamily(row.organisationId, machine.familyId);
-    const radii = machine.planes.map((plane) => plane.correctionRadiusMm);
-    const base = baseRun(runs);
-    const level = machine.acceptance ?? family?.acceptance ?? null;
-    const verification =
-      base === undefined || level === null || row.setup === null
-        ? null
-        : verdictOf(
-            base,
-            level,
-            row.setup,
-            { rotorMassKg: machine.rotorMassKg, speedRpm: row.setup.operatingSpeedRpm, planeRadiiMm: radii },
-            corrections,
-          );
-    const fitted = installedSoFar(corrections, radii).length;
+    const facts = { setup: row.setup, planeRadiiMm: planeRadiiOf(machine), runs, corrections };
+    const verification = verificationOf(facts, machine, family);
     return {
       id: row.id,
       version: row.version,
       status: row.status,
-      nextStep: nextStepOf(row, runs, corrections, fitted, verification?.accepted ?? false),
+      nextStep: nextStepOf(row, facts, verification?.accepted ?? false),
       scheduledFor: row.scheduledFor,
       machine: machineOf(row),
       technician: person(row.technicianId),
@@ -733,33 +676,9 @@ export class JobsService {
   }
 }
 
-/** The sequences of the runs a correction used. */
-function runIdsSequence(correction: CorrectionRow, runs: readonly RunRow[]): number[] {
-  return runs.filter((run) => correction.runIds.includes(run.id)).map((run) => run.sequence);
-}
-
 function withoutBy<T extends { byId: number }>(value: T): Omit<T, 'byId'> {
   const { byId: _byId, ...rest } = value;
   return rest;
-}
-
-/** The step the stepper opens at. */
-function nextStepOf(
-  row: JobRow,
-  runs: readonly RunRow[],
-  corrections: readonly CorrectionRow[],
-  fitted: number,
-  accepted: boolean,
-): Job['nextStep'] {
-  if (row.status === 'completed' || row.status === 'abandoned') return 'done';
-  if (row.safety === null) return 'safety';
-  if (row.inspection === null || row.status === 'on-hold') return 'inspection';
-  if (row.setup === null) return 'setup';
-  const base = baseRun(runs);
-  if (base === undefined) return 'runs';
-  if (base.weightsOnRotor.length !== fitted) return 'verification';
-  if (accepted) return 'completion';
-  return 'correction';
 }
 
 function machineOf(row: JobRow): Job['machine'] {

@@ -1,17 +1,4 @@
 import {
-  type AcceptanceLevel,
-  type AddRun,
-  type AmplitudeUnit,
-  type CalcResponse,
-  calculate,
-  type CorrectionMethod,
-  type InstalledWeight,
-  isAmplitudeOnly,
-  type JobCorrection,
-  type MachineSide,
-  type StoredSensitivity,
-} from '@counterpoise/api';
-import {
   add,
   averageAmplitudes,
   averageReadings,
@@ -35,13 +22,22 @@ import {
   modelToWeight,
   normalizeAngleDeg,
 } from '@counterpoise/engine';
-import { HttpProblem } from '../http/problem';
-import { JOBS_PROBLEM_CODES } from '@counterpoise/api';
-import type { StoredPlaneWeight, StoredSensorReading, StoredSetup } from './job-records';
-import type { CorrectionRow, RunRow } from './jobs.repo';
+import { calculate, type CalcResponse } from './calc-routes';
+import type { FieldError } from './problem';
+import {
+  type AddRun,
+  type CorrectionMethod,
+  type InstalledWeight,
+  isAmplitudeOnly,
+  type Job,
+  type JobCorrection,
+  type JobRun,
+  JOBS_PROBLEM_CODES,
+} from './jobs';
+import type { AcceptanceLevel, AmplitudeUnit, MachineSide, StoredSensitivity } from './records';
 
 /*
- * What the server computes for a job, from what is stored: averages of repeated readings, corrections
+ * What a job's steps compute, from what is stored, the same on the server and on the device: averages of repeated readings, corrections
  * through the calculator's own routes (so that a stored correction is the calculator's answer for the
  * same readings), predictions for what was installed, the verdict against the acceptance level, and the
  * coefficients a completed job measured. The balancing itself is the engine's; this is the glue that
@@ -51,25 +47,54 @@ import type { CorrectionRow, RunRow } from './jobs.repo';
 /** Sides in the order the engine numbers sensors: left first. */
 const SIDE_ORDER: readonly MachineSide[] = ['left', 'right'];
 
+/**
+ * A change of a job refused by its rules, with what the server answers as its problem (status, title,
+ * detail, the field errors and the problem's code). The server turns it into its problem answer in one
+ * place; the device shows it the same way.
+ */
+export class JobChangeRefusal extends Error {
+  override readonly name = 'JobChangeRefusal';
+
+  constructor(
+    readonly status: number,
+    readonly title: string,
+    readonly detail: string,
+    readonly errors?: readonly FieldError[],
+    readonly code?: string,
+  ) {
+    super(detail);
+  }
+}
+
+/** The set-up of a job's instrument, as stored. */
+export type JobSetup = NonNullable<Job['setup']>;
+/** What the calculations read of a run (a stored run and the API's run both have it). */
+export type RunFacts = Pick<
+  JobRun,
+  'id' | 'sequence' | 'kind' | 'trialWeight' | 'weightsOnRotor' | 'readings'
+>;
+/** What the calculations read of a correction. */
+export type CorrectionFacts = Pick<
+  JobCorrection,
+  'id' | 'sequence' | 'method' | 'basis' | 'runIds' | 'calc' | 'result' | 'plan' | 'installed'
+>;
+/** A weight in a plane, at the plane's correction radius. */
+export type PlaneWeight = JobRun['weightsOnRotor'][number];
+/** A sensor's reading of a run: its repeats, their average and spread. */
+export type SensorReading = JobRun['readings'][number];
+
 /** A 409 the technician can act on. */
-function notPossible(detail: string): HttpProblem {
-  return new HttpProblem(
-    409,
-    'Conflict',
-    detail,
-    undefined,
-    'about:blank',
-    JOBS_PROBLEM_CODES.methodNotPossible,
-  );
+function notPossible(detail: string): JobChangeRefusal {
+  return new JobChangeRefusal(409, 'Conflict', detail, undefined, JOBS_PROBLEM_CODES.methodNotPossible);
 }
 
 /** A reading as the engine counts phase (a lag), from the instrument's. */
-export function toLag(reading: Reading, setup: StoredSetup): Reading {
+export function toLag(reading: Reading, setup: JobSetup): Reading {
   return setup.phaseSense === 'lead' ? convertReadingPhase(reading, 'lead', 'lag') : reading;
 }
 
 /** A reading back in the instrument's phase counting. */
-export function fromLag(reading: Reading, setup: StoredSetup): Reading {
+export function fromLag(reading: Reading, setup: JobSetup): Reading {
   return setup.phaseSense === 'lead' ? convertReadingPhase(reading, 'lag', 'lead') : reading;
 }
 
@@ -82,7 +107,7 @@ export function fromLag(reading: Reading, setup: StoredSetup): Reading {
 export function averageRun(
   readings: AddRun['readings'],
   referenceSpeedRpm: number | undefined,
-): { readings: StoredSensorReading[]; warnings: string[] } {
+): { readings: SensorReading[]; warnings: string[] } {
   const warnings: string[] = [];
   const amplitudeOnly = isAmplitudeOnly(readings);
   const stored = readings.map((sensor) => {
@@ -126,7 +151,7 @@ function capitalised(text: string): string {
 }
 
 /** The mean speed of a stored run. */
-export function runSpeedRpm(run: Pick<RunRow, 'readings'>): number {
+export function runSpeedRpm(run: Pick<RunFacts, 'readings'>): number {
   return run.readings.reduce((sum, reading) => sum + reading.speedRpm, 0) / run.readings.length;
 }
 
@@ -134,13 +159,10 @@ export function runSpeedRpm(run: Pick<RunRow, 'readings'>): number {
  * An installed weight as the plane's model sees it: the same unbalance (mass x radius) as a mass at the
  * plane's correction radius, at the same angle.
  */
-export function equivalentAtPlane(
-  weight: InstalledWeight,
-  planeRadiiMm: readonly number[],
-): StoredPlaneWeight {
+export function equivalentAtPlane(weight: InstalledWeight, planeRadiiMm: readonly number[]): PlaneWeight {
   const radius = planeRadiiMm[weight.planeIndex];
   if (radius === undefined) {
-    throw new HttpProblem(400, 'Bad Request', 'The machine has no such plane.', [
+    throw new JobChangeRefusal(400, 'Bad Request', 'The machine has no such plane.', [
       { path: 'weights', message: `The machine has ${planeRadiiMm.length} plane(s).` },
     ]);
   }
@@ -153,16 +175,16 @@ export function equivalentAtPlane(
 
 /** Every weight of this job installed so far, at its plane's radius. */
 export function installedSoFar(
-  corrections: readonly CorrectionRow[],
+  corrections: readonly CorrectionFacts[],
   planeRadiiMm: readonly number[],
-): StoredPlaneWeight[] {
+): PlaneWeight[] {
   return corrections.flatMap((correction) =>
     (correction.installed ?? []).map((weight) => equivalentAtPlane(weight, planeRadiiMm)),
   );
 }
 
 /** The sum of the weights in one plane, as a model phasor. */
-function planeSum(weights: readonly StoredPlaneWeight[], planeIndex: number, sign: 1 | -1): Phasor {
+function planeSum(weights: readonly PlaneWeight[], planeIndex: number, sign: 1 | -1): Phasor {
   return weights
     .filter((weight) => weight.planeIndex === planeIndex)
     .reduce<Phasor>((sum, weight) => add(sum, weightToModel(weight.massGrams, weight.angleDeg, sign)), {
@@ -172,7 +194,7 @@ function planeSum(weights: readonly StoredPlaneWeight[], planeIndex: number, sig
 }
 
 /** Whether a stored run was read without phase. */
-export function runIsAmplitudeOnly(run: Pick<RunRow, 'readings'>): boolean {
+export function runIsAmplitudeOnly(run: Pick<RunFacts, 'readings'>): boolean {
   return run.readings.every((reading) => reading.average.phaseDeg === null);
 }
 
@@ -180,7 +202,7 @@ export function runIsAmplitudeOnly(run: Pick<RunRow, 'readings'>): boolean {
  * The reading of one side in a run, or undefined when that sensor was not read. The methods that work
  * with phase refuse a run read without it (409, naming the run and the method that fits).
  */
-function sideReading(run: RunRow, side: MachineSide, setup: StoredSetup): Reading | undefined {
+function sideReading(run: RunFacts, side: MachineSide, setup: JobSetup): Reading | undefined {
   const found = run.readings.find((reading) => reading.sensorSide === side);
   if (found === undefined) return undefined;
   const { amplitude, phaseDeg } = found.average;
@@ -194,12 +216,12 @@ function sideReading(run: RunRow, side: MachineSide, setup: StoredSetup): Readin
 }
 
 /** The last run that is not a trial: the initial run, or the latest verification. */
-export function baseRun(runs: readonly RunRow[]): RunRow | undefined {
+export function baseRun(runs: readonly RunFacts[]): RunFacts | undefined {
   return [...runs].reverse().find((run) => run.kind !== 'trial');
 }
 
 /** The side with the higher amplitude in a run (the one worked first), of the sides read. */
-function worseSide(run: RunRow): MachineSide {
+function worseSide(run: RunFacts): MachineSide {
   return [...run.readings].sort((a, b) => b.average.amplitude - a.average.amplitude)[0]!.sensorSide;
 }
 
@@ -211,14 +233,14 @@ function planeOfSide(side: MachineSide, planeCount: number): number {
 /** What a correction is computed from. */
 export interface CorrectionContext {
   readonly method: CorrectionMethod;
-  readonly setup: StoredSetup;
+  readonly setup: JobSetup;
   readonly planeRadiiMm: readonly number[];
-  readonly runs: readonly RunRow[];
-  readonly corrections: readonly CorrectionRow[];
+  readonly runs: readonly RunFacts[];
+  readonly corrections: readonly CorrectionFacts[];
   readonly familySensitivities: readonly StoredSensitivity[];
 }
 
-/** A correction as the server computed it, ready to store. */
+/** A correction as computed, ready to store. */
 export type ComputedCorrection = Pick<
   JobCorrection,
   'method' | 'basis' | 'runIds' | 'calc' | 'result' | 'plan' | 'warnings'
@@ -228,12 +250,11 @@ export type ComputedCorrection = Pick<
 function calc<Name extends CorrectionMethod>(name: Name, request: object): CalcResponse<Name> {
   const outcome = calculate(name, request);
   if (outcome.status === 200) return outcome.result as CalcResponse<Name>;
-  throw new HttpProblem(
+  throw new JobChangeRefusal(
     409,
     'Conflict',
     `The stored readings do not give a correction: ${outcome.problem.detail ?? outcome.problem.title}`,
     outcome.problem.errors,
-    'about:blank',
     outcome.problem.code ?? JOBS_PROBLEM_CODES.methodNotPossible,
   );
 }
@@ -378,7 +399,7 @@ export function computeCorrection(context: CorrectionContext): ComputedCorrectio
       throw notPossible(`Take a trial run with a trial weight in plane ${plane} first.`);
     }
   }
-  const readingsOf = (run: RunRow): Reading[] =>
+  const readingsOf = (run: RunFacts): Reading[] =>
     sides.map((side) => {
       const reading = sideReading(run, side, setup);
       if (reading === undefined)
@@ -434,7 +455,11 @@ function angleApartDeg(a: number, b: number): number {
  * replaces the earlier one). Angles are as the trial weights were counted; the correction is counted the
  * same way. A 409 names what is missing.
  */
-function fourRunCorrection(base: RunRow, runs: readonly RunRow[], planeCount: number): ComputedCorrection {
+function fourRunCorrection(
+  base: RunFacts,
+  runs: readonly RunFacts[],
+  planeCount: number,
+): ComputedCorrection {
   const side = worseSide(base);
   const planeIndex = planeOfSide(side, planeCount);
   const baseName =
@@ -454,8 +479,8 @@ function fourRunCorrection(base: RunRow, runs: readonly RunRow[], planeCount: nu
       run.readings.some((reading) => reading.sensorSide === side),
   );
   const latestMass = trials.at(-1)?.trialWeight!.massGrams;
-  const chosen: RunRow[] = [];
-  const replaced: RunRow[] = [];
+  const chosen: RunFacts[] = [];
+  const replaced: RunFacts[] = [];
   for (const run of [...trials].reverse()) {
     if (run.trialWeight!.massGrams !== latestMass || chosen.length === 3) continue;
     const same = chosen.find(
@@ -485,7 +510,7 @@ function fourRunCorrection(base: RunRow, runs: readonly RunRow[], planeCount: nu
         ` (e.g. 0°, 120°, 240°).${sameAngle}`,
     );
   }
-  const amplitudeOf = (run: RunRow) =>
+  const amplitudeOf = (run: RunFacts) =>
     run.readings.find((reading) => reading.sensorSide === side)!.average.amplitude;
   const request = {
     initialAmplitude: amplitudeOf(base),
@@ -535,7 +560,7 @@ export interface SideCoefficient {
 
 /** The influence coefficients a stored correction stands on. */
 export function coefficientsOf(
-  correction: Pick<CorrectionRow, 'calc' | 'result' | 'plan'>,
+  correction: Pick<CorrectionFacts, 'calc' | 'result' | 'plan'>,
 ): SideCoefficient[] {
   const { route, request, sensorSides } = correction.calc;
   // Amplitudes alone measure the trial's effect but no phase: no influence coefficient to keep.
@@ -570,7 +595,7 @@ export function coefficientsOf(
  * grade as an amplitude; never kept as a coefficient (no phase to refine a family's figure with).
  */
 export function fourRunSensitivity(
-  correction: Pick<CorrectionRow, 'calc' | 'result' | 'plan'>,
+  correction: Pick<CorrectionFacts, 'calc' | 'result' | 'plan'>,
 ): Omit<SideCoefficient, 'phaseDeg'>[] {
   const request = correction.calc.request as { trialMass: number };
   const effect = (correction.result as CalcResponse<'four-run'>).trialEffect;
@@ -584,7 +609,7 @@ export function fourRunSensitivity(
 }
 
 /** The coefficient of a side and plane in the latest correction that measured it, if any. */
-function latestCoefficient(corrections: readonly CorrectionRow[], side: MachineSide, planeIndex: number) {
+function latestCoefficient(corrections: readonly CorrectionFacts[], side: MachineSide, planeIndex: number) {
   for (const correction of [...corrections].reverse()) {
     if (correction.basis === 'sensitivity') continue;
     const found = coefficientsOf(correction).find(
@@ -601,10 +626,10 @@ function latestCoefficient(corrections: readonly CorrectionRow[], side: MachineS
  * weights, V + sum_p H_p w_p, in the instrument's phase counting.
  */
 export function predictInstalled(
-  correction: Pick<CorrectionRow, 'calc' | 'result' | 'plan' | 'runIds'>,
+  correction: Pick<CorrectionFacts, 'calc' | 'result' | 'plan' | 'runIds'>,
   installed: readonly InstalledWeight[],
-  runs: readonly RunRow[],
-  setup: StoredSetup,
+  runs: readonly RunFacts[],
+  setup: JobSetup,
   planeRadiiMm: readonly number[],
 ): { sensorSide: MachineSide; reading: { amplitude: number; phaseDeg: number | null } }[] {
   const sign = weightSign(setup.weightAngles);
@@ -670,11 +695,11 @@ function amplitudeLimit(
 
 /** The verdict on a run against the acceptance level, with the side to work next and why. */
 export function verdictOf(
-  run: RunRow,
+  run: RunFacts,
   level: AcceptanceLevel,
-  setup: StoredSetup,
+  setup: JobSetup,
   grade: { rotorMassKg: number | null; speedRpm: number; planeRadiiMm: readonly number[] },
-  corrections: readonly CorrectionRow[],
+  corrections: readonly CorrectionFacts[],
 ) {
   const measured = corrections
     .filter((c) => c.basis !== 'sensitivity')
@@ -726,9 +751,9 @@ export function verdictOf(
  * alone, never verified, measured nothing.
  */
 export function measuredCoefficients(
-  runs: readonly RunRow[],
-  corrections: readonly CorrectionRow[],
-  setup: StoredSetup,
+  runs: readonly RunFacts[],
+  corrections: readonly CorrectionFacts[],
+  setup: JobSetup,
   planeRadiiMm: readonly number[],
 ): SideCoefficient[] {
   const latest = [...corrections].reverse().find((correction) => correction.basis !== 'sensitivity');
