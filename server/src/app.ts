@@ -1,4 +1,3 @@
-import { existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import express, { type Express, Router } from 'express';
@@ -16,6 +15,7 @@ import { healthRoutes } from './health/health.router';
 import { apiNotFound, problemHandler } from './http/problem';
 import { CALC_BASE_PATH, calcRegistry, calcRouter } from './calc/calc.router';
 import { securityHeaders } from './http/security-headers';
+import { serveWorkbench } from './http/static-serving';
 import { keyedMiddleware, keyedV1Router } from './http/v1';
 import { API_KEY_SECURITY, KEYED_ROUTE_RESPONSES, keysRegistry } from './keys/keys.openapi';
 import { ApiKeysRepo } from './keys/keys.repo';
@@ -161,7 +161,7 @@ export function createApp(deps: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
   // No ETag on dynamic answers: almost all are POSTs or `no-store`, where it would only cost a hash of
-  // every body. The workbench's files keep theirs (express.static sets its own).
+  // every body. The workbench's files keep theirs (its static middleware sets its own).
   app.set('etag', false);
   app.set('query parser', 'simple');
   // The client's address counts sign-in and reset attempts: read it through the proxies configured only.
@@ -367,38 +367,4 @@ function uploadsBesideDatabase(database: Database): string {
   const file = database.sqlite.name;
   if (file === ':memory:' || file === '') return join(tmpdir(), `counterpoise-uploads-${process.pid}`);
   return join(dirname(resolve(file)), 'uploads');
-}
-
-/**
- * Serves the built workbench: hashed files for a year, `index.html` never cached, and every other
- * GET that asks for HTML answered with `index.html` so that deep links reach the app's router.
- */
-function serveWorkbench(app: Express, staticDir: string): void {
-  const root = resolve(staticDir);
-  const indexFile = join(root, 'index.html');
-  app.use(
-    express.static(root, {
-      index: false,
-      setHeaders: (res, path) => {
-        if (/-[A-Z0-9]{8}\.(js|css)$/.test(path) || path.includes('/media/')) {
-          res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
-        }
-      },
-    }),
-  );
-  app.get('/{*splat}', (req, res, next) => {
-    if (!req.accepts('html')) {
-      next();
-      return;
-    }
-    if (!existsSync(indexFile)) {
-      res
-        .status(503)
-        .type('text/plain')
-        .send('The workbench is not built yet. Run `npm run build`, or `npm start` to build and serve.');
-      return;
-    }
-    res.setHeader('Cache-Control', 'no-cache');
-    res.sendFile(indexFile);
-  });
 }
