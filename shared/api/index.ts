@@ -21,3 +21,4 @@ export * from './readings-import';
 export * from './machine-history';
 export * from './job-calculations';
 export * from './job-rules';
+export * from './job-local';
