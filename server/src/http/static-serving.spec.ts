@@ -195,7 +195,11 @@ describe('serving the built workbench', () => {
   });
 
   it('sends the file itself when no encoding is taken, or only identity', async () => {
-    for (const headers of [{}, { 'Accept-Encoding': 'identity' }, { 'Accept-Encoding': 'deflate' }]) {
+    for (const headers of [
+      {} as Record<string, string>,
+      { 'Accept-Encoding': 'identity' },
+      { 'Accept-Encoding': 'deflate' },
+    ]) {
       const answer = await fetchRaw('/main-ABCDEFGH.js', headers);
       expect(answer.status).toBe(200);
       expect(answer.headers['content-encoding']).toBeUndefined();
