@@ -11,12 +11,14 @@ import { routes } from './app.routes';
 import { authInterceptor } from './auth/auth.interceptor';
 import { AuthSession } from './auth/auth-session';
 import { provideAppIcons } from './icons/app-icons';
+import { offlineRecordsInterceptor } from './offline/offline-records';
+import { provideOffline } from './offline/provide-offline';
 
 export const appConfig: ApplicationConfig = {
   providers: [
     provideBrowserGlobalErrorListeners(),
     provideZonelessChangeDetection(),
-    provideHttpClient(withFetch(), withInterceptors([authInterceptor])),
+    provideHttpClient(withFetch(), withInterceptors([authInterceptor, offlineRecordsInterceptor])),
     provideRouter(
       routes,
       withComponentInputBinding(),
@@ -24,6 +26,8 @@ export const appConfig: ApplicationConfig = {
     ),
     // The icons the templates name, as SVG from npm (icons/app-icons.ts): no icon font to download.
     provideAppIcons(),
+    // The service worker, the kept reads and the queue of changes made with no connection (docs/offline.md).
+    provideOffline(),
     // The session survives a reload only as the refresh cookie: trade it for a token once, at start. Not
     // awaited, so that public pages draw at once; the guards wait for the answer.
     provideAppInitializer(() => {

@@ -52,6 +52,13 @@ export const routes: Routes = [
     loadComponent: () => import('./auth/account-page').then((m) => m.AccountPage),
   },
   {
+    // The changes of jobs kept on this device with no connection (the shell's status links here).
+    path: 'offline',
+    title: 'Kept on this device · Counterpoise',
+    canActivate: [requireSignIn],
+    loadComponent: () => import('./offline/offline-page').then((m) => m.OfflinePage),
+  },
+  {
     path: 'customers',
     canActivate: [requirePermission('records:read')],
     children: [

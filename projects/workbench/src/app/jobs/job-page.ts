@@ -22,6 +22,7 @@ import { AuthSession } from '../auth/auth-session';
 import { ErrorBanner } from '../forms/error-banner';
 import { MachineFamiliesApi } from '../machine-families/machine-families.api';
 import { MachinesApi } from '../machines/machines.api';
+import { JobOfflinePanel } from '../offline/job-offline-panel';
 import { idFromRoute } from '../records/record-page';
 import { askForReason } from './reason-dialog';
 import { JOB_STATUS_LABELS, JOB_STEP_LABELS, JOB_STEP_ORDER, machineTitle, stepDone } from './job-labels';
@@ -53,6 +54,7 @@ const ROW_OF_STEPS = '(min-width: 760px)';
     JobCompletionStep,
     JobCorrectionStep,
     JobInspectionStep,
+    JobOfflinePanel,
     JobRunsStep,
     JobSafetyStep,
     JobSaveStatus,

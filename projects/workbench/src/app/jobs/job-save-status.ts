@@ -6,8 +6,9 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { JobSession } from './job-session';
 
 /**
- * Where the job's last change stands, in one line under its heading: stored (and when), being sent, not
- * stored yet and being sent again (with why, the attempt and a "Try now"), refused, or changed meanwhile.
+ * Where the job's last change stands, in one line under its heading: stored (and when), being sent, kept on
+ * this device to be sent when the connection returns (and how many changes wait), not stored yet and being
+ * sent again (with why, the attempt and a "Try now"), refused, or changed meanwhile.
  * Read out politely as it changes; a refusal or a change made meanwhile asks to be heard at once.
  */
 @Component({
@@ -31,7 +32,19 @@ import { JobSession } from './job-session';
         }
         @case ('saved') {
           <mat-icon aria-hidden="true" svgIcon="cloud_done" />
-          <span>Saved: {{ state.what }}, at {{ state.at | date: 'HH:mm:ss' }}.</span>
+          <span>Saved: {{ state.what }}, at {{ state.at | date: 'HH:mm:ss' }}.{{ waitingText() }}</span>
+        }
+        @case ('queued') {
+          <mat-icon aria-hidden="true" svgIcon="cloud_off" />
+          <span>
+            <strong>Saved on this device, waiting to be sent: {{ state.what }}</strong>
+            ({{ state.at | date: 'HH:mm:ss' }}).{{ waitingText() }}
+            {{
+              session.online()
+                ? 'Sending when the server answers.'
+                : 'Offline: sent when the connection returns.'
+            }}
+          </span>
         }
         @case ('refused') {
           <mat-icon aria-hidden="true" svgIcon="error" />
@@ -48,11 +61,22 @@ import { JobSession } from './job-session';
           <button matButton type="button" (click)="session.dismiss()">Dismiss</button>
         }
         @default {
-          <mat-icon aria-hidden="true" svgIcon="cloud_done" />
-          <span
-            >Each step is saved on the server as you store it; what you type stays on this device until
-            then.</span
-          >
+          @if (session.pending().length > 0 || !session.online()) {
+            <mat-icon aria-hidden="true" svgIcon="cloud_off" />
+            <span
+              >{{
+                session.online()
+                  ? 'Online.'
+                  : 'Offline: steps are saved on this device and sent when the connection returns.'
+              }}{{ waitingText() }}</span
+            >
+          } @else {
+            <mat-icon aria-hidden="true" svgIcon="cloud_done" />
+            <span
+              >Each step is saved on the server as you store it; what you type stays on this device until
+              then.</span
+            >
+          }
         }
       }
     </div>
@@ -73,6 +97,10 @@ import { JobSession } from './job-session';
     .save-status span {
       flex: 1 1 16rem;
     }
+    .save-status--queued {
+      background: var(--mat-sys-secondary-container);
+      color: var(--mat-sys-on-secondary-container);
+    }
     .save-status--retrying,
     .save-status--refused,
     .save-status--changed-meanwhile {
@@ -88,6 +116,14 @@ import { JobSession } from './job-session';
 })
 export class JobSaveStatus {
   protected readonly session = inject(JobSession);
+  /** " 3 changes of this job wait on this device to be sent." when any do. */
+  protected readonly waitingText = computed(() => {
+    const waiting = this.session.pending().length;
+    if (waiting === 0) return '';
+    return waiting === 1
+      ? ' 1 change of this job waits on this device to be sent.'
+      : ` ${waiting} changes of this job wait on this device to be sent.`;
+  });
   protected readonly role = computed(() => {
     const kind = this.session.saveState().kind;
     return kind === 'refused' || kind === 'changed-meanwhile' ? 'alert' : 'status';

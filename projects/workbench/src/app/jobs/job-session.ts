@@ -55,7 +55,7 @@ export function isTransient(error: unknown): boolean {
 }
 
 /** What the save line says once a change kept offline has reached the server. */
-export const SENT_FROM_DEVICE = 'Changes kept on this device';
+export const SENT_FROM_DEVICE = 'sent from this device';
 
 /** What the save line says of a change that needs the server when there is no connection. */
 export const NEEDS_CONNECTION =
@@ -79,6 +79,8 @@ export class JobSession {
   private readonly stopped = new Subject<void>();
   private readonly jobId = signal<number | null>(null);
   private lastSent: VersionedJob | null = null;
+  /** What was kept on the device since the job was last sent, for the line once it is. */
+  private queuedWhats: string[] = [];
   private readonly tryNow = new Subject<void>();
 
   private readonly stored = signal<VersionedJob | null>(null);
@@ -125,7 +127,12 @@ export class JobSession {
       this.lastSent = sent;
       untracked(() => {
         this.stored.set(sent);
-        if (!this.busy()) this.state.set({ kind: 'saved', what: SENT_FROM_DEVICE, at: new Date() });
+        const what =
+          this.queuedWhats.length > 0
+            ? `${this.queuedWhats.join(', ')} (${SENT_FROM_DEVICE})`
+            : SENT_FROM_DEVICE;
+        this.queuedWhats = [];
+        if (!this.busy()) this.state.set({ kind: 'saved', what, at: new Date() });
       });
     });
   }
@@ -216,6 +223,7 @@ export class JobSession {
     try {
       const queued = await this.offline.enqueue(current.record, captured, what);
       this.stored.set({ record: queued.after, etag: current.etag });
+      this.queuedWhats.push(what);
       this.state.set({ kind: 'queued', what, at: new Date() });
       return { ok: true, job: queued.after };
     } catch (error) {

@@ -17,13 +17,7 @@ import { MachineFamiliesApi } from '../machine-families/machine-families.api';
 import { MachinesApi } from '../machines/machines.api';
 import { problemOf, httpErrorMessage } from '../shell/server-errors';
 import { Connection, isNoAnswer } from './connection';
-import {
-  applyJobChange,
-  compareCorrections,
-  JobChangeRefusal,
-  type LocalJobContext,
-  type OfflineJobChange,
-} from './local-rules';
+import type { LocalJobContext, OfflineJobChange } from './local-rules';
 import { OFFLINE_STORAGE, OfflineRecords } from './offline-records';
 import type { CorrectionDisagreement, DiscardedChanges, JobConflict, QueuedChange } from './offline-storage';
 import { type JobChangeSender, replayJob, type SendFailure, type ServerJob } from './replay';
@@ -36,6 +30,21 @@ export type PendingJobChange = QueuedChange;
 /** Where the device's link with the server stands, for the shell's status. */
 export type SyncActivity =
   { readonly kind: 'idle' } | { readonly kind: 'sending'; readonly left: number; readonly what: string };
+
+/**
+ * The job's rules and the engine, loaded when first needed: the status in the shell and the queue do not make
+ * every page pay for them (the service worker keeps the chunk for offline use).
+ */
+const localRules = () => import('./local-rules');
+
+/** A refusal as the rules and the server state it. */
+interface Refusal {
+  readonly status: number;
+  readonly title: string;
+  readonly detail: string;
+  readonly errors?: readonly { readonly path: string; readonly message: string }[];
+  readonly code?: string;
+}
 
 /** After a failure of the server (5xx), the queue is tried again this much later. */
 const RETRY_AFTER_SERVER_FAILURE_MS = 30_000;
@@ -156,6 +165,7 @@ export class OfflineJobs {
   async enqueue(job: Job, change: OfflineJobChange, what: string): Promise<PendingJobChange> {
     const user = this.auth.user();
     if (!user) throw new Error('Sign in to change the job.');
+    const { applyJobChange, JobChangeRefusal } = await localRules();
     const context = await this.contextOf(job);
     let after: Job;
     try {
@@ -207,6 +217,7 @@ export class OfflineJobs {
     const user = this.auth.user();
     const conflict = this.conflictFor(jobId);
     if (!user || !conflict) return;
+    const { applyJobChange } = await localRules();
     let shown = conflict.current;
     const context = await this.contextOf(conflict.current).catch(() => null);
     for (const change of this.pendingFor(jobId)()) {
@@ -291,13 +302,12 @@ export class OfflineJobs {
     const userId = this.auth.user()?.id ?? -1;
     const machine = await this.records.read<Machine>(userId, machineUrl(job.machine.id));
     if (!machine) {
-      throw refusalAsHttpError(
-        new JobChangeRefusal(
-          503,
-          'The machine is not on this device',
+      throw refusalAsHttpError({
+        status: 503,
+        title: 'The machine is not on this device',
+        detail:
           'The machine of this job was not kept on this device before the connection dropped, so the change cannot be checked here. Try again with a connection.',
-        ),
-      );
+      });
     }
     const familyId = job.machine.familyId;
     const family =
@@ -316,6 +326,7 @@ export class OfflineJobs {
     if (!user || !this.connection.online() || this.auth.offline()) return;
     await this.reload(user.id);
     const conflicted = new Set(this.conflictState().map((c) => c.jobId));
+    const { compareCorrections } = await localRules();
     const jobIds = [...new Set(this.queueState().map((c) => c.jobId))].filter((id) => !conflicted.has(id));
     for (const jobId of jobIds) {
       const outcome = await replayJob(
@@ -474,7 +485,7 @@ export function failureOf(
 }
 
 /** The rules' refusal as the server would answer it, for the steps to read like the server's. */
-export function refusalAsHttpError(refusal: JobChangeRefusal): HttpErrorResponse {
+export function refusalAsHttpError(refusal: Refusal): HttpErrorResponse {
   return new HttpErrorResponse({
     status: refusal.status,
     statusText: refusal.title,
