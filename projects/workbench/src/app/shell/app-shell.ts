@@ -9,6 +9,7 @@ import { MatToolbarModule } from '@angular/material/toolbar';
 import { RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
 import { map } from 'rxjs';
 import { AuthSession } from '../auth/auth-session';
+import { ConnectionStatus } from '../offline/connection-status';
 import { visibleNavigation } from './navigation';
 import { UserMenu } from './user-menu';
 
@@ -23,6 +24,7 @@ const WIDE_LAYOUT = '(min-width: 840px)';
 @Component({
   selector: 'app-shell',
   imports: [
+    ConnectionStatus,
     MatButtonModule,
     MatIconModule,
     MatListModule,
