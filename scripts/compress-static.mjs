@@ -67,7 +67,7 @@ export async function compressStatic(dir) {
 }
 
 /** The table printed after a build: one line per kind of file, then the total. */
-function printTable(rows) {
+export function printTable(rows) {
   const byKind = new Map();
   for (const row of rows) {
     const kind = extname(row.path).toLowerCase();

@@ -47,15 +47,8 @@ const builds = [
   // The library's build imports @counterpoise/engine and @counterpoise/api as packages, built first.
   { name: 'the shared packages', args: [fileURLToPath(new URL('./build-shared.mjs', import.meta.url))] },
   { name: 'counterpoise', args: [ng, 'build', 'counterpoise'] },
-  { name: 'workbench', args: [ng, 'build', 'workbench'] },
-  // Brotli and gzip copies beside the built files, which the server sends by the browser's Accept-Encoding.
-  {
-    name: 'the compressed copies of the workbench',
-    args: [
-      fileURLToPath(new URL('./compress-static.mjs', import.meta.url)),
-      join(root, 'dist/workbench/browser'),
-    ],
-  },
+  // The workbench's production build, chunks merged and compressed copies beside (scripts/build-app.mjs).
+  { name: 'workbench', args: [fileURLToPath(new URL('./build-app.mjs', import.meta.url))] },
 ];
 const skipBuild = ['true', '1', 'yes'].includes(process.env.SKIP_BUILD ?? '');
 

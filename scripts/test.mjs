@@ -75,12 +75,7 @@ const steps = [
     commands: [
       [process.execPath, join(root, 'scripts', 'build-shared.mjs')],
       ng('build', 'counterpoise'),
-      ng('build', 'workbench'),
-      [
-        process.execPath,
-        join(root, 'scripts', 'compress-static.mjs'),
-        join(root, 'dist', 'workbench', 'browser'),
-      ],
+      [process.execPath, join(root, 'scripts', 'build-app.mjs')],
     ],
   },
   {

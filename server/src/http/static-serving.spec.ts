@@ -45,6 +45,7 @@ function writeBuild(dir: string): void {
     JSON.stringify({ hashTable: { '/a.js': 'b'.repeat(40) }, pad: 'x'.repeat(2000) }),
   );
   writeFileSync(join(dir, 'safety-worker.js'), 'self.addEventListener("install", () => self.skipWaiting());');
+  writeFileSync(join(dir, 'color-scheme.js'), 'document.documentElement.dataset.scheme = "dark";');
   writeFileSync(
     join(dir, 'worker-basic.min.js'),
     'self.addEventListener("install", () => self.skipWaiting());',
@@ -55,6 +56,8 @@ function writeBuild(dir: string): void {
   );
   // Random bytes do not compress: no copy may be kept that is larger than the file.
   writeFileSync(join(dir, 'chunk-RANDOM01.js'), randomBytes(4000));
+  // A name of Angular's chunk optimizer (a base64url hash).
+  writeFileSync(join(dir, 'chunk-B_bxu6e-.js'), bundle('optimized'));
   writeFileSync(join(dir, 'icon-512.png'), randomBytes(3000));
   mkdirSync(join(dir, 'media'));
   writeFileSync(join(dir, 'media', 'roboto-latin-400-normal-ABCDEFGH.woff2'), randomBytes(3000));
@@ -157,9 +160,10 @@ describe('scripts/compress-static.mjs', () => {
 
   it('prints the raw, gzip and brotli totals per kind of file', () => {
     expect(compressOutput).toMatch(/kind\s+files\s+raw\s+gzip\s+brotli/);
-    // Counted: index.html, main, styles, ngsw-worker.js, ngsw.json and the random chunk (kept raw).
-    expect(compressOutput).toMatch(/total\s+6\s+[\d.]+ kB/);
-    expect(compressOutput).toMatch(/\.js\s+3\s/);
+    // Counted: index.html, main, the optimizer's chunk, styles, ngsw-worker.js, ngsw.json and the random
+    // chunk (kept raw).
+    expect(compressOutput).toMatch(/total\s+7\s+[\d.]+ kB/);
+    expect(compressOutput).toMatch(/\.js\s+4\s/);
   });
 
   it('refuses to run without a folder', () => {
@@ -222,6 +226,7 @@ describe('serving the built workbench', () => {
   it('caches hashed files a year, and everything whose name stays for no time', async () => {
     for (const path of [
       '/main-ABCDEFGH.js',
+      '/chunk-B_bxu6e-.js',
       '/styles-QRSTUVWX.css',
       '/media/roboto-latin-400-normal-ABCDEFGH.woff2',
     ]) {
@@ -238,6 +243,7 @@ describe('serving the built workbench', () => {
       '/ngsw.json',
       '/safety-worker.js',
       '/worker-basic.min.js',
+      '/color-scheme.js',
       '/manifest.webmanifest',
       '/icon-512.png',
     ]) {

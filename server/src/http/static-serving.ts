@@ -1,12 +1,24 @@
 import { existsSync, statSync } from 'node:fs';
 import type { ServerResponse } from 'node:http';
-import { extname, join, resolve } from 'node:path';
+import { basename, extname, join, resolve } from 'node:path';
 import type { Express, RequestHandler } from 'express';
 import expressStaticGzip from 'express-static-gzip';
 import { HttpProblem } from './problem';
 
-/** A file whose name carries the hash of its content (Angular's `outputHashing`), so never changes. */
-const HASHED_FILE = /-[A-Z0-9]{8}\.(js|css)$/;
+/**
+ * A file whose name carries the hash of its content, so never changes: Angular's `outputHashing` names
+ * (`main-QJ4TBAFZ.js`; the chunk optimizer of scripts/build-app.mjs writes base64url ones,
+ * `chunk-B_bxu6eo.js`).
+ */
+const HASHED_FILE = /-[A-Za-z0-9_-]{8}\.(js|css)$/;
+
+/** The files whose name stays while their content changes, whatever their name looks like. */
+const NEVER_HASHED = new Set([
+  'ngsw-worker.js',
+  'safety-worker.js',
+  'worker-basic.min.js',
+  'color-scheme.js',
+]);
 
 /** The extensions of the build's own files: a path ending so asks for a file, never for a page. */
 const FILE_EXTENSIONS = new Set([
@@ -42,7 +54,7 @@ function rawPath(path: string): string {
  */
 function setCacheHeaders(res: ServerResponse, path: string): void {
   const raw = rawPath(path);
-  const hashed = HASHED_FILE.test(raw) || raw.includes('/media/');
+  const hashed = !NEVER_HASHED.has(basename(raw)) && (HASHED_FILE.test(raw) || raw.includes('/media/'));
   res.setHeader('Cache-Control', hashed ? 'public, max-age=31536000, immutable' : 'no-cache');
 }
 
