@@ -67,7 +67,9 @@ describe('AuthSession', () => {
     expect(answered).toBe(true);
     expect(session.signedIn()).toBe(true);
     expect(session.accessToken()).toBe('token-of-owner');
-    expect(localStorage.length).toBe(0);
+    // Only the profile (who, with what permissions) is kept, for working with no connection: never the token.
+    expect(localStorage.length).toBe(1);
+    expect(JSON.stringify({ ...localStorage })).not.toContain('token-of-owner');
     expect(sessionStorage.length).toBe(0);
   });
 
@@ -111,5 +113,75 @@ describe('AuthSession', () => {
     expect(session.can('people:read')).toBe(true);
     expect(session.can('jobs:write')).toBe(false);
     expect(session.accessToken()).toBe('token-of-technician');
+  });
+
+  describe('with no connection', () => {
+    it('goes on offline as the person last signed in on the device, without a token', async () => {
+      session.start(aSession('technician'));
+      const reloaded = TestBed.runInInjectionContext(() => new AuthSession());
+      const restoring = reloaded.restore();
+      http.expectOne(AUTH_URLS.refresh).error(new ProgressEvent('error'));
+      await restoring;
+      expect(reloaded.signedIn()).toBe(true);
+      expect(reloaded.offline()).toBe(true);
+      expect(reloaded.user()?.name).toBe('Suvi Achterberg');
+      expect(reloaded.can('jobs:write')).toBe(true);
+      expect(reloaded.accessToken()).toBeNull();
+    });
+
+    it('stays signed out offline when nobody was signed in on the device', async () => {
+      const restoring = session.restore();
+      http.expectOne(AUTH_URLS.refresh).error(new ProgressEvent('error'));
+      await restoring;
+      expect(session.signedIn()).toBe(false);
+      expect(session.offline()).toBe(false);
+    });
+
+    it('refreshes the session once the connection returns', async () => {
+      session.start(aSession('technician'));
+      const reloaded = TestBed.runInInjectionContext(() => new AuthSession());
+      const restoring = reloaded.restore();
+      http.expectOne(AUTH_URLS.refresh).flush(null, { status: 504, statusText: 'Gateway Timeout' });
+      await restoring;
+      expect(reloaded.offline()).toBe(true);
+
+      const reconnecting = reloaded.reconnect();
+      http.expectOne(AUTH_URLS.refresh).flush(aSession('technician'));
+      await expect(reconnecting).resolves.toBe(true);
+      expect(reloaded.offline()).toBe(false);
+      expect(reloaded.accessToken()).toBe('token-of-technician');
+    });
+
+    it('signs out when the server refuses the refresh, and tells who, so the device forgets their records', async () => {
+      session.start(aSession('technician'));
+      const reloaded = TestBed.runInInjectionContext(() => new AuthSession());
+      const ended: number[] = [];
+      reloaded.ended.subscribe((userId) => ended.push(userId));
+      const restoring = reloaded.restore();
+      http.expectOne(AUTH_URLS.refresh).error(new ProgressEvent('error'));
+      await restoring;
+
+      const reconnecting = reloaded.reconnect();
+      http
+        .expectOne(AUTH_URLS.refresh)
+        .flush({ title: 'Unauthorized', status: 401 }, { status: 401, statusText: 'Unauthorized' });
+      await expect(reconnecting).resolves.toBe(false);
+      expect(reloaded.signedIn()).toBe(false);
+      expect(ended).toEqual([aSession('technician').user.id]);
+      expect(localStorage.length).toBe(0);
+    });
+
+    it('stays offline, still signed in, when the connection fails again on reconnecting', async () => {
+      session.start(aSession('technician'));
+      const reloaded = TestBed.runInInjectionContext(() => new AuthSession());
+      const restoring = reloaded.restore();
+      http.expectOne(AUTH_URLS.refresh).error(new ProgressEvent('error'));
+      await restoring;
+      const reconnecting = reloaded.reconnect();
+      http.expectOne(AUTH_URLS.refresh).error(new ProgressEvent('error'));
+      await expect(reconnecting).resolves.toBe(false);
+      expect(reloaded.signedIn()).toBe(true);
+      expect(reloaded.offline()).toBe(true);
+    });
   });
 });
