@@ -46,6 +46,7 @@ import {
 import { formErrorOf, httpErrorMessage, problemOf } from '../../shell/server-errors';
 import { JobDrafts } from '../job-drafts';
 import { JobSession } from '../job-session';
+import { type CorrectionDisagreement, OfflineJobs } from '../../offline/offline-jobs';
 import { type Photo, PhotosApi } from '../../photos/photos.api';
 import { PhotoUrls } from '../../photos/photo-urls';
 import { RunEntry } from '../run-entry';
@@ -53,6 +54,7 @@ import type { CorrectionMethod, InstalledWeight, Job, JobCorrection } from '../j
 import {
   BASIS_WORDS,
   baseRunOf,
+  disagreementRows,
   inThePlane,
   METHOD_WORDS,
   methodOptions,
@@ -121,6 +123,7 @@ export class JobCorrectionStep {
   readonly editable = input(false);
 
   protected readonly session = inject(JobSession);
+  private readonly offline = inject(OfflineJobs);
   private readonly drafts = inject(JobDrafts);
   private readonly destroyRef = inject(DestroyRef);
   private readonly photos = inject(PhotosApi);
@@ -200,6 +203,39 @@ export class JobCorrectionStep {
 
   /** The latest correction: the one that can be fitted, until a run is taken after it. */
   protected readonly correction = computed(() => this.job().corrections.at(-1));
+  /**
+   * Whether the latest correction was computed on this device and waits to be sent: the server gives every
+   * correction it stores an id of its own, the device a negative one until then.
+   */
+  protected readonly computedOnDevice = computed(() => {
+    const correction = this.correction();
+    if (!correction) return false;
+    return (
+      correction.id < 0 ||
+      this.offline
+        .pendingFor(this.job().id)()
+        .some(
+          (pending) =>
+            pending.change.kind === 'compute-correction' &&
+            pending.after.corrections.at(-1)?.sequence === correction.sequence,
+        )
+    );
+  });
+  /**
+   * The corrections of this job that the server computed differently from this device, latest first, each
+   * with both results plane by plane. The server's is the one stored (and shown in the plan).
+   */
+  protected readonly disagreements = computed(() =>
+    this.offline
+      .disagreementsFor(this.job().id)()
+      .map((disagreement) => ({
+        disagreement,
+        rows: disagreementRows(disagreement.device, disagreement.server),
+      }))
+      .sort((a, b) => b.disagreement.correctionSequence - a.disagreement.correctionSequence),
+  );
+  /** True while a disagreement is being dismissed. */
+  protected readonly dismissing = signal(false);
   /** Whether a run was taken after the correction (it is history then: a new one is worked out). */
   protected readonly superseded = computed(() => {
     const correction = this.correction();
@@ -320,6 +356,16 @@ export class JobCorrectionStep {
 
   protected weights(form: InstalledForm): WeightForm[] {
     return form.controls.weights.controls;
+  }
+
+  /** Forgets a disagreement once the technician has checked the weights against the stored correction. */
+  protected async checked(disagreement: CorrectionDisagreement): Promise<void> {
+    this.dismissing.set(true);
+    try {
+      await this.offline.dismissDisagreement(disagreement);
+    } finally {
+      this.dismissing.set(false);
+    }
   }
 
   protected async workItOut(): Promise<void> {

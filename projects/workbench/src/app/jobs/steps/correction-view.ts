@@ -480,3 +480,30 @@ export function placePlanned(
     });
   return { planeIndex: planned.planeIndex, parts, massRatio, notes };
 }
+
+/** One plane of a correction the server and this device computed differently, side by side. */
+export interface DisagreementRow {
+  readonly planeIndex: number;
+  /** "120.4 g at 35.0°", or a dash where that side has no weight in the plane. */
+  readonly server: string;
+  readonly device: string;
+}
+
+/** The planes of both results of a disagreement, in plane order, each as the step writes a weight. */
+export function disagreementRows(
+  device: Pick<JobCorrection, 'plan'>,
+  server: Pick<JobCorrection, 'plan'>,
+): DisagreementRow[] {
+  const planes = [...new Set([...server.plan, ...device.plan].map((weight) => weight.planeIndex))].sort(
+    (a, b) => a - b,
+  );
+  const written = (correction: Pick<JobCorrection, 'plan'>, planeIndex: number) => {
+    const weight = correction.plan.find((each) => each.planeIndex === planeIndex);
+    return weight ? `${formatNumber(weight.massGrams, 1)} g at ${formatDeg(weight.angleDeg)}` : '—';
+  };
+  return planes.map((planeIndex) => ({
+    planeIndex,
+    server: written(server, planeIndex),
+    device: written(device, planeIndex),
+  }));
+}
