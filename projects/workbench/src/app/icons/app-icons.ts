@@ -34,6 +34,7 @@ import closeSvg from '@material-symbols/svg-400/outlined/close.svg';
 import cloudDoneSvg from '@material-symbols/svg-400/outlined/cloud_done.svg';
 import cloudOffSvg from '@material-symbols/svg-400/outlined/cloud_off.svg';
 import contentCopySvg from '@material-symbols/svg-400/outlined/content_copy.svg';
+import contrastSvg from '@material-symbols/svg-400/outlined/contrast.svg';
 import deleteSvg from '@material-symbols/svg-400/outlined/delete.svg';
 import descriptionSvg from '@material-symbols/svg-400/outlined/description.svg';
 import downloadSvg from '@material-symbols/svg-400/outlined/download.svg';
@@ -140,6 +141,7 @@ export const APP_ICONS = {
   cloud_done: cloudDoneSvg,
   cloud_off: cloudOffSvg,
   content_copy: contentCopySvg,
+  contrast: contrastSvg,
   delete: deleteSvg,
   description: descriptionSvg,
   download: downloadSvg,

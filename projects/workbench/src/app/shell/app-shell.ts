@@ -8,6 +8,7 @@ import { MatSidenav, MatSidenavModule } from '@angular/material/sidenav';
 import { MatToolbarModule } from '@angular/material/toolbar';
 import { RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
 import { map } from 'rxjs';
+import { SchemeSwitch } from '../appearance/scheme-switch';
 import { AuthSession } from '../auth/auth-session';
 import { ConnectionStatus } from '../offline/connection-status';
 import { visibleNavigation } from './navigation';
@@ -33,6 +34,7 @@ const WIDE_LAYOUT = '(min-width: 840px)';
     RouterLink,
     RouterLinkActive,
     RouterOutlet,
+    SchemeSwitch,
     UserMenu,
   ],
   templateUrl: './app-shell.html',
