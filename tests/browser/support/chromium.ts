@@ -12,8 +12,14 @@ export interface Browser {
   close(): Promise<void>;
 }
 
+/** How the context is started; Playwright's defaults when absent. */
+export interface LaunchOptions {
+  /** `block` keeps service workers from registering, so that the page's own requests are all it makes. */
+  readonly serviceWorkers?: 'allow' | 'block';
+}
+
 /** Starts Chromium, or fails with the one line that installs it. */
-export async function launchChromium(): Promise<Browser> {
+export async function launchChromium(options: LaunchOptions = {}): Promise<Browser> {
   if (!existsSync(CHROMIUM_PATH)) {
     throw new Error(
       `Chromium is not installed at ${CHROMIUM_PATH}. The browser tests drive Debian's Chromium: ` +
@@ -26,6 +32,7 @@ export async function launchChromium(): Promise<Browser> {
     headless: true,
     args: CHROMIUM_ARGS,
     viewport: { width: 1024, height: 768 },
+    ...options,
   });
   return {
     context,
