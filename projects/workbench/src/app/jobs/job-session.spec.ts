@@ -2,8 +2,16 @@ import { HttpErrorResponse, provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { isTransient, JobSession, retryDelayMs } from './job-session';
+import { AuthSession } from '../auth/auth-session';
+import { aSession } from '../auth/testing';
+import { Connection, HEALTH_PROBE } from '../offline/connection';
+import { OfflineJobs } from '../offline/offline-jobs';
+import { OFFLINE_STORAGE } from '../offline/offline-records';
+import { MemoryOfflineStorage } from '../offline/offline-storage';
+import { problemOf } from '../shell/server-errors';
+import { isTransient, JobSession, NEEDS_CONNECTION, retryDelayMs } from './job-session';
 import type { Job } from './jobs.api';
+import { aJob as aFullJob, aJobMachine } from './jobs-testing';
 
 /** The fields of a job the session reads (id, version, status); the rest is the steps' business. */
 function aJob(version: number, status: Job['status'] = 'open'): Job {
@@ -175,5 +183,100 @@ describe('isTransient', () => {
       Array(7).fill(false),
     );
     expect(isTransient(new Error('not HTTP'))).toBe(false);
+  });
+});
+
+describe('JobSession with no connection', () => {
+  /** Suvi's open job on a machine without family, newly started. */
+  const job = aStartedJob();
+  let session: JobSession;
+  let http: HttpTestingController;
+  let storage: MemoryOfflineStorage;
+
+  function aStartedJob(): Job {
+    return aFullJob({ id: 31, version: 4, machine: aJobMachine({ familyId: null, familyName: null }) });
+  }
+
+  beforeEach(async () => {
+    storage = new MemoryOfflineStorage();
+    TestBed.configureTestingModule({
+      providers: [
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        JobSession,
+        { provide: OFFLINE_STORAGE, useValue: storage },
+        { provide: HEALTH_PROBE, useValue: async () => false },
+      ],
+    });
+    http = TestBed.inject(HttpTestingController);
+    TestBed.inject(AuthSession).start(aSession('technician'));
+    // What the device kept while online: the job's machine (one plane), as its GET answers it.
+    await storage.writeRecord({
+      userId: 3,
+      url: '/api/v1/machines/12',
+      body: { id: 12, familyId: null, planes: [{ correctionRadiusMm: 210 }] },
+      etag: '"1"',
+      storedAt: '2026-12-04T08:00:00.000Z',
+    });
+    session = TestBed.inject(JobSession);
+    const loading = session.load(31);
+    http.expectOne('/api/v1/jobs/31').flush(job, { headers: { ETag: '"4"' } });
+    await loading;
+  });
+
+  afterEach(() => {
+    // The day kept while online and the queue's own reads are another spec's business: no answer here.
+    for (const request of http.match(() => true)) request.error(new ProgressEvent('error'), { status: 0 });
+    http.verify();
+  });
+
+  it('keeps a change that meets no connection on the device and shows the job as it will be', async () => {
+    const saving = session.save('Safety acknowledgement', (api, id, etag) =>
+      api.acknowledgeSafety(id, ['lockout', 'running', 'hot-work', 'weights', 'protection'], etag),
+    );
+    http.expectOne('/api/v1/jobs/31/safety').error(new ProgressEvent('error'), { status: 0 });
+    const outcome = await saving;
+
+    expect(outcome.ok).toBe(true);
+    expect(session.saveState()).toMatchObject({ kind: 'queued', what: 'Safety acknowledgement' });
+    expect(session.job()?.safety?.by.name).toBe('Suvi Achterberg');
+    expect(session.pending().map((change) => change.what)).toEqual(['Safety acknowledgement']);
+    const [kept] = await storage.changes(3);
+    expect(kept).toMatchObject({ jobId: 31, baseVersion: 4, change: { kind: 'acknowledge-safety' } });
+  });
+
+  it('queues without sending while offline, and then queues the next change behind it', async () => {
+    TestBed.inject(Connection).reportNoAnswer();
+    await session.save('Safety acknowledgement', (api, id, etag) =>
+      api.acknowledgeSafety(id, ['lockout', 'running', 'hot-work', 'weights', 'protection'], etag),
+    );
+    TestBed.inject(Connection).reportAnswer();
+    // Online again, but a change of this job still waits: the next one waits behind it, in order.
+    const queued = await storage.changes(3);
+    expect(queued).toHaveLength(1);
+    expect(TestBed.inject(OfflineJobs).mustQueue(31)).toBe(true);
+  });
+
+  it('says that a change needing the server needs a connection, and sends nothing', async () => {
+    TestBed.inject(Connection).reportNoAnswer();
+    const outcome = await session.save('Completing the job', (api, id, etag) => api.complete(id, etag));
+    expect(outcome.ok).toBe(false);
+    expect(session.saveState()).toEqual({
+      kind: 'refused',
+      what: 'Completing the job',
+      message: NEEDS_CONNECTION,
+    });
+    expect(await storage.changes(3)).toEqual([]);
+  });
+
+  it('refuses offline what the server would refuse, as the server words it, and queues nothing', async () => {
+    TestBed.inject(Connection).reportNoAnswer();
+    const outcome = await session.save('Set-up', (api, id, etag) =>
+      api.recordSetup(id, { sensors: [], speedRpm: 2150 } as never, etag),
+    );
+    expect(outcome.ok).toBe(false);
+    expect(session.saveState().kind).toBe('refused');
+    expect(outcome.ok ? null : problemOf(outcome.error)?.status).toBeGreaterThanOrEqual(400);
+    expect(await storage.changes(3)).toEqual([]);
   });
 });

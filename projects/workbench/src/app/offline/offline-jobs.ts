@@ -309,10 +309,18 @@ export class OfflineJobs {
           'The machine of this job was not kept on this device before the connection dropped, so the change cannot be checked here. Try again with a connection.',
       });
     }
-    const familyId = job.machine.familyId;
-    const family =
-      familyId === null ? null : await this.records.read<MachineFamily>(userId, familyUrl(familyId));
-    return { machine: machine.body, family: family?.body ?? null };
+    const familyId = machine.body.familyId ?? null;
+    if (familyId === null) return { machine: machine.body, family: null };
+    const family = await this.records.read<MachineFamily>(userId, familyUrl(familyId));
+    if (!family) {
+      throw refusalAsHttpError({
+        status: 503,
+        title: 'The machine family is not on this device',
+        detail:
+          'The machine family of this job was not kept on this device before the connection dropped, so the change cannot be checked here. Try again with a connection.',
+      });
+    }
+    return { machine: machine.body, family: family.body };
   }
 
   private async whenOnline(): Promise<void> {
