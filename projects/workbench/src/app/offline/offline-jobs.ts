@@ -109,6 +109,8 @@ export class OfflineJobs {
     effect(() => {
       const online = this.connection.online();
       const userId = this.auth.user()?.id;
+      // The day is read again each time the connection returns.
+      if (!online) this.keptDayOf = null;
       if (!online || userId === undefined) return;
       untracked(() => void this.whenOnline());
     });
