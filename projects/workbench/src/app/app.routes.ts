@@ -1,6 +1,7 @@
 import type { Routes } from '@angular/router';
 import { provideCounterpoise } from '@counterpoise/ng/solver';
 import { requirePermission, requireSignedOut, requireSignIn } from './auth/auth.guards';
+import { SignInPage } from './auth/sign-in-page';
 import { confirmLeavingUnsaved } from './records/unsaved-changes';
 
 export const routes: Routes = [
@@ -26,7 +27,9 @@ export const routes: Routes = [
     path: 'sign-in',
     title: 'Sign in · Counterpoise',
     canActivate: [requireSignedOut],
-    loadComponent: () => import('./auth/sign-in-page').then((m) => m.SignInPage),
+    // Part of the first load, not a chunk of its own: every new device starts here, and its form then
+    // draws without a second round trip for its code (tests/browser/first-load.spec.ts).
+    component: SignInPage,
   },
   {
     path: 'forgot-password',
