@@ -66,6 +66,12 @@ function connectionStatus(on: Page) {
   return on.getByRole('link', { name: /^Connection: / });
 }
 
+/** What the status says, as its label reads it out: "Online", "Offline · 3 waiting", "1 conflict"… */
+async function statusOf(on: Page): Promise<string> {
+  const label = (await connectionStatus(on).getAttribute('aria-label')) ?? '';
+  return /^Connection: (.*)\. Changes kept on this device$/.exec(label)?.[1] ?? label;
+}
+
 async function shoot(on: Page, name: string, viewport: { width: number; height: number }): Promise<void> {
   await on.setViewportSize(viewport);
   await animationsSettled(on);
@@ -103,7 +109,7 @@ async function runSavedOfflineWhileManagerChangesIt(
   const { job } = await storedJob(server.url, jobId);
   await page.context().setOffline(false);
   await page.getByRole('heading', { name: /changed on the server while this device was offline/ }).waitFor();
-  await expect.poll(() => connectionStatus(page).textContent()).toMatch(/1 conflict/);
+  await expect.poll(() => statusOf(page)).toMatch(/1 conflict/);
   await page.getByText('Readings of the initial run', { exact: false }).first().waitFor();
   return { jobId, version: job.version };
 }
@@ -118,9 +124,7 @@ describe('a conflict with a change made on the server meanwhile', { timeout: 180
     await shoot(page, 'offline-conflict-phone', PHONE);
 
     await page.getByRole('button', { name: 'Send mine on top of theirs' }).click();
-    await expect
-      .poll(() => connectionStatus(page).textContent(), { timeout: 30_000 })
-      .toMatch(/^\s*Online\s*$/);
+    await expect.poll(() => statusOf(page), { timeout: 30_000 }).toBe('Online');
     const { job } = await storedJob(server.url, jobId);
     expect(job.runs.map((run) => run.kind)).toEqual(['initial']);
     expect(job.version).toBe(version + 1);
@@ -141,7 +145,7 @@ describe('a conflict with a change made on the server meanwhile', { timeout: 180
       .getByRole('region', { name: /Discarded from this device/ })
       .getByText(/Readings of the initial run/)
       .waitFor();
-    await expect.poll(() => connectionStatus(page).textContent()).toMatch(/^\s*Online\s*$/);
+    await expect.poll(() => statusOf(page)).toBe('Online');
     await expectAccessible(page, 'the list of discarded changes');
     await shoot(page, 'offline-discarded-tablet', TABLET);
     // The job stays as the manager left it; the run was not sent.

@@ -28,6 +28,7 @@ function count(n: number, one: string, many: string): string {
       >
         <mat-icon aria-hidden="true" [svgIcon]="icon()" />
         <span class="connection__text">{{ summary() }}</span>
+        <span class="connection__short" aria-hidden="true">{{ shortSummary() }}</span>
         @if (count() > 0) {
           <span class="connection__count" aria-hidden="true">{{ count() }}</span>
         }
@@ -72,8 +73,23 @@ function count(n: number, one: string, many: string): string {
       background: var(--mat-sys-error-container);
       color: var(--mat-sys-on-error-container);
     }
-    .connection__count {
+    .connection__count,
+    .connection__short {
       display: none;
+    }
+    /* On a tablet the toolbar is shared with the tagline and the menus: the short words. */
+    @media (max-width: 959px) {
+      .connection__text {
+        position: absolute;
+        width: 1px;
+        height: 1px;
+        overflow: hidden;
+        clip-path: inset(50%);
+        white-space: nowrap;
+      }
+      .connection__short {
+        display: inline;
+      }
     }
     /* On a phone the toolbar has no room for words: the icon and the number of changes waiting. */
     @media (max-width: 599px) {
@@ -87,6 +103,9 @@ function count(n: number, one: string, many: string): string {
         overflow: hidden;
         clip-path: inset(50%);
         white-space: nowrap;
+      }
+      .connection__short {
+        display: none;
       }
       .connection__count {
         display: inline;
@@ -117,6 +136,21 @@ export class ConnectionStatus {
   protected readonly count = computed(
     () => this.offline.queue().length + this.offline.conflicts().length + this.offline.disagreements().length,
   );
+
+  /** The summary in a few words, what needs a person first: "1 conflict", "Offline · 3", "Sending 2…". */
+  protected readonly shortSummary = computed(() => {
+    const conflicts = this.offline.conflicts().length;
+    if (conflicts > 0) return count(conflicts, 'conflict', 'conflicts');
+    const refused = this.offline.refused().length;
+    if (refused > 0) return `${refused} refused`;
+    const disagreements = this.offline.disagreements().length;
+    if (disagreements > 0) return count(disagreements, 'to check', 'to check');
+    const activity = this.offline.activity();
+    if (activity.kind === 'sending') return `Sending ${activity.left}…`;
+    const waiting = this.offline.queue().length;
+    if (!this.offline.online()) return waiting > 0 ? `Offline · ${waiting}` : 'Offline';
+    return waiting > 0 ? `${waiting} waiting` : 'Online';
+  });
 
   /** "Online", "Offline · 3 waiting", "Sending 2…", "1 conflict"… */
   protected readonly summary = computed(() => {
