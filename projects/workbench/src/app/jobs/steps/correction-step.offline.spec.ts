@@ -177,5 +177,7 @@ describe('JobCorrectionStep with the device working offline', { timeout: 30_000 
     fixture.detectChanges();
     expect(element.querySelector('[data-testid="disagreement"]')).toBeNull();
     expect(await storage.disagreements(TECHNICIAN.user.id)).toEqual([]);
+    // The button is gone: the focus goes to the correction's heading, not to the page's start.
+    expect(document.activeElement?.id).toBe('correction-heading');
   });
 });

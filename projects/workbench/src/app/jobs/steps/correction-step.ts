@@ -358,11 +358,15 @@ export class JobCorrectionStep {
     return form.controls.weights.controls;
   }
 
-  /** Forgets a disagreement once the technician has checked the weights against the stored correction. */
-  protected async checked(disagreement: CorrectionDisagreement): Promise<void> {
+  /**
+   * Forgets a disagreement once the technician has checked the weights against the stored correction, and
+   * takes the focus to the correction's heading (the button it came from is gone).
+   */
+  protected async checked(disagreement: CorrectionDisagreement, heading: HTMLElement): Promise<void> {
     this.dismissing.set(true);
     try {
       await this.offline.dismissDisagreement(disagreement);
+      heading.focus();
     } finally {
       this.dismissing.set(false);
     }
