@@ -146,6 +146,8 @@ describe('a conflict with a change made on the server meanwhile', { timeout: 180
       .getByText(/Readings of the initial run/)
       .waitFor();
     await expect.poll(() => statusOf(page)).toBe('Online');
+    // Nothing claims it was sent.
+    expect(await page.getByText(/sent from this device/).count()).toBe(0);
     await expectAccessible(page, 'the list of discarded changes');
     await shoot(page, 'offline-discarded-tablet', TABLET);
     // The job stays as the manager left it; the run was not sent.

@@ -40,9 +40,11 @@ import { JobSession } from './job-session';
             <strong>Saved on this device, waiting to be sent: {{ state.what }}</strong>
             ({{ state.at | date: 'HH:mm:ss' }}).{{ waitingText() }}
             {{
-              session.online()
-                ? 'Sending when the server answers.'
-                : 'Offline: sent when the connection returns.'
+              session.conflict()
+                ? 'Held back: the job changed on the server meanwhile; choose below what to do.'
+                : session.online()
+                  ? 'Sending when the server answers.'
+                  : 'Offline: sent when the connection returns.'
             }}
           </span>
         }

@@ -3,7 +3,7 @@ import { computed, DestroyRef, effect, inject, Injectable, signal, untracked } f
 import { firstValueFrom, type Observable, race, retry, Subject, takeUntil, throwError, timer } from 'rxjs';
 import { captureChange } from '../offline/change-capture';
 import { isNoAnswer } from '../offline/connection';
-import { OfflineJobs, type PendingJobChange } from '../offline/offline-jobs';
+import { OfflineJobs, type PendingJobChange, type SettledJob } from '../offline/offline-jobs';
 import { httpErrorMessage } from '../shell/server-errors';
 import { type Job, JobsApi, type VersionedJob } from './jobs.api';
 
@@ -78,7 +78,7 @@ export class JobSession {
   private readonly offline = inject(OfflineJobs);
   private readonly stopped = new Subject<void>();
   private readonly jobId = signal<number | null>(null);
-  private lastSent: VersionedJob | null = null;
+  private lastSent: SettledJob | null = null;
   /** What was kept on the device since the job was last sent, for the line once it is. */
   private queuedWhats: string[] = [];
   private readonly tryNow = new Subject<void>();
@@ -107,6 +107,11 @@ export class JobSession {
   });
   /** Whether the server can be reached now. */
   readonly online = this.offline.online;
+  /** The conflict that holds the job's waiting changes back, if any. */
+  readonly conflict = computed(() => {
+    const id = this.jobId();
+    return id === null ? null : this.offline.conflictFor(id);
+  });
   /** True when the job takes changes: open, or on hold (for the inspection and a manager's decisions). */
   readonly changeable = computed(() => {
     const status = this.job()?.status;
@@ -126,7 +131,12 @@ export class JobSession {
       if (sent === null || sent === this.lastSent || this.offline.pendingFor(id)().length > 0) return;
       this.lastSent = sent;
       untracked(() => {
-        this.stored.set(sent);
+        this.stored.set(sent.job);
+        if (sent.discarded) {
+          this.queuedWhats = [];
+          if (!this.busy()) this.state.set({ kind: 'idle' });
+          return;
+        }
         const what =
           this.queuedWhats.length > 0
             ? `${this.queuedWhats.join(', ')} (${SENT_FROM_DEVICE})`

@@ -27,6 +27,12 @@ export type { CorrectionDisagreement, DiscardedChanges, JobConflict } from './of
 /** A change of a job waiting on the device to be sent. */
 export type PendingJobChange = QueuedChange;
 
+/** The job as stored once the device's changes of it are settled: sent, or discarded by the person. */
+export interface SettledJob {
+  readonly job: VersionedJob;
+  readonly discarded: boolean;
+}
+
 /** Where the device's link with the server stands, for the shell's status. */
 export type SyncActivity =
   { readonly kind: 'idle' } | { readonly kind: 'sending'; readonly left: number; readonly what: string };
@@ -76,7 +82,7 @@ export class OfflineJobs {
   private readonly disagreementState = signal<readonly CorrectionDisagreement[]>([]);
   private readonly discardedState = signal<readonly DiscardedChanges[]>([]);
   private readonly activityState = signal<SyncActivity>({ kind: 'idle' });
-  private readonly sentState = signal<ReadonlyMap<number, VersionedJob>>(new Map());
+  private readonly sentState = signal<ReadonlyMap<number, SettledJob>>(new Map());
   private readonly pendingByJob = new Map<number, Signal<readonly PendingJobChange[]>>();
   private readonly disagreementsByJob = new Map<number, Signal<readonly CorrectionDisagreement[]>>();
   private syncing: Promise<void> | null = null;
@@ -149,8 +155,11 @@ export class OfflineJobs {
     return this.conflictState().find((c) => c.jobId === jobId) ?? null;
   }
 
-  /** The job as the server stored it after this device's changes were sent, once they all are. */
-  sentJob(jobId: number): VersionedJob | null {
+  /**
+   * The job as the server stores it once this device's changes of it are settled: all sent, or discarded by
+   * the person (`discarded`); null until then.
+   */
+  sentJob(jobId: number): SettledJob | null {
     return this.sentState().get(jobId) ?? null;
   }
 
@@ -266,11 +275,13 @@ export class OfflineJobs {
     const conflict = this.conflictFor(jobId);
     if (conflict) {
       await this.records.write(user.id, jobUrl(jobId), conflict.current, conflict.etag);
-      this.markSent({ record: conflict.current, etag: conflict.etag });
+      this.markSent({ record: conflict.current, etag: conflict.etag }, true);
       await this.storage.removeConflict(user.id, jobId);
     } else {
       const kept = await this.records.read<Job>(user.id, jobUrl(jobId));
-      if (kept) this.markSent({ record: kept.body, etag: kept.etag ?? `"${kept.body.version}"` });
+      if (kept) {
+        this.markSent({ record: kept.body, etag: kept.etag ?? `"${kept.body.version}"` }, true);
+      }
     }
     await this.reload(user.id);
   }
@@ -384,8 +395,8 @@ export class OfflineJobs {
     }
   }
 
-  private markSent(job: VersionedJob): void {
-    this.sentState.update((all) => new Map(all).set(job.record.id, job));
+  private markSent(job: VersionedJob, discarded = false): void {
+    this.sentState.update((all) => new Map(all).set(job.record.id, { job, discarded }));
   }
 
   private retryLater(): void {
