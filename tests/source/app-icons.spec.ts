@@ -9,7 +9,11 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 
 const appDir = fileURLToPath(new URL('../../projects/workbench/src/app/', import.meta.url));
-const iconsFile = join(appDir, 'icons', 'app-icons.ts');
+/** The first load's icons (FIRST_LOAD_ICONS) and the others (LATER_ICONS, a chunk of their own). */
+const iconFiles = [
+  { path: join(appDir, 'icons', 'app-icons.ts'), list: 'FIRST_LOAD_ICONS' },
+  { path: join(appDir, 'icons', 'app-icons-later.ts'), list: 'LATER_ICONS' },
+];
 
 function sourceFiles(dir: string): string[] {
   return readdirSync(dir, { withFileTypes: true }).flatMap((entry) => {
@@ -19,11 +23,16 @@ function sourceFiles(dir: string): string[] {
   });
 }
 
-/** The names APP_ICONS registers. */
+/** The names a list of icons registers. */
+function namesIn(path: string, list: string): string[] {
+  const text = readFileSync(path, 'utf8');
+  const body = text.slice(text.indexOf(`export const ${list} = {`), text.indexOf('} as const'));
+  return [...body.matchAll(/^\s+(\w+): \w+Svg,$/gm)].map((match) => match[1]!);
+}
+
+/** The names the app registers, in either list. */
 function registeredNames(): Set<string> {
-  const text = readFileSync(iconsFile, 'utf8');
-  const body = text.slice(text.indexOf('export const APP_ICONS = {'), text.indexOf('} as const'));
-  return new Set([...body.matchAll(/^\s+(\w+): \w+Svg,$/gm)].map((match) => match[1]!));
+  return new Set(iconFiles.flatMap(({ path, list }) => namesIn(path, list)));
 }
 
 /** The icon names a source file gives literally: `svgIcon="x"`, quoted names in `[svgIcon]="…"`,
@@ -46,7 +55,7 @@ describe('the workbench icons', () => {
   const registered = registeredNames();
   const used = new Map<string, string>();
   for (const file of sourceFiles(appDir)) {
-    if (file === iconsFile) continue;
+    if (iconFiles.some(({ path }) => path === file)) continue;
     for (const name of namedIcons(readFileSync(file, 'utf8'))) used.set(name, file);
   }
 
@@ -58,6 +67,13 @@ describe('the workbench icons', () => {
   it('registers every icon that a template or component names', () => {
     const missing = [...used].filter(([name]) => !registered.has(name)).map(([n, f]) => `${n} (${f})`);
     expect(missing).toEqual([]);
+  });
+
+  it('keeps each icon in one list: the first load’s or the later one', () => {
+    const [first = [], later = []] = iconFiles.map(({ path, list }) => namesIn(path, list));
+    expect(first.length).toBeGreaterThan(10);
+    expect(later.length).toBeGreaterThan(10);
+    expect(first.filter((name) => later.includes(name))).toEqual([]);
   });
 
   it('registers no icon that nothing names', () => {
