@@ -123,7 +123,9 @@ describe('a conflict with a change made on the server meanwhile', { timeout: 180
     await shoot(page, 'offline-conflict-tablet', TABLET);
     await shoot(page, 'offline-conflict-phone', PHONE);
 
-    await page.getByRole('button', { name: 'Send mine on top of theirs' }).click();
+    // From the keyboard alone.
+    await page.getByRole('button', { name: 'Send mine on top of theirs' }).focus();
+    await page.keyboard.press('Enter');
     await expect.poll(() => statusOf(page), { timeout: 30_000 }).toBe('Online');
     const { job } = await storedJob(server.url, jobId);
     expect(job.runs.map((run) => run.kind)).toEqual(['initial']);
@@ -134,11 +136,16 @@ describe('a conflict with a change made on the server meanwhile', { timeout: 180
   it('discards the device’s run, after a confirmation naming it, and keeps a list of it to read', async () => {
     const { jobId, version } = await runSavedOfflineWhileManagerChangesIt('QS180-0612');
 
-    await page.getByRole('button', { name: 'Discard mine' }).click();
+    await page.getByRole('button', { name: 'Discard mine' }).focus();
+    await page.keyboard.press('Enter');
     const dialog = page.getByRole('alertdialog');
     await dialog.getByText(/Readings of the initial run/).waitFor();
     await expectAccessible(page, 'the confirmation of discarding');
-    await dialog.getByRole('button', { name: 'Discard mine' }).click();
+    // From the keyboard alone: Cancel holds the first focus, the named action is the next.
+    await page.keyboard.press('Tab');
+    const discard = dialog.getByRole('button', { name: 'Discard mine' });
+    expect(await discard.evaluate((button) => button === document.activeElement)).toBe(true);
+    await page.keyboard.press('Enter');
 
     await page.getByRole('heading', { name: /Discarded from this device/ }).waitFor();
     await page
@@ -155,7 +162,8 @@ describe('a conflict with a change made on the server meanwhile', { timeout: 180
     expect(job.runs).toEqual([]);
     expect(job.version).toBe(version);
 
-    await page.getByRole('button', { name: 'Dismiss' }).click();
+    await page.getByRole('button', { name: 'Dismiss' }).focus();
+    await page.keyboard.press('Enter');
     await expect
       .poll(() => page.getByRole('heading', { name: /Discarded from this device/ }).count())
       .toBe(0);

@@ -151,7 +151,9 @@ describe('a job with no connection', { timeout: 180_000 }, () => {
     await shoot(page, 'offline-2-reloaded-phone', PHONE);
 
     // The changes kept on the device, in words, from the status in the shell.
-    await connectionStatus(page).click();
+    // From the keyboard alone: the status is a link.
+    await connectionStatus(page).focus();
+    await page.keyboard.press('Enter');
     await page.getByRole('heading', { level: 1, name: 'Changes kept on this device' }).waitFor();
     await page.getByText(/Waiting to be sent \(3\)/).waitFor();
     await expectAccessible(page, 'the changes kept on the device');
