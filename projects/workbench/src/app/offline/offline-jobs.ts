@@ -89,6 +89,7 @@ export class OfflineJobs {
   private again = false;
   private retryTimer: ReturnType<typeof setTimeout> | null = null;
   private keptDayOf: number | null = null;
+  private keepsToday = false;
 
   /** Every change waiting to be sent, in order. */
   readonly queue = this.queueState.asReadonly();
@@ -128,6 +129,15 @@ export class OfflineJobs {
       ended.unsubscribe();
       if (this.retryTimer !== null) clearTimeout(this.retryTimer);
     });
+  }
+
+  /**
+   * From now on, keeps the signed-in technician's day on the device whenever the server can be reached: their
+   * open jobs, and each one's machine and family (the app turns this on at start; specs leave it off).
+   */
+  keepTodayOnDevice(): void {
+    this.keepsToday = true;
+    if (this.connection.online() && this.auth.user() && !this.auth.offline()) void this.keepToday();
   }
 
   /** What waits to be sent for this job, in order. */
@@ -379,7 +389,7 @@ export class OfflineJobs {
   /** The technician's day, each open job, its machine and its family, read so that the device keeps them. */
   private async keepToday(): Promise<void> {
     const user = this.auth.user();
-    if (!user || this.keptDayOf === user.id || !this.auth.can('jobs:read')) return;
+    if (!this.keepsToday || !user || this.keptDayOf === user.id || !this.auth.can('jobs:read')) return;
     this.keptDayOf = user.id;
     try {
       const day = await firstValueFrom(this.jobsApi.home());

@@ -23,7 +23,7 @@ export function provideOffline(): EnvironmentProviders {
     }),
     provideAppInitializer(() => {
       inject(AppUpdates).watch();
-      inject(OfflineJobs);
+      inject(OfflineJobs).keepTodayOnDevice();
     }),
   ]);
 }
