@@ -12,6 +12,7 @@ import { MASKED_SECRET } from '@counterpoise/api';
 import { DEMO_PASSWORD } from '../../server/src/auth/accounts.seed';
 import { type AccountsServer, startAccountsServer } from './support/accounts-server';
 import { type Browser, launchChromium } from './support/chromium';
+import { expectAccessible } from './support/axe';
 import { WORKBENCH_DIR } from './support/server';
 
 const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
@@ -46,6 +47,7 @@ async function signInAs(email: string, password: string): Promise<void> {
   await page.goto(`${url}/sign-in`);
   await page.getByLabel('E-mail address').fill(email);
   await page.getByLabel('Password', { exact: true }).fill(password);
+  await expectAccessible(page, 'the sign-in page, filled in');
   await page.getByRole('button', { name: 'Sign in', exact: true }).click();
   await page.getByRole('button', { name: /^Your account: / }).waitFor();
 }
@@ -54,6 +56,7 @@ async function signOut(): Promise<void> {
   await page.getByRole('button', { name: /^Your account: / }).click();
   await page.getByRole('menuitem', { name: 'Sign out' }).click();
   await page.getByText('You have signed out.').waitFor();
+  await expectAccessible(page, 'the sign-in page after signing out');
 }
 
 describe('accounts in the workbench', () => {
@@ -67,6 +70,7 @@ describe('accounts in the workbench', () => {
       expect(await navigation().getByRole('link', { name: label, exact: true }).count(), label).toBe(0);
     }
     await page.screenshot({ path: join(SCREENS_DIR, 'accounts-technician.png') });
+    await expectAccessible(page, 'the technician’s home');
 
     await signOut();
     expect(await page.getByRole('button', { name: /^Your account: / }).count()).toBe(0);
@@ -89,10 +93,12 @@ describe('accounts in the workbench', () => {
     await dialog.getByRole('combobox', { name: 'Role' }).click();
     await page.getByRole('option', { name: 'Technician' }).click();
     await dialog.getByLabel('Name (optional)').fill(NEW_PERSON.name);
+    await expectAccessible(page, 'the invitation dialog');
     await dialog.getByRole('button', { name: 'Send the invitation' }).click();
     await dialog.waitFor({ state: 'detached' });
     await page.getByRole('table', { name: 'Pending invitations' }).getByText(NEW_PERSON.email).waitFor();
     await page.screenshot({ path: join(SCREENS_DIR, 'accounts-people.png'), fullPage: true });
+    await expectAccessible(page, 'People with a pending invitation');
 
     await navigation().getByRole('link', { name: 'Outbox' }).click();
     await page.getByRole('heading', { level: 1, name: 'Outbox' }).waitFor();
@@ -107,6 +113,7 @@ describe('accounts in the workbench', () => {
       .first()
       .waitFor();
     await page.screenshot({ path: join(SCREENS_DIR, 'accounts-outbox.png'), fullPage: true });
+    await expectAccessible(page, 'the Outbox with a message open');
 
     // The Outbox shows that the invitation went out, but no link in it works.
     await message.getByText(`${url}/accept-invitation?token=${MASKED_SECRET}`).waitFor();
@@ -125,9 +132,11 @@ describe('accounts in the workbench', () => {
     await page.getByText(NEW_PERSON.email).first().waitFor();
     await page.getByLabel('Your name').fill(NEW_PERSON.name);
     await page.getByLabel('Password', { exact: true }).fill(NEW_PASSWORD);
+    await expectAccessible(page, 'the invitation’s page, filled in');
     await page.getByRole('button', { name: 'Join and sign in' }).click();
     await page.getByRole('button', { name: `Your account: ${NEW_PERSON.name}` }).waitFor();
     await page.screenshot({ path: join(SCREENS_DIR, 'accounts-joined.png') });
+    await expectAccessible(page, 'the home of someone who has just joined');
 
     await signOut();
     await signInAs(NEW_PERSON.email, NEW_PASSWORD);

@@ -3,6 +3,8 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { type Browser, launchChromium } from './support/chromium';
+import { animationsSettled } from './support/animations';
+import { expectAccessible } from './support/axe';
 import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
 
 /** Screenshots land here for a person to look at; the folder is ignored by git. */
@@ -57,6 +59,7 @@ describe('the home page', () => {
     await page.screenshot({ path: join(SCREENS_DIR, 'home-tablet.png') });
     await status.scrollIntoViewIfNeeded();
     await page.screenshot({ path: join(SCREENS_DIR, 'home-tablet-status.png') });
+    await expectAccessible(page, 'the home page, signed out');
   });
 
   it('serves its fonts from the server itself, with no request to another host', async () => {
@@ -95,6 +98,7 @@ describe('the home page', () => {
     const notices = page.getByRole('note');
     expect(await notices.count()).toBe(3);
     await page.screenshot({ path: join(SCREENS_DIR, 'safety-tablet.png'), fullPage: true });
+    await expectAccessible(page, 'the safety page');
   });
 
   it('fits a phone: no sideways scrolling, and the navigation opens as a drawer', async () => {
@@ -106,16 +110,23 @@ describe('the home page', () => {
     );
     expect(overflow).toBeLessThanOrEqual(0);
     await page.screenshot({ path: join(SCREENS_DIR, 'home-phone.png'), fullPage: true });
+    await expectAccessible(page, 'the home page on a phone');
 
     await page.getByRole('button', { name: 'Open the navigation' }).click();
+    await page.getByRole('link', { name: 'Safety', exact: true }).waitFor();
+    await animationsSettled(page);
+    await expectAccessible(page, 'the navigation drawer open on a phone');
     await page.getByRole('link', { name: 'Safety', exact: true }).click();
     await page.getByRole('heading', { level: 1, name: 'Safety' }).waitFor();
     await page.screenshot({ path: join(SCREENS_DIR, 'safety-phone.png'), fullPage: true });
+    await animationsSettled(page);
+    await expectAccessible(page, 'the safety page on a phone');
   });
 
   it('answers a deep link with the app, and an unknown API path with a problem', async () => {
     await page.goto(`${server.url}/no/such/page`);
     await page.getByRole('heading', { name: 'There is no page at this address' }).waitFor();
+    await expectAccessible(page, 'the page for an unknown address');
 
     const response = await fetch(`${server.url}/api/no-such-route`);
     expect(response.status).toBe(404);

@@ -3,6 +3,7 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { type Browser, launchChromium } from './support/chromium';
+import { expectAccessible } from './support/axe';
 import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
 
 /* The Widgets page: the four widgets of @counterpoise/ng as the production build serves them. */
@@ -39,6 +40,7 @@ describe('the Widgets page', () => {
     expect(await page.locator('cp-correction-overlay svg').count()).toBeGreaterThan(0);
     expect(await page.locator('cp-polar-plot table').count()).toBe(1);
     await page.screenshot({ path: join(SCREENS_DIR, 'widgets-tablet.png') });
+    await expectAccessible(page, 'the Widgets page');
   });
 
   it('sets the phase from the keyboard alone', async () => {
@@ -52,6 +54,7 @@ describe('the Widgets page', () => {
     const after = expected;
     expect(await dial.getAttribute('aria-valuetext')).toMatch(/degrees, counted against rotation/);
     await page.getByText(`Phase: ${after}°`).waitFor();
+    await expectAccessible(page, 'the Widgets page with the dial turned');
   });
 
   it('computes offline once loaded: the engine and the drawing arrive in the background', async () => {
@@ -86,6 +89,7 @@ describe('the Widgets page', () => {
       await calculator
         .locator('.cp-weight-calculator__results')
         .screenshot({ path: join(SCREENS_DIR, 'widgets-calculator-offline.png') });
+      await expectAccessible(page, 'the calculator with a correction computed offline');
     } finally {
       await browser.context.setOffline(false);
     }
@@ -100,5 +104,6 @@ describe('the Widgets page', () => {
     );
     expect(overflow).toBeLessThanOrEqual(0);
     await page.screenshot({ path: join(SCREENS_DIR, 'widgets-phone.png') });
+    await expectAccessible(page, 'the Widgets page on a phone');
   });
 });
