@@ -9,6 +9,7 @@
 // request's Accept-Encoding. Node's zlib only.
 import { readdir, readFile, rm, stat, writeFile } from 'node:fs/promises';
 import { extname, join, relative, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { promisify } from 'node:util';
 import { brotliCompress, constants, gzip } from 'node:zlib';
 
@@ -98,7 +99,8 @@ export function printTable(rows) {
   console.log(line('total', total));
 }
 
-const isMain = process.argv[1] && resolve(process.argv[1]) === resolve(new URL(import.meta.url).pathname);
+// Run as a script (not imported by scripts/build-app.mjs).
+const isMain = process.argv[1] !== undefined && resolve(process.argv[1]) === fileURLToPath(import.meta.url);
 if (isMain) {
   const dir = process.argv[2];
   if (!dir || !(await stat(dir).catch(() => null))?.isDirectory()) {
