@@ -219,7 +219,13 @@ export class OfflineJobs {
       this.again = true;
       return this.syncing;
     }
-    this.syncing = this.sendAll().finally(() => {
+    // One sender per device: another tab of the workbench waits for this one (Web Locks, where the browser has
+    // them); within this tab, one at a time.
+    const locks = typeof navigator === 'undefined' ? undefined : navigator.locks;
+    const sending: Promise<void> = locks
+      ? locks.request('counterpoise-offline-queue', () => this.sendAll()).then(() => undefined)
+      : this.sendAll();
+    const syncing = sending.finally(() => {
       this.syncing = null;
       this.activityState.set({ kind: 'idle' });
       if (this.again) {
@@ -227,7 +233,8 @@ export class OfflineJobs {
         void this.sync();
       }
     });
-    return this.syncing;
+    this.syncing = syncing;
+    return syncing;
   }
 
   /**

@@ -246,6 +246,24 @@ describe('replayJob', () => {
     expect(await device.storage.changes(USER)).toEqual([]);
   });
 
+  it('stores each change once when two senders replay the same queue at the same moment', async () => {
+    const server = new JobServer(aJob({ version: 4 }));
+    const device = deviceOf(server);
+    await device.queue([RUN, COMPUTE, INSTALLED]);
+
+    await Promise.all([
+      replayJob(device.deps, USER, server.job.id),
+      replayJob(device.deps, USER, server.job.id),
+    ]);
+
+    expect(server.job.runs).toHaveLength(1);
+    expect(server.job.corrections).toHaveLength(1);
+    expect(server.job.corrections[0]?.installed).toHaveLength(1);
+    expect(server.job.version).toBe(7);
+    expect(await device.storage.changes(USER)).toEqual([]);
+    expect(await device.storage.conflicts(USER)).toEqual([]);
+  });
+
   it('stops with the queue untouched when the server cannot be reached', async () => {
     const server = new JobServer(aJob({ version: 4 }));
     const device = deviceOf(server);

@@ -152,6 +152,9 @@ export async function replayJob(deps: ReplayDeps, userId: number, jobId: number)
         answer = failure.current;
       } else if (failure.kind === 'changed-meanwhile') {
         await deps.keepJob(failure.current);
+        // Another tab of this device may have sent them meanwhile: no change left, nothing to resolve.
+        const left = (await deps.storage.changes(userId)).filter((c) => c.jobId === jobId);
+        if (left.length === 0) return { kind: 'sent', job: failure.current, sent };
         await deps.storage.putConflict({
           userId,
           jobId,
