@@ -17,6 +17,7 @@ import { type ModelRotor, modelReadings } from '../../server/src/jobs/model-roto
 import { type Browser, launchChromium } from './support/chromium';
 import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
 import { animationsSettled } from './support/animations';
+import { expectAccessible } from './support/axe';
 
 const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
 const TABLET = { width: 820, height: 1180 };
@@ -141,6 +142,7 @@ async function shoot(name: string): Promise<void> {
   });
   await page.screenshot({ path: join(SCREENS_DIR, `records-${name}.png`) });
   await page.setViewportSize(TABLET);
+  await expectAccessible(page, `a job's records: ${name}`);
 }
 
 /** The text of the element that has the keyboard's focus. */

@@ -16,6 +16,7 @@ import { type ModelRotor, modelReadings } from '../../server/src/jobs/model-roto
 import { type Browser, launchChromium } from './support/chromium';
 import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
 import { animationsSettled } from './support/animations';
+import { expectAccessible } from './support/axe';
 
 const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
 const TABLET = { width: 820, height: 1180 };
@@ -174,6 +175,7 @@ async function shoot(on: Page, name: string): Promise<void> {
   });
   await on.screenshot({ path: join(SCREENS_DIR, `${name}.png`) });
   await on.setViewportSize(viewport);
+  await expectAccessible(on, `the job page: ${name}`);
 }
 
 /** The step shown now, by its heading. */
@@ -421,10 +423,14 @@ describe('a balancing job in the workbench', { timeout: 120_000 }, () => {
           .first()
           .click();
         await manager.waitForURL(new RegExp(`/jobs/${jobId}$`));
+        await animationsSettled(manager);
+        await expectAccessible(manager, `the job on hold as the manager sees it, ${width}`);
         await manager.getByRole('button', { name: 'Let the job go on' }).click();
         await manager
           .getByLabel('Why the job may go on')
           .fill('End play measured on the worn gauge; bearing replaced next service, customer informed.');
+        await animationsSettled(manager);
+        await expectAccessible(manager, `the manager's reason to let the job go on, ${width}`);
         await manager.getByRole('button', { name: 'Let the job go on' }).last().click();
         // The job is open again, so its stepper moves on to the set-up.
         await stepOpens(manager, /set-up/i);

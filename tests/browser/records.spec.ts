@@ -15,6 +15,7 @@ import {
 } from '../../projects/counterpoise/core/dial-geometry';
 import { DEMO_PASSWORD } from '../../server/src/auth/accounts.seed';
 import { type Browser, launchChromium } from './support/chromium';
+import { expectAccessible } from './support/axe';
 import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
 
 const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
@@ -111,15 +112,18 @@ describe('the shop’s records in the workbench', () => {
     await page.getByRole('heading', { level: 1, name: 'Customers' }).waitFor();
     await page.getByRole('table', { name: 'Customers' }).getByRole('row').nth(1).waitFor();
     await page.screenshot({ path: join(SCREENS_DIR, 'records-customers-tablet.png'), fullPage: true });
+    await expectAccessible(page, 'the customers');
 
     await page.getByRole('link', { name: 'Add a customer' }).click();
     await page.getByRole('heading', { level: 1, name: 'Add a customer' }).waitFor();
     await page.getByLabel('Name', { exact: true }).fill(CUSTOMER.name);
     await page.getByLabel('E-mail address', { exact: true }).fill(CUSTOMER.email);
+    await expectAccessible(page, 'the new customer’s form, filled in');
     await page.getByRole('button', { name: 'Add the customer' }).click();
     await page.getByRole('heading', { level: 1, name: CUSTOMER.name }).waitFor();
     expect(page.url()).toMatch(/\/customers\/\d+$/);
     await page.getByText('Tomasz Wrenfield added this customer.').waitFor();
+    await expectAccessible(page, 'the customer just added');
 
     await page.getByRole('link', { name: 'Add a machine' }).click();
     await page.getByRole('heading', { level: 1, name: 'Add a machine' }).waitFor();
@@ -157,6 +161,7 @@ describe('the shop’s records in the workbench', () => {
     await words.getByText('Blocked: holder 100 to 130 degrees.').waitFor();
     await leftPlane().scrollIntoViewIfNeeded();
     await page.screenshot({ path: join(SCREENS_DIR, 'records-machine-form-tablet.png') });
+    await expectAccessible(page, 'the new machine’s form with its layout drawn');
 
     await page.getByRole('button', { name: 'Add the machine' }).click();
     await page.getByRole('heading', { level: 1, name: new RegExp(SERIAL) }).waitFor();
@@ -164,6 +169,7 @@ describe('the shop’s records in the workbench', () => {
     await leftDrawing.getByText('Blocked: holder 100 to 130 degrees.').waitFor();
     await page.getByText('Tomasz Wrenfield added this machine.').waitFor();
     await page.screenshot({ path: join(SCREENS_DIR, 'records-machine-tablet.png'), fullPage: true });
+    await expectAccessible(page, 'the machine just added');
   });
 
   it('finds the machine again by its serial number, on a tablet and at phone width', async () => {
@@ -183,6 +189,7 @@ describe('the shop’s records in the workbench', () => {
         path: join(SCREENS_DIR, `records-machines-found-${name}.png`),
         fullPage: true,
       });
+      await expectAccessible(page, `the machines found, ${name}`);
       await table.getByRole('link', { name: SERIAL }).click();
       await page.getByRole('heading', { level: 1, name: new RegExp(SERIAL) }).waitFor();
       // The search survives the way back.

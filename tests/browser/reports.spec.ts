@@ -12,6 +12,8 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../server/src/auth/accounts.seed';
 import { pdfPages } from '../../server/src/reports/reports.test-app';
 import { type AccountsServer, startAccountsServer } from './support/accounts-server';
+import { animationsSettled } from './support/animations';
+import { expectAccessible } from './support/axe';
 import { type Browser, launchChromium } from './support/chromium';
 import { WORKBENCH_DIR } from './support/server';
 
@@ -67,10 +69,12 @@ async function signOut(): Promise<void> {
   await page.getByLabel('E-mail address').waitFor();
 }
 
-/** A screenshot of the whole page, once the spinners that end have ended. */
+/** A screenshot of the whole page, once the spinners that end have ended, and axe on what it shows. */
 async function shot(name: string): Promise<void> {
   await page.waitForTimeout(250);
+  await animationsSettled(page);
   await page.screenshot({ path: join(SCREENS_DIR, `report-${name}.png`), fullPage: true });
+  await expectAccessible(page, `the report's page: ${name}`);
 }
 
 /** Draws a signature on the pad with the mouse: a few loops across it, as a hand would. */

@@ -93,15 +93,18 @@ function pageColours(): Promise<{ background: string; text: string }> {
 /**
  * Every control on the job screens smaller than the target, as "what, width × height". A control is measured
  * as drawn: a button's container, a radio button's or checkbox's native input (which Material sizes to the
- * state layer, 48 px here, so no invisible touch target is relied on), a text field's box, a stepper header,
- * a reading's point on the polar plot. Skipped: what is not drawn (no box, hidden) and a file input kept
- * visually hidden, out of the tab order and from screen readers, for the button that opens it.
+ * state layer, 48 px here, so Material's invisible touch target is not relied on), a text field's box, a
+ * stepper header, a safety caution's title; a reading's point on the polar plot is measured with the
+ * transparent hit circle the widget draws around its marker for a finger. Skipped: what is not drawn (no box,
+ * hidden) and a file input kept visually hidden, out of the tab order and from screen readers, for the button
+ * that opens it.
  */
 function measureTargets(): Promise<{ measured: number; small: string[] }> {
   return page.evaluate((minimum) => {
     const controls = [
       'button',
       'a[href]',
+      'summary',
       'input',
       'select',
       'textarea',
@@ -173,7 +176,7 @@ describe('the workbench in sunlight', { timeout: 180_000 }, () => {
     }
     expect(await focusedName()).toBe('Colour scheme: As the device');
 
-    // Enter opens the menu on its first item, the one checked; the arrows go down to high contrast.
+    // Enter opens the menu on its first item, the scheme in use; the arrows go down to high contrast.
     await page.keyboard.press('Enter');
     const menu = page.getByRole('menu', { name: 'Colour scheme' });
     await menu.waitFor();
