@@ -4,7 +4,7 @@
  * the message they got and signs in. The server is the real one over a fresh database with the demo
  * data, with its local mail server on a free port.
  */
-import { existsSync, mkdirSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -13,7 +13,7 @@ import { DEMO_PASSWORD } from '../../server/src/auth/accounts.seed';
 import { type AccountsServer, startAccountsServer } from './support/accounts-server';
 import { type Browser, launchChromium } from './support/chromium';
 import { expectAccessible } from './support/axe';
-import { WORKBENCH_DIR } from './support/server';
+import { requireBuiltWorkbench } from './support/server';
 
 const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
 const NEW_PERSON = { email: 'ines.halloway@ridgeline-rotor.test', name: 'Ines Halloway' };
@@ -25,9 +25,7 @@ let browser: Browser;
 let page: Page;
 
 beforeAll(async () => {
-  if (!existsSync(join(WORKBENCH_DIR, 'index.html'))) {
-    throw new Error(`The workbench is not built in ${WORKBENCH_DIR}: run \`npm run build\` first.`);
-  }
+  requireBuiltWorkbench();
   mkdirSync(SCREENS_DIR, { recursive: true });
   server = await startAccountsServer();
   url = server.url;

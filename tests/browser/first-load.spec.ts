@@ -1,10 +1,10 @@
-import { existsSync, statSync } from 'node:fs';
+import { statSync } from 'node:fs';
 import { join } from 'node:path';
 import type { BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { expectAccessible } from './support/axe';
 import { type Browser, launchChromium } from './support/chromium';
-import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
+import { startServer, type TestServer, WORKBENCH_DIR, requireBuiltWorkbench } from './support/server';
 import {
   type LoggedRequest,
   measureColdVisit,
@@ -29,9 +29,7 @@ const DEMO_PASSWORD = 'balance the drum before lunch';
 let server: TestServer;
 
 beforeAll(async () => {
-  if (!existsSync(join(WORKBENCH_DIR, 'index.html'))) {
-    throw new Error(`The workbench is not built in ${WORKBENCH_DIR}: run \`npm run build\` first.`);
-  }
+  requireBuiltWorkbench();
   server = await startServer();
 });
 

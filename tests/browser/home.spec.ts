@@ -1,11 +1,11 @@
-import { existsSync, mkdirSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { type Browser, launchChromium } from './support/chromium';
 import { animationsSettled } from './support/animations';
 import { expectAccessible } from './support/axe';
-import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
+import { startServer, type TestServer, requireBuiltWorkbench } from './support/server';
 
 /** Screenshots land here for a person to look at; the folder is ignored by git. */
 const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
@@ -18,9 +18,7 @@ let browser: Browser;
 let page: Page;
 
 beforeAll(async () => {
-  if (!existsSync(join(WORKBENCH_DIR, 'index.html'))) {
-    throw new Error(`The workbench is not built in ${WORKBENCH_DIR}: run \`npm run build\` first.`);
-  }
+  requireBuiltWorkbench();
   mkdirSync(SCREENS_DIR, { recursive: true });
   server = await startServer();
   browser = await launchChromium();

@@ -5,7 +5,7 @@
  * file, a bad row named first and the fixed file imported; and a machine's job history with its chart, its
  * table checked against the API, and the shop's jobs downloaded as CSV from the Jobs list.
  */
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
@@ -15,7 +15,7 @@ import { DEMO_PASSWORD } from '../../server/src/auth/accounts.seed';
 import { DEMO_JOBS } from '../../server/src/jobs/jobs.seed';
 import { type ModelRotor, modelReadings } from '../../server/src/jobs/model-rotor';
 import { type Browser, launchChromium } from './support/chromium';
-import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
+import { startServer, type TestServer, requireBuiltWorkbench } from './support/server';
 import { animationsSettled } from './support/animations';
 import { expectAccessible } from './support/axe';
 
@@ -58,9 +58,7 @@ let workDir: string;
 const durations: Record<string, number> = {};
 
 beforeAll(async () => {
-  if (!existsSync(join(WORKBENCH_DIR, 'index.html'))) {
-    throw new Error(`The workbench is not built in ${WORKBENCH_DIR}: run \`npm run build\` first.`);
-  }
+  requireBuiltWorkbench();
   mkdirSync(SCREENS_DIR, { recursive: true });
   workDir = mkdtempSync(join(tmpdir(), 'counterpoise-job-records-'));
   server = await startServer();

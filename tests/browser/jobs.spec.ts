@@ -7,14 +7,14 @@
  * jobs' model: an initial unbalance response and influence coefficients), so that every correction the
  * server works out can be fitted and verified as on a real rotor.
  */
-import { existsSync, mkdirSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD } from '../../server/src/auth/accounts.seed';
 import { type ModelRotor, modelReadings } from '../../server/src/jobs/model-rotor';
 import { type Browser, launchChromium } from './support/chromium';
-import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
+import { startServer, type TestServer, requireBuiltWorkbench } from './support/server';
 import { animationsSettled } from './support/animations';
 import { expectAccessible } from './support/axe';
 
@@ -83,9 +83,7 @@ let page: Page;
 const durations: Record<string, number> = {};
 
 beforeAll(async () => {
-  if (!existsSync(join(WORKBENCH_DIR, 'index.html'))) {
-    throw new Error(`The workbench is not built in ${WORKBENCH_DIR}: run \`npm run build\` first.`);
-  }
+  requireBuiltWorkbench();
   mkdirSync(SCREENS_DIR, { recursive: true });
   server = await startServer();
   technicianBrowser = await launchChromium();

@@ -6,7 +6,7 @@
  * returns the device sends its queue by itself: the server stores the run, its own correction (which agrees
  * with the device's) and the weights fitted.
  */
-import { existsSync, mkdirSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
@@ -25,7 +25,7 @@ import {
   TECHNICIAN,
   typeInitialRun,
 } from './support/offline-job';
-import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
+import { startServer, type TestServer, requireBuiltWorkbench } from './support/server';
 
 const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
 const STEP_TIMEOUT_MS = 15_000;
@@ -35,9 +35,7 @@ let browser: Browser;
 let page: Page;
 
 beforeAll(async () => {
-  if (!existsSync(join(WORKBENCH_DIR, 'index.html'))) {
-    throw new Error(`The workbench is not built in ${WORKBENCH_DIR}: run \`npm run build\` first.`);
-  }
+  requireBuiltWorkbench();
   mkdirSync(SCREENS_DIR, { recursive: true });
   server = await startServer();
   browser = await launchChromium();

@@ -4,7 +4,7 @@
  * overlay with the keyboard and a blocked sector with taps, saves, and finds the machine again by its serial
  * number, on a tablet and at phone width.
  */
-import { existsSync, mkdirSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -16,7 +16,7 @@ import {
 import { DEMO_PASSWORD } from '../../server/src/auth/accounts.seed';
 import { type Browser, launchChromium } from './support/chromium';
 import { expectAccessible } from './support/axe';
-import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
+import { startServer, type TestServer, requireBuiltWorkbench } from './support/server';
 
 const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
 const TABLET = { width: 800, height: 1280 };
@@ -31,9 +31,7 @@ let browser: Browser;
 let page: Page;
 
 beforeAll(async () => {
-  if (!existsSync(join(WORKBENCH_DIR, 'index.html'))) {
-    throw new Error(`The workbench is not built in ${WORKBENCH_DIR}: run \`npm run build\` first.`);
-  }
+  requireBuiltWorkbench();
   mkdirSync(SCREENS_DIR, { recursive: true });
   server = await startServer();
   browser = await launchChromium();

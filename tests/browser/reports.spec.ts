@@ -5,7 +5,7 @@
  * keyboard), and the owner finds the message in the Outbox with the PDF attached, downloads it and reads the
  * job's serial number and the signer's name in it. Then the owner has a second signature taken at phone width.
  */
-import { existsSync, mkdirSync, readFileSync } from 'node:fs';
+import { mkdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
@@ -15,7 +15,7 @@ import { type AccountsServer, startAccountsServer } from './support/accounts-ser
 import { animationsSettled } from './support/animations';
 import { expectAccessible } from './support/axe';
 import { type Browser, launchChromium } from './support/chromium';
-import { WORKBENCH_DIR } from './support/server';
+import { requireBuiltWorkbench } from './support/server';
 
 const SCREENS_DIR = join(process.cwd(), 'test-results', 'screens');
 const TABLET = { width: 820, height: 1180 };
@@ -31,9 +31,7 @@ let browser: Browser;
 let page: Page;
 
 beforeAll(async () => {
-  if (!existsSync(join(WORKBENCH_DIR, 'index.html'))) {
-    throw new Error(`The workbench is not built in ${WORKBENCH_DIR}: run \`npm run build\` first.`);
-  }
+  requireBuiltWorkbench();
   mkdirSync(SCREENS_DIR, { recursive: true });
   server = await startAccountsServer();
   browser = await launchChromium();

@@ -5,7 +5,7 @@
  * (text at 7:1 there, WCAG's AAA level) nor in dark; every control on the job screens measures at least 48 × 48
  * CSS px at tablet and phone width; and the job page is pictured in each scheme for a person to look at.
  */
-import { existsSync, mkdirSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -13,7 +13,7 @@ import { DEMO_PASSWORD } from '../../server/src/auth/accounts.seed';
 import { animationsSettled } from './support/animations';
 import { expectAccessible } from './support/axe';
 import { type Browser, launchChromium } from './support/chromium';
-import { startServer, type TestServer, WORKBENCH_DIR } from './support/server';
+import { startServer, type TestServer, requireBuiltWorkbench } from './support/server';
 
 /** The job page in each scheme, for a person to look at; the folder is ignored by git. */
 const SHOTS_DIR = join(process.cwd(), 'test-results', 'sunlight');
@@ -31,9 +31,7 @@ let page: Page;
 let jobPath: string;
 
 beforeAll(async () => {
-  if (!existsSync(join(WORKBENCH_DIR, 'index.html'))) {
-    throw new Error(`The workbench is not built in ${WORKBENCH_DIR}: run \`npm run build\` first.`);
-  }
+  requireBuiltWorkbench();
   mkdirSync(SHOTS_DIR, { recursive: true });
   server = await startServer();
   browser = await launchChromium();

@@ -1,6 +1,7 @@
 import type { Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { dirname } from 'node:path';
+import { existsSync } from 'node:fs';
+import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { createApp } from '../../../server/src/app';
 import { DEMO_SEEDERS } from '../../../server/src/db/demo-seeders';
@@ -11,6 +12,13 @@ import { UsageLog } from '../../../server/src/usage/usage-log';
 /** The production build of the workbench that `npm run build` leaves (WORKBENCH_DIR names another). */
 export const WORKBENCH_DIR =
   process.env['WORKBENCH_DIR'] ?? fileURLToPath(new URL('../../../dist/workbench/browser', import.meta.url));
+
+/** Fails at once, with the command that builds it, when the workbench the browser tests serve is not built. */
+export function requireBuiltWorkbench(): void {
+  if (!existsSync(join(WORKBENCH_DIR, 'index.html'))) {
+    throw new Error(`The workbench is not built in ${WORKBENCH_DIR}: run \`npm run build\` first.`);
+  }
+}
 
 /** A real Counterpoise server on a free loopback port, over a fresh SQLite file with the demo data. */
 export interface TestServer {
