@@ -69,7 +69,7 @@ export const apiKeys = sqliteTable(
 );
 
 /**
- * One row per keyed request (or per item of a batch): what the usage report sums. Rows arrive in
+ * One row per keyed request, and one more per item of a batch: what the usage report sums. Rows arrive in
  * batches from the usage log; the index serves the report, which always reads one key over a span.
  */
 export const apiUsage = sqliteTable(
@@ -84,6 +84,11 @@ export const apiUsage = sqliteTable(
     durationMs: real('duration_ms').notNull(),
     bytes: integer('bytes').notNull(),
     at: integer('at', { mode: 'timestamp_ms' }).notNull(),
+    /**
+     * True for an item of a batch: a calculation answered inside a request that has a row of its own
+     * (`POST /api/v1/calc/batch`). The report counts requests over the other rows.
+     */
+    batchItem: integer('batch_item', { mode: 'boolean' }).notNull().default(false),
   },
   (table) => [index('api_usage_key_id_at_idx').on(table.keyId, table.at)],
 );

@@ -1,0 +1,1 @@
+ALTER TABLE `api_usage` ADD `batch_item` integer DEFAULT false NOT NULL;
