@@ -61,6 +61,11 @@ export const apiKeys = sqliteTable(
     revokedAt: integer('revoked_at', { mode: 'timestamp_ms' }),
     /** The organisation whose key it is; null for keys made before organisations existed. */
     organisationId: integer('organisation_id').references((): AnySQLiteColumn => organisations.id),
+    /**
+     * The web origins whose pages may use the key, as a JSON array of normalised origins; empty when the
+     * key is not limited.
+     */
+    allowedOrigins: text('allowed_origins', { mode: 'json' }).$type<string[]>().notNull().default([]),
   },
   (table) => [
     check('api_keys_limit_per_minute_positive', sql`${table.limitPerMinute} > 0`),

@@ -1,0 +1,1 @@
+ALTER TABLE `api_keys` ADD `allowed_origins` text DEFAULT '[]' NOT NULL;
