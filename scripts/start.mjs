@@ -49,6 +49,8 @@ const builds = [
   { name: 'counterpoise', args: [ng, 'build', 'counterpoise'] },
   // The workbench's production build, chunks merged and compressed copies beside (scripts/build-app.mjs).
   { name: 'workbench', args: [fileURLToPath(new URL('./build-app.mjs', import.meta.url))] },
+  // The typed client of the API (dist/client), generated from the OpenAPI document (scripts/build-client.mjs).
+  { name: 'the typed client', args: [fileURLToPath(new URL('./build-client.mjs', import.meta.url))] },
 ];
 const skipBuild = ['true', '1', 'yes'].includes(process.env.SKIP_BUILD ?? '');
 

@@ -76,6 +76,7 @@ const steps = [
       [process.execPath, join(root, 'scripts', 'build-shared.mjs')],
       ng('build', 'counterpoise'),
       [process.execPath, join(root, 'scripts', 'build-app.mjs')],
+      [process.execPath, join(root, 'scripts', 'build-client.mjs')],
     ],
   },
   {
