@@ -41,6 +41,17 @@ export default defineConfig({
         },
       },
       {
+        // The docs: the site's pages and links, and the integrators' guide's examples run against a live server.
+        extends: true,
+        test: {
+          name: 'docs',
+          include: ['tests/docs/**/*.spec.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 300_000,
+          fileParallelism: false,
+        },
+      },
+      {
         extends: true,
         test: {
           name: 'packaging',

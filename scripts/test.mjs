@@ -86,6 +86,12 @@ const steps = [
     commands: [vitest(join(resultsDir, 'packaging.json'), '--project', 'packaging')],
   },
   {
+    name: 'Docs (site, guide examples)',
+    report: 'docs.json',
+    needs: 'Production build',
+    commands: [vitest(join(resultsDir, 'docs.json'), '--project', 'docs')],
+  },
+  {
     name: 'Browser (Chromium)',
     report: 'browser.json',
     needs: 'Production build',
