@@ -11,6 +11,7 @@ const KEY_SUMMARY = {
   createdAt: '2026-05-04T08:00:00.000Z',
   lastUsedAt: null,
   revokedAt: null,
+  allowedOrigins: ['https://portal.example.com'],
 };
 
 export const API_KEY_LIST_EXAMPLE = { keys: [KEY_SUMMARY] };

@@ -11,6 +11,8 @@ export interface ApiKeyRecord {
   readonly createdAt: Date;
   readonly lastUsedAt: Date | null;
   readonly revokedAt: Date | null;
+  /** Web origins whose pages may use the key; empty when it is not limited. */
+  readonly allowedOrigins: readonly string[];
 }
 
 /** What the request path needs of a key, read in one indexed lookup. */
@@ -20,6 +22,8 @@ export interface ApiKeyCheckRow {
   readonly prefix: string;
   readonly limitPerMinute: number;
   readonly revokedAt: Date | null;
+  /** Web origins whose pages may use the key; empty when it is not limited. */
+  readonly allowedOrigins: readonly string[];
 }
 
 /** What a new key is stored with. */
@@ -31,6 +35,8 @@ export interface NewApiKeyRow {
   readonly createdAt: Date;
   /** The organisation whose key it is; null for a key made without one. */
   readonly organisationId?: number | null;
+  /** Web origins whose pages may use the key (normalised, no duplicates); none when absent. */
+  readonly allowedOrigins?: readonly string[];
 }
 
 const RECORD_COLUMNS = {
@@ -41,6 +47,7 @@ const RECORD_COLUMNS = {
   createdAt: apiKeys.createdAt,
   lastUsedAt: apiKeys.lastUsedAt,
   revokedAt: apiKeys.revokedAt,
+  allowedOrigins: apiKeys.allowedOrigins,
 };
 
 /** The Drizzle queries of the `api_keys` table. */
@@ -60,6 +67,7 @@ export class ApiKeysRepo {
         prefix: apiKeys.prefix,
         limitPerMinute: apiKeys.limitPerMinute,
         revokedAt: apiKeys.revokedAt,
+        allowedOrigins: apiKeys.allowedOrigins,
       })
       .from(apiKeys)
       .where(eq(apiKeys.hash, sql.placeholder('hash')))
@@ -73,7 +81,12 @@ export class ApiKeysRepo {
 
   /** Stores a new key and returns it as stored. */
   insert(row: NewApiKeyRow): ApiKeyRecord {
-    return this.orm.insert(apiKeys).values(row).returning(RECORD_COLUMNS).get();
+    const { allowedOrigins, ...rest } = row;
+    return this.orm
+      .insert(apiKeys)
+      .values({ ...rest, allowedOrigins: [...(allowedOrigins ?? [])] })
+      .returning(RECORD_COLUMNS)
+      .get();
   }
 
   /** The key with this id, if any. */

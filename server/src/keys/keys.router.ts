@@ -65,7 +65,11 @@ export function keysRoutes(deps: {
       },
       handle: ({ body, res }) => {
         const { key, record } = deps.keys.create(
-          { name: body.name, limitPerMinute: body.limitPerMinute ?? deps.defaultLimitPerMinute },
+          {
+            name: body.name,
+            limitPerMinute: body.limitPerMinute ?? deps.defaultLimitPerMinute,
+            allowedOrigins: body.allowedOrigins ?? [],
+          },
           deps.clock.now(),
           organisationOf(res),
         );

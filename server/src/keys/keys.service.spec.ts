@@ -49,6 +49,7 @@ describe('ApiKeyService', () => {
       lastUsedAt: null,
       revokedAt: null,
       organisationId: null,
+      allowedOrigins: [],
     });
     expect(JSON.stringify(stored)).not.toContain(key.slice(API_KEY_PREFIX_LENGTH));
     expect(toApiKeySummary(record)).toEqual({
@@ -59,6 +60,7 @@ describe('ApiKeyService', () => {
       createdAt: now.toISOString(),
       lastUsedAt: null,
       revokedAt: null,
+      allowedOrigins: [],
     });
   });
 

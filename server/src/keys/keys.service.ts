@@ -74,7 +74,7 @@ export class ApiKeyService {
 
   /** Creates a key; the returned `key` is the only time the secret exists outside the caller's hands. */
   create(
-    input: Required<CreateApiKey>,
+    input: Required<Omit<CreateApiKey, 'allowedOrigins'>> & Pick<CreateApiKey, 'allowedOrigins'>,
     now: Date,
     organisationId: number | null = null,
   ): { key: string; record: ApiKeyRecord } {
@@ -86,6 +86,7 @@ export class ApiKeyService {
       limitPerMinute: input.limitPerMinute,
       createdAt: now,
       organisationId,
+      allowedOrigins: input.allowedOrigins ?? [],
     });
     return { key: generated.key, record };
   }
@@ -153,5 +154,6 @@ export function toApiKeySummary(record: ApiKeyRecord): ApiKeySummary {
     createdAt: record.createdAt.toISOString(),
     lastUsedAt: record.lastUsedAt?.toISOString() ?? null,
     revokedAt: record.revokedAt?.toISOString() ?? null,
+    allowedOrigins: [...record.allowedOrigins],
   };
 }

@@ -28,6 +28,7 @@ const PORTAL: ApiKeySummary = {
   createdAt: '2026-05-04T08:00:00.000Z',
   lastUsedAt: '2026-05-04T09:12:30.250Z',
   revokedAt: null,
+  allowedOrigins: [],
 };
 const LOGGER: ApiKeySummary = {
   id: 2,
@@ -37,6 +38,7 @@ const LOGGER: ApiKeySummary = {
   createdAt: '2026-05-06T10:30:00.000Z',
   lastUsedAt: null,
   revokedAt: null,
+  allowedOrigins: [],
 };
 const OLD: ApiKeySummary = {
   id: 3,
@@ -46,6 +48,7 @@ const OLD: ApiKeySummary = {
   createdAt: '2026-01-10T10:30:00.000Z',
   lastUsedAt: '2026-02-01T10:30:00.000Z',
   revokedAt: '2026-02-02T10:30:00.000Z',
+  allowedOrigins: [],
 };
 const LIST: ApiKeyList = { keys: [OLD, PORTAL, LOGGER] };
 const WHOLE_KEY = 'cpk_bmV3LWtleS1mb3ItdGhlLWZpZWxkLXRhYmxldC0wMDE';

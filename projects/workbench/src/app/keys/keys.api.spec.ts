@@ -16,6 +16,7 @@ const LOGGER: ApiKeySummary = {
   createdAt: '2026-05-01T08:00:00.000Z',
   lastUsedAt: null,
   revokedAt: null,
+  allowedOrigins: [],
 };
 const WHOLE_KEY = `cpk_${'A'.repeat(43)}`;
 
