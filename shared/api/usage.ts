@@ -72,6 +72,14 @@ export const UsageQuerySchema = z.strictObject(
   },
 );
 
+/** How many answers had one error status. */
+export const UsageStatusCountSchema = z
+  .object({
+    status: z.number().int().min(400).max(599).meta({ description: 'The HTTP status.', example: 422 }),
+    answers: z.number().int().positive().meta({ description: 'Answers with that status.', example: 3 }),
+  })
+  .meta({ id: 'UsageStatusCount' });
+
 /** The sums over a set of keyed requests. */
 export const UsageFiguresSchema = z
   .object({
@@ -79,21 +87,47 @@ export const UsageFiguresSchema = z
       .number()
       .int()
       .nonnegative()
+      .meta({ description: 'HTTP requests made with the key; a batch is one request, whatever it holds.' }),
+    calculations: z
+      .number()
+      .int()
+      .nonnegative()
       .meta({
         description:
-          'Keyed requests, counted as the rate limit counts calculations: each item of a batch is one; a ' +
-          'batch refused before its items are answered (over the limit, or a body that does not fit) is one.',
+          'Calculations asked for, as the key’s limit counts them: each call of a calculator route is one and ' +
+          'each item of a batch is one (a batch of n counts n). A batch refused whole (over the limit, or a ' +
+          'body that does not fit) asked for none.',
       }),
-    clientErrors: z.number().int().nonnegative().meta({ description: 'Answers with a 4xx status.' }),
-    serverErrors: z.number().int().nonnegative().meta({ description: 'Answers with a 5xx status.' }),
+    clientErrors: z
+      .number()
+      .int()
+      .nonnegative()
+      .meta({ description: 'Answers with a 4xx status: of requests, and of each item of a batch.' }),
+    serverErrors: z
+      .number()
+      .int()
+      .nonnegative()
+      .meta({ description: 'Answers with a 5xx status: of requests, and of each item of a batch.' }),
     rateLimited: z
       .number()
       .int()
       .nonnegative()
       .meta({ description: 'Answers with 429: over the limit of the key (counted in clientErrors too).' }),
+    errorsByStatus: z.array(UsageStatusCountSchema).meta({
+      description:
+        'The answers with an error status (400 or more), counted per status, statuses in order; a batch’s ' +
+        'items count each with its own status. Empty when every answer succeeded.',
+    }),
     bytes: z.number().int().nonnegative().meta({ description: 'Bytes of the response bodies.' }),
-    meanDurationMs: z.number().nonnegative(),
-    maxDurationMs: z.number().nonnegative(),
+    meanDurationMs: z
+      .number()
+      .nonnegative()
+      .meta({
+        description:
+          'Mean time to answer a request (a batch timed whole), in milliseconds; 0 for a route reached only ' +
+          'inside batches.',
+      }),
+    maxDurationMs: z.number().nonnegative().meta({ description: 'The longest time to answer a request.' }),
   })
   .meta({ id: 'UsageFigures' });
 
@@ -134,10 +168,15 @@ export const UsageReportSchema = z
       groups: [
         {
           group: '2026-05-01',
-          requests: 1200,
+          requests: 1150,
+          calculations: 1200,
           clientErrors: 14,
           serverErrors: 0,
           rateLimited: 2,
+          errorsByStatus: [
+            { status: 422, answers: 12 },
+            { status: 429, answers: 2 },
+          ],
           bytes: 402_000,
           meanDurationMs: 0.84,
           maxDurationMs: 12.5,
@@ -145,19 +184,30 @@ export const UsageReportSchema = z
         {
           group: '2026-05-02',
           requests: 800,
+          calculations: 790,
           clientErrors: 6,
           serverErrors: 0,
           rateLimited: 0,
+          errorsByStatus: [
+            { status: 400, answers: 1 },
+            { status: 422, answers: 5 },
+          ],
           bytes: 268_500,
           meanDurationMs: 0.79,
           maxDurationMs: 9.25,
         },
       ],
       total: {
-        requests: 2000,
+        requests: 1950,
+        calculations: 1990,
         clientErrors: 20,
         serverErrors: 0,
         rateLimited: 2,
+        errorsByStatus: [
+          { status: 400, answers: 1 },
+          { status: 422, answers: 17 },
+          { status: 429, answers: 2 },
+        ],
         bytes: 670_500,
         meanDurationMs: 0.82,
         maxDurationMs: 12.5,
@@ -169,5 +219,6 @@ export type UsageGrouping = (typeof USAGE_GROUPINGS)[number];
 export type UsageQuery = z.output<typeof UsageQuerySchema>;
 export type UsageQueryInput = z.input<typeof UsageQuerySchema>;
 export type UsageFigures = z.infer<typeof UsageFiguresSchema>;
+export type UsageStatusCount = z.infer<typeof UsageStatusCountSchema>;
 export type UsageGroup = z.infer<typeof UsageGroupSchema>;
 export type UsageReport = z.infer<typeof UsageReportSchema>;

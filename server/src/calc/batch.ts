@@ -30,11 +30,13 @@ function unknownRouteProblem(route: string): Problem {
 }
 
 /**
- * Answers every item of a batch on its own, in order, and logs one usage row per item, as each item is
- * one calculation of the key's limit; an item naming no calculator route is logged under the same fixed
- * label as any unknown route. Each item's JSON is written once and its length is the row's byte count, so
- * the log costs no second serialisation. The rows share the time of the request: its items are answered
- * together. The caller has counted the items against the limit (`takeBatchCalculations`) beforehand.
+ * Answers every item of a batch on its own, in order, and logs one usage row per item (`batchItem`), as
+ * each item is one calculation of the key's limit; the request itself gets its row from the usage
+ * middleware, as every keyed request does, so that the report counts requests and calculations apart. An
+ * item naming no calculator route is logged under the same fixed label as any unknown route. Each item's
+ * JSON is written once and its length is the row's byte count, so the log costs no second serialisation.
+ * The rows share the time of the request: its items are answered together. The caller has counted the
+ * items against the limit (`takeBatchCalculations`) beforehand.
  */
 export function answerBatch(
   res: Response,
@@ -64,9 +66,9 @@ export function answerBatch(
         durationMs: performance.now() - started,
         bytes: Buffer.byteLength(json),
         at,
+        batchItem: true,
       });
     }
   }
-  res.locals.usageRecorded = true;
   sendJsonText(res, `{"items":[${parts.join(',')}]}`);
 }

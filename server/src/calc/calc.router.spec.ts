@@ -126,7 +126,7 @@ describe('bodies the routes do not take', () => {
 });
 
 describe('POST /api/v1/calc/batch', () => {
-  it('answers every item on its own, in order, and logs one usage row per item', async () => {
+  it('answers every item on its own, in order, and logs one usage row per item, marked as an item', async () => {
     const { app, rows } = calcTestApp();
     const response = await post(
       'batch',
@@ -156,11 +156,11 @@ describe('POST /api/v1/calc/batch', () => {
     expect(ProblemSchema.parse(items[1]?.problem).errors?.[0]?.path).toBe('toRadius');
     expect(CALC_ROUTES['trial-weight'].response.safeParse(items[3]?.result).success).toBe(true);
 
-    expect(rows.map((row) => [row.keyId, row.route, row.status])).toEqual([
-      [7, 'POST /api/v1/calc/single-plane', 200],
-      [7, 'POST /api/v1/calc/radius', 400],
-      [7, 'POST (unknown route)', 404],
-      [7, 'POST /api/v1/calc/trial-weight', 200],
+    expect(rows.map((row) => [row.keyId, row.route, row.status, row.batchItem])).toEqual([
+      [7, 'POST /api/v1/calc/single-plane', 200, true],
+      [7, 'POST /api/v1/calc/radius', 400, true],
+      [7, 'POST (unknown route)', 404, true],
+      [7, 'POST /api/v1/calc/trial-weight', 200, true],
     ]);
     for (const row of rows) expect(row.bytes).toBeGreaterThan(10);
   });

@@ -23,6 +23,8 @@ export interface UsageRow {
   /** Bytes of the response body (for a batch item, of its own result or problem). */
   readonly bytes: number;
   readonly at: Date;
+  /** True for an item of a batch, whose request (`POST /api/v1/calc/batch`) has a row of its own. */
+  readonly batchItem?: boolean;
 }
 
 /** Where usage rows go; recording never blocks the response. */
@@ -37,7 +39,7 @@ declare global {
     interface Locals {
       /** Set by the API-key middleware on every request it lets through. */
       apiKey?: ApiKeyIdentity;
-      /** Set by a handler that logged its own usage rows (the batch route: one per item). */
+      /** Set by a handler that logged its own usage rows instead of the request's one. */
       usageRecorded?: boolean;
     }
   }

@@ -36,8 +36,9 @@ function bytesOf(res: Response): number {
 /**
  * Records one usage row for every request that the key check let through, when its answer has been
  * handed to the network ('finish'), so the row has the final status and size and the response waits
- * for nothing. A handler that logged its own rows (the batch route: one per item) sets
- * `res.locals.usageRecorded` and this one stays silent. A request whose client went away before the
+ * for nothing. A batch's request gets its row here too; its items get theirs from the batch route
+ * (`batchItem`). A handler that logged the request's row itself sets `res.locals.usageRecorded` and this
+ * one stays silent. A request whose client went away before the
  * answer was sent got no answer and leaves no row. Rows name only `documented` paths (see `routeOf`),
  * so that made-up paths cannot fill the usage table with strings of the caller's choosing.
  */

@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, gte, inArray, lt, type SQL, sql } from 'drizzle-orm';
-import type { UsageGrouping } from '@counterpoise/api';
+import { CALC_ROUTE_NAMES, type UsageGrouping } from '@counterpoise/api';
 import type { Orm } from '../db/database';
 import { apiKeys, apiUsage } from '../db/schema';
 import type { UsageRow } from '../http/keyed-request';
@@ -9,6 +9,7 @@ export interface UsageGroupRow {
   readonly group: string;
   readonly keyName: string | null;
   readonly requests: number;
+  readonly calculations: number;
   readonly clientErrors: number;
   readonly serverErrors: number;
   readonly rateLimited: number;
@@ -17,19 +18,44 @@ export interface UsageGroupRow {
   readonly maxDurationMs: number;
 }
 
+/** How many answers of a group had one error status (400 or more). */
+export interface UsageStatusRow {
+  readonly group: string;
+  readonly status: number;
+  readonly answers: number;
+}
+
+/** The routes whose calls are calculations, as usage rows name them. */
+const CALCULATOR_ROUTES = CALC_ROUTE_NAMES.map((name) => `POST /api/v1/calc/${name}`);
+
+/** A row that stands for a request of its own, not an item inside a batch. */
+const IS_REQUEST = sql`(${apiUsage.batchItem} = 0)`;
+
+/**
+ * Requests and their bytes and durations are summed over the rows of requests: a batch is one request,
+ * answered and timed whole. Calculations are every item of a batch and every call of a calculator route,
+ * as a key's limit counts them. Errors are counted over answers: a request's, and each batch item's own.
+ */
 const FIGURES = {
-  requests: sql<number>`count(*)`.mapWith(Number),
+  requests: sql<number>`total(${IS_REQUEST})`.mapWith(Number),
+  calculations:
+    sql<number>`total(${apiUsage.batchItem} = 1 or ${inArray(apiUsage.route, CALCULATOR_ROUTES)})`.mapWith(
+      Number,
+    ),
   clientErrors: sql<number>`total(${apiUsage.status} between 400 and 499)`.mapWith(Number),
   serverErrors: sql<number>`total(${apiUsage.status} >= 500)`.mapWith(Number),
   rateLimited: sql<number>`total(${apiUsage.status} = 429)`.mapWith(Number),
-  bytes: sql<number>`total(${apiUsage.bytes})`.mapWith(Number),
-  totalDurationMs: sql<number>`total(${apiUsage.durationMs})`.mapWith(Number),
-  maxDurationMs: sql<number>`coalesce(max(${apiUsage.durationMs}), 0)`.mapWith(Number),
+  bytes: sql<number>`total(case when ${IS_REQUEST} then ${apiUsage.bytes} end)`.mapWith(Number),
+  totalDurationMs: sql<number>`total(case when ${IS_REQUEST} then ${apiUsage.durationMs} end)`.mapWith(
+    Number,
+  ),
+  maxDurationMs:
+    sql<number>`coalesce(max(case when ${IS_REQUEST} then ${apiUsage.durationMs} end), 0)`.mapWith(Number),
 };
 
 /**
  * A batch of usage rows in the form the insert takes: one JSON array of [keyId, route, status, durationMs,
- * bytes, atMs], and each key's latest use. Plain data, so that it can travel to the writer's thread.
+ * bytes, atMs, batchItem (0 or 1)], and each key's latest use. Plain data, so that it can travel to the writer's thread.
  */
 export interface PackedUsageRows {
   readonly count: number;
@@ -45,13 +71,26 @@ export function packUsageRows(rows: readonly UsageRow[]): PackedUsageRows {
     const row = rows[index]!;
     const atMs = row.at.getTime();
     if ((lastUsedMs.get(row.keyId) ?? -1) < atMs) lastUsedMs.set(row.keyId, atMs);
-    packed[index] = [row.keyId, row.route, row.status, row.durationMs, row.bytes, atMs];
+    packed[index] = [
+      row.keyId,
+      row.route,
+      row.status,
+      row.durationMs,
+      row.bytes,
+      atMs,
+      row.batchItem ? 1 : 0,
+    ];
   }
   return { count: rows.length, json: JSON.stringify(packed), lastUsedMs: [...lastUsedMs] };
 }
 
 /** The UTC day of a row, from its millisecond timestamp. */
 const DAY = sql<string>`strftime('%Y-%m-%d', ${apiUsage.at} / 1000, 'unixepoch')`;
+
+/** What a day's or a route's group is named after. */
+function groupOf(groupBy: Exclude<UsageGrouping, 'key'>): SQL<string> {
+  return groupBy === 'day' ? DAY : sql<string>`${apiUsage.route}`;
+}
 
 /** The Drizzle queries of the `api_usage` table. */
 export class UsageRepo {
@@ -60,13 +99,14 @@ export class UsageRepo {
 
   constructor(private readonly orm: Orm) {
     // Prepared once. A flush writes all its rows with one statement: they travel as one JSON array of
-    // [keyId, route, status, durationMs, bytes, atMs] and SQLite's json_each unpacks them, which costs
+    // [keyId, route, status, durationMs, bytes, atMs, batchItem] and SQLite's json_each unpacks them, which costs
     // far less per row than running an INSERT for each (the usage log writes one row per batch item).
     // The id column is left for SQLite to assign.
     this.insertRows = orm
       .insert(apiUsage)
       .select(
-        sql`select null, value ->> 0, value ->> 1, value ->> 2, value ->> 3, value ->> 4, value ->> 5
+        sql`select null, value ->> 0, value ->> 1, value ->> 2, value ->> 3, value ->> 4, value ->> 5,
+              value ->> 6
             from json_each(${sql.placeholder('rows')})`,
       )
       .prepare();
@@ -100,17 +140,7 @@ export class UsageRepo {
     to: Date,
     groupBy: UsageGrouping,
   ): UsageGroupRow[] {
-    const keys =
-      typeof scope === 'number'
-        ? eq(apiUsage.keyId, scope)
-        : inArray(
-            apiUsage.keyId,
-            this.orm
-              .select({ id: apiKeys.id })
-              .from(apiKeys)
-              .where(eq(apiKeys.organisationId, scope.organisationId)),
-          );
-    const where = and(keys, gte(apiUsage.at, from), lt(apiUsage.at, to));
+    const where = this.span(scope, from, to);
     if (groupBy === 'key') {
       return this.orm
         .select({ group: apiKeys.prefix, keyName: apiKeys.name, ...FIGURES })
@@ -121,7 +151,7 @@ export class UsageRepo {
         .orderBy(desc(sql`count(*)`), asc(apiKeys.prefix))
         .all();
     }
-    const group: SQL<string> = groupBy === 'day' ? DAY : sql<string>`${apiUsage.route}`;
+    const group = groupOf(groupBy);
     const order = groupBy === 'day' ? [asc(group)] : [desc(sql`count(*)`), asc(group)];
     return this.orm
       .select({ group, keyName: sql<null>`null`, ...FIGURES })
@@ -130,6 +160,58 @@ export class UsageRepo {
       .groupBy(group)
       .orderBy(...order)
       .all();
+  }
+
+  /**
+   * The answers with an error status (400 or more) in `[from, to)`, counted per group (named as in
+   * `groups`) and status, statuses in order.
+   */
+  errorStatuses(
+    scope: number | { readonly organisationId: number },
+    from: Date,
+    to: Date,
+    groupBy: UsageGrouping,
+  ): UsageStatusRow[] {
+    const where = and(this.span(scope, from, to), gte(apiUsage.status, 400));
+    const answers = sql<number>`count(*)`.mapWith(Number);
+    if (groupBy === 'key') {
+      return this.orm
+        .select({ group: apiKeys.prefix, status: apiUsage.status, answers })
+        .from(apiUsage)
+        .innerJoin(apiKeys, eq(apiKeys.id, apiUsage.keyId))
+        .where(where)
+        .groupBy(apiUsage.keyId, apiUsage.status)
+        .orderBy(asc(apiUsage.status))
+        .all();
+    }
+    const group = groupOf(groupBy);
+    return this.orm
+      .select({ group, status: apiUsage.status, answers })
+      .from(apiUsage)
+      .where(where)
+      .groupBy(group, apiUsage.status)
+      .orderBy(asc(apiUsage.status))
+      .all();
+  }
+
+  /** The rows of one key, or of every key of an organisation, in `[from, to)`. */
+  private span(scope: number | { readonly organisationId: number }, from: Date, to: Date): SQL | undefined {
+    const keys =
+      typeof scope === 'number'
+        ? eq(apiUsage.keyId, scope)
+        : inArray(
+            apiUsage.keyId,
+            this.orm
+              .select({ id: apiKeys.id })
+              .from(apiKeys)
+              .where(eq(apiKeys.organisationId, scope.organisationId)),
+          );
+    return and(keys, gte(apiUsage.at, from), lt(apiUsage.at, to));
+  }
+
+  /** Runs reads in one transaction, so that they see the same rows. */
+  read<T>(reads: () => T): T {
+    return this.orm.transaction(reads, { behavior: 'deferred' });
   }
 
   /** How many usage rows are stored in all (for tests and checks). */

@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { ProblemSchema, UsageReportSchema } from '@counterpoise/api';
+import { CALC_ROUTES, ProblemSchema, UsageQuerySchema, UsageReportSchema } from '@counterpoise/api';
 import { createApp } from '../app';
 import type { OpenApiDocument } from '../openapi/openapi';
 import type { Clock } from '../clock';
@@ -9,6 +9,8 @@ import { ACCESS_TOKEN_SCHEME, REFRESH_COOKIE_SCHEME } from '../openapi/responses
 import { API_KEY_BEARER_SCHEME, API_KEY_HEADER_SCHEME } from '../keys/keys.openapi';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
 import { UsageLog } from './usage-log';
+import { UsageRepo } from './usage.repo';
+import { buildUsageReport } from './usage.service';
 
 let temporary: TemporaryDatabase;
 let usageLog: UsageLog;
@@ -19,7 +21,9 @@ const now = new Date('2026-05-04T12:00:00Z');
 const clock: Clock = { now: () => now };
 
 const CALC = 'POST /api/v1/calc/single-plane';
-const TWO = 'POST /api/v1/calc/two-plane';
+const TWO = 'POST /api/v1/calc/multi-plane';
+const BATCH = 'POST /api/v1/calc/batch';
+const USAGE = 'GET /api/v1/usage';
 
 beforeEach(() => {
   temporary = openTemporaryDatabase();
@@ -29,18 +33,23 @@ beforeEach(() => {
   keyId = created.record.id;
   otherKeyId = createTestKey(temporary.database, { name: 'Someone else' }).record.id;
 
-  // key, time, route, status, duration in ms, bytes
-  const rows: [number, string, string, number, number, number][] = [
+  // key, time, route, status, duration in ms, bytes, and whether the row is a batch's item
+  const rows: [number, string, string, number, number, number, boolean?][] = [
     [keyId, '2026-05-01T08:00:00Z', CALC, 200, 1, 100],
     [keyId, '2026-05-01T23:59:59.999Z', CALC, 422, 3, 50],
     [keyId, '2026-05-02T00:00:00Z', TWO, 200, 2, 300],
+    // A batch of two, one item refused: two calculations in one request of its own.
+    [keyId, '2026-05-02T12:00:00Z', CALC, 200, 0.5, 80, true],
+    [keyId, '2026-05-02T12:00:00Z', TWO, 422, 0.25, 60, true],
+    [keyId, '2026-05-02T12:00:00Z', BATCH, 200, 2, 160],
+    [keyId, '2026-05-02T13:00:00Z', USAGE, 200, 1, 500],
     [keyId, '2026-05-03T10:00:00Z', CALC, 429, 0.5, 40],
     [keyId, '2026-05-03T11:00:00Z', TWO, 500, 4, 30],
     [keyId, '2026-03-01T10:00:00Z', CALC, 200, 1, 100],
     [otherKeyId, '2026-05-02T10:00:00Z', CALC, 200, 1, 999],
   ];
-  for (const [id, at, route, status, durationMs, bytes] of rows) {
-    usageLog.record({ keyId: id, at: new Date(at), route, status, durationMs, bytes });
+  for (const [id, at, route, status, durationMs, bytes, batchItem] of rows) {
+    usageLog.record({ keyId: id, at: new Date(at), route, status, durationMs, bytes, batchItem });
   }
   usageLog.flush();
 });
@@ -68,53 +77,90 @@ describe('GET /api/v1/usage', () => {
         {
           group: '2026-05-01',
           requests: 2,
+          calculations: 2,
           clientErrors: 1,
           serverErrors: 0,
           rateLimited: 0,
+          errorsByStatus: [{ status: 422, answers: 1 }],
           bytes: 150,
           meanDurationMs: 2,
           maxDurationMs: 3,
         },
         {
+          // The two-plane call, the batch and the report itself; the batch's items are calculations,
+          // their sizes and times are the batch's.
           group: '2026-05-02',
-          requests: 1,
-          clientErrors: 0,
+          requests: 3,
+          calculations: 3,
+          clientErrors: 1,
           serverErrors: 0,
           rateLimited: 0,
-          bytes: 300,
-          meanDurationMs: 2,
+          errorsByStatus: [{ status: 422, answers: 1 }],
+          bytes: 960,
+          meanDurationMs: 1.667,
           maxDurationMs: 2,
         },
         {
           group: '2026-05-03',
           requests: 2,
+          calculations: 2,
           clientErrors: 1,
           serverErrors: 1,
           rateLimited: 1,
+          errorsByStatus: [
+            { status: 429, answers: 1 },
+            { status: 500, answers: 1 },
+          ],
           bytes: 70,
           meanDurationMs: 2.25,
           maxDurationMs: 4,
         },
       ],
       total: {
-        requests: 5,
-        clientErrors: 2,
+        requests: 7,
+        calculations: 7,
+        clientErrors: 3,
         serverErrors: 1,
         rateLimited: 1,
-        bytes: 520,
-        meanDurationMs: 2.1,
+        errorsByStatus: [
+          { status: 422, answers: 2 },
+          { status: 429, answers: 1 },
+          { status: 500, answers: 1 },
+        ],
+        bytes: 1180,
+        meanDurationMs: 1.929,
         maxDurationMs: 4,
       },
     });
   });
 
-  it('groups by route, busiest first', async () => {
+  it('groups by route, busiest first, a batch’s items under their own routes as calculations', async () => {
     const report = UsageReportSchema.parse((await usage('?groupBy=route').expect(200)).body);
-    expect(report.groups.map((group) => [group.group, group.requests])).toEqual([
-      [CALC, 3],
-      [TWO, 2],
+    expect(
+      report.groups.map((group) => [group.group, group.requests, group.calculations, group.errorsByStatus]),
+    ).toEqual([
+      [
+        CALC,
+        3,
+        4,
+        [
+          { status: 422, answers: 1 },
+          { status: 429, answers: 1 },
+        ],
+      ],
+      [
+        TWO,
+        2,
+        3,
+        [
+          { status: 422, answers: 1 },
+          { status: 500, answers: 1 },
+        ],
+      ],
+      [USAGE, 1, 0, []],
+      [BATCH, 1, 0, []],
     ]);
-    expect(report.total.requests).toBe(5);
+    expect(report.total).toMatchObject({ requests: 7, calculations: 7 });
   });
 
   it('groups by key, naming it, and never shows another key’s usage', async () => {
@@ -123,8 +169,14 @@ describe('GET /api/v1/usage', () => {
     expect(report.groups[0]).toMatchObject({
       group: report.key.prefix,
       keyName: 'Dealer portal',
-      requests: 6,
-      bytes: 620,
+      requests: 8,
+      calculations: 8,
+      bytes: 1280,
+      errorsByStatus: [
+        { status: 422, answers: 2 },
+        { status: 429, answers: 1 },
+        { status: 500, answers: 1 },
+      ],
     });
   });
 
@@ -145,9 +197,11 @@ describe('GET /api/v1/usage', () => {
     expect(report.groups).toEqual([]);
     expect(report.total).toEqual({
       requests: 0,
+      calculations: 0,
       clientErrors: 0,
       serverErrors: 0,
       rateLimited: 0,
+      errorsByStatus: [],
       bytes: 0,
       meanDurationMs: 0,
       maxDurationMs: 0,
@@ -186,6 +240,67 @@ describe('GET /api/v1/usage', () => {
     const before = count();
     await usage('?groupBy=week').expect(400);
     expect(count()).toBe(before);
+  });
+});
+
+describe('the report of requests made at once', () => {
+  it('counts every request, calculation and refusal that the callers were answered', async () => {
+    const app = createApp({ database: temporary.database, usageLog, log: () => undefined });
+    const fresh = createTestKey(temporary.database, { name: 'Bench logger', limitPerMinute: 40 });
+    const single = CALC_ROUTES['single-plane'].example;
+    const call = (path: string, body: object) =>
+      request(app).post(`/api/v1/calc/${path}`).set('X-Api-Key', fresh.key).send(body);
+    // 12 good calls, 6 refused bodies, 4 batches of 3 (one item refused each): 30 calculations asked in
+    // 22 requests, under a limit of 40 a minute; then 12 more calls, of which the limit lets 10 through.
+    const answers = await Promise.all([
+      ...Array.from({ length: 12 }, () => call('single-plane', single)),
+      ...Array.from({ length: 6 }, () =>
+        call('single-plane', { initial: single.initial, trialWeight: single.trialWeight }),
+      ),
+      ...Array.from({ length: 4 }, () =>
+        call('batch', {
+          items: [
+            { route: 'single-plane', body: single },
+            { route: 'single-plane', body: single },
+            { route: 'radius', body: { mass: 1, fromRadius: 1, toRadius: -1 } },
+          ],
+        }),
+      ),
+    ]);
+    const more = await Promise.all(Array.from({ length: 12 }, () => call('single-plane', single)));
+    const statuses = [...answers, ...more].map((answer) => answer.status);
+    expect(statuses.filter((status) => status === 200)).toHaveLength(12 + 4 + 10);
+    expect(statuses.filter((status) => status === 400)).toHaveLength(6);
+    expect(statuses.filter((status) => status === 429)).toHaveLength(2);
+    const itemStatuses = answers
+      .filter((answer) => answer.body.items !== undefined)
+      .flatMap((answer) => (answer.body.items as { status: number }[]).map((item) => item.status));
+    expect(itemStatuses.filter((status) => status === 400)).toHaveLength(4);
+    usageLog.flush();
+
+    // Read on the service: over its limit, the key is refused the report too.
+    const report = buildUsageReport(
+      new UsageRepo(temporary.database.orm),
+      { id: fresh.record.id, name: 'Bench logger', prefix: fresh.record.prefix, limitPerMinute: 40 },
+      UsageQuerySchema.parse({ groupBy: 'route' }),
+      new Date(Date.now() + 1000),
+    );
+    const errors = statuses.filter((status) => status >= 400).length + 4;
+    expect(report.total).toMatchObject({
+      requests: 22 + 12,
+      calculations: 12 + 6 + 12 + 12,
+      clientErrors: errors,
+      rateLimited: 2,
+      errorsByStatus: [
+        { status: 400, answers: 6 + 4 },
+        { status: 429, answers: 2 },
+      ],
+    });
+    expect(report.groups.map((group) => [group.group, group.requests, group.calculations])).toEqual([
+      [CALC, 12 + 6 + 12, 12 + 6 + 8 + 12],
+      [BATCH, 4, 0],
+      ['POST /api/v1/calc/radius', 0, 4],
+    ]);
   });
 });
 

@@ -5,6 +5,7 @@ import {
   type UsageFigures,
   type UsageQuery,
   type UsageReport,
+  type UsageStatusCount,
 } from '@counterpoise/api';
 import type { ApiKeyIdentity } from '../http/keyed-request';
 import { HttpProblem } from '../http/problem';
@@ -17,12 +18,17 @@ const DEFAULT_SPAN_MS = 30 * DAY_MS;
 /** Durations are measured to the microsecond at best; more digits would only be noise. */
 const round = (ms: number) => Math.round(ms * 1000) / 1000;
 
-function figuresOf(row: Omit<UsageGroupRow, 'group' | 'keyName'>): UsageFigures {
+function figuresOf(
+  row: Omit<UsageGroupRow, 'group' | 'keyName'>,
+  errorsByStatus: readonly UsageStatusCount[],
+): UsageFigures {
   return {
     requests: row.requests,
+    calculations: row.calculations,
     clientErrors: row.clientErrors,
     serverErrors: row.serverErrors,
     rateLimited: row.rateLimited,
+    errorsByStatus: [...errorsByStatus],
     bytes: row.bytes,
     meanDurationMs: row.requests === 0 ? 0 : round(row.totalDurationMs / row.requests),
     maxDurationMs: round(row.maxDurationMs),
@@ -97,12 +103,25 @@ function summarise(
   now: Date,
 ): Omit<UsageReport, 'key'> {
   const { from, to } = resolveSpan(query, now);
-  const rows = repo.groups(scope, from, to, query.groupBy);
-  const total = { requests: 0, clientErrors: 0, serverErrors: 0, rateLimited: 0, bytes: 0 };
+  // Both reads in one transaction, so that a flush between them cannot make the errors disagree.
+  const { rows, statuses } = repo.read(() => ({
+    rows: repo.groups(scope, from, to, query.groupBy),
+    statuses: repo.errorStatuses(scope, from, to, query.groupBy),
+  }));
+  const byGroup = new Map<string, UsageStatusCount[]>();
+  const totalByStatus = new Map<number, number>();
+  for (const { group, status, answers } of statuses) {
+    const list = byGroup.get(group) ?? [];
+    list.push({ status, answers });
+    byGroup.set(group, list);
+    totalByStatus.set(status, (totalByStatus.get(status) ?? 0) + answers);
+  }
+  const total = { requests: 0, calculations: 0, clientErrors: 0, serverErrors: 0, rateLimited: 0, bytes: 0 };
   let totalDurationMs = 0;
   let maxDurationMs = 0;
   for (const row of rows) {
     total.requests += row.requests;
+    total.calculations += row.calculations;
     total.clientErrors += row.clientErrors;
     total.serverErrors += row.serverErrors;
     total.rateLimited += row.rateLimited;
@@ -117,8 +136,11 @@ function summarise(
     groups: rows.map((row) => ({
       group: row.group,
       ...(row.keyName === null ? {} : { keyName: row.keyName }),
-      ...figuresOf(row),
+      ...figuresOf(row, byGroup.get(row.group) ?? []),
     })),
-    total: figuresOf({ ...total, totalDurationMs, maxDurationMs }),
+    total: figuresOf(
+      { ...total, totalDurationMs, maxDurationMs },
+      [...totalByStatus].sort(([a], [b]) => a - b).map(([status, answers]) => ({ status, answers })),
+    ),
   };
 }
