@@ -1,4 +1,4 @@
-import { createHash, randomBytes } from 'node:crypto';
+import { createHash, createHmac, randomBytes } from 'node:crypto';
 import { chmodSync, existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { errors, jwtVerify, SignJWT } from 'jose';
@@ -101,4 +101,12 @@ export function generateSecret(): { secret: string; hash: string } {
 /** The stored form of a random secret: SHA-256 in hex (as for API keys, a fast hash suffices). */
 export function hashSecret(secret: string): string {
   return createHash('sha256').update(secret).digest('hex');
+}
+
+/**
+ * A key of its own for one purpose (`purpose` names it), derived from the signing key with HMAC-SHA256,
+ * so that a token signed for one purpose can never be taken for another's, even if a check were missed.
+ */
+export function deriveSigningKey(key: Uint8Array, purpose: string): Uint8Array {
+  return new Uint8Array(createHmac('sha256', key).update(`counterpoise:${purpose}`).digest());
 }

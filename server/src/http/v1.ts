@@ -1,10 +1,10 @@
-import cors from 'cors';
 import { type RequestHandler, Router } from 'express';
-import { API_KEY_HEADER } from '@counterpoise/api';
 import type { Clock } from '../clock';
 import { type AccessTokenCheck, requireApiKey } from '../keys/api-key.middleware';
 import { apiKeyRateLimit } from '../keys/api-key.rate-limit';
+import { KeyCors } from '../keys/key-cors';
 import type { ApiKeyService } from '../keys/keys.service';
+import type { VisitorTokens } from '../keys/visitor-tokens';
 import { recordUsage } from '../usage/usage.recorder';
 import type { UsageSink } from './keyed-request';
 
@@ -13,8 +13,15 @@ export interface KeyedV1Deps {
   readonly clock: Clock;
   /** Where each keyed request's row goes; the calculator routes log batch items to the same sink. */
   readonly usage: UsageSink;
-  /** Web origins whose pages may call the API; none means no cross-origin access. */
+  /**
+   * Web origins whose pages may read every keyed answer (`CORS_ORIGINS`); a key limited to web origins
+   * opens CORS for its own origins beside them (`KeyCors`).
+   */
   readonly corsOrigins: readonly string[];
+  /** Accepts visitor tokens (exchanged for a key by a portal's back end) on `visitorTokenScope`. */
+  readonly visitorTokens?: VisitorTokens;
+  /** The base path of the routes a visitor token may call (the calculator's). */
+  readonly visitorTokenScope?: string;
   /**
    * The key service, built by the app and shared with the workbench's key routes, so that a revocation
    * there counts at once.
@@ -32,29 +39,10 @@ export interface KeyedV1Deps {
 }
 
 /**
- * CORS for the configured origins. Preflights are answered here, before the key check, because a
- * browser sends them without the key; answers expose the rate-limit headers to the page's script.
- */
-function corsFor(origins: readonly string[]): RequestHandler {
-  return cors({
-    origin: [...origins],
-    methods: ['GET', 'POST'],
-    allowedHeaders: [API_KEY_HEADER, 'Authorization', 'Content-Type'],
-    exposedHeaders: [
-      'RateLimit-Limit',
-      'RateLimit-Remaining',
-      'RateLimit-Reset',
-      'RateLimit-Policy',
-      'Retry-After',
-    ],
-    maxAge: 600,
-  });
-}
-
-/**
- * The middleware every keyed route sits behind, in order: CORS (when origins are configured), the API-key
- * check, the usage recorder, the per-key rate limit. Build it once and mount it wherever keyed routes are
- * (`app.use(path, chain, routes)`): its rate-limit counters and key cache are then shared by every mount.
+ * The middleware every keyed route sits behind, in order: CORS (the configured origins and the keys'
+ * own, `KeyCors`), the API-key check (which settles CORS for the key), the usage recorder, the per-key
+ * rate limit. Build it once and mount it wherever keyed routes are (`app.use(path, chain, routes)`): its
+ * rate-limit counters and key cache are then shared by every mount.
  *
  * With `tokens`, a signed-in person's access token is accepted in place of a key; such requests are
  * rate-limited per person and leave no usage row (usage is the keys' account). The limit counts
@@ -64,9 +52,15 @@ function corsFor(origins: readonly string[]): RequestHandler {
  * requests without a valid key have no key to log against and are not recorded.
  */
 export function keyedMiddleware(deps: KeyedV1Deps): RequestHandler[] {
+  const cors = new KeyCors(deps.corsOrigins, deps.keys, deps.visitorTokens);
   return [
-    ...(deps.corsOrigins.length > 0 ? [corsFor(deps.corsOrigins)] : []),
-    requireApiKey(deps.keys, deps.tokens),
+    cors.middleware,
+    requireApiKey(deps.keys, {
+      cors,
+      ...(deps.tokens ? { tokens: deps.tokens } : {}),
+      ...(deps.visitorTokens ? { visitorTokens: deps.visitorTokens } : {}),
+      ...(deps.visitorTokenScope ? { visitorTokenScope: deps.visitorTokenScope } : {}),
+    }),
     recordUsage(deps.usage, deps.clock, deps.documentedPaths),
     apiKeyRateLimit(
       deps.userLimitPerMinute === undefined ? {} : { userLimitPerMinute: deps.userLimitPerMinute },

@@ -1,4 +1,4 @@
-import { and, asc, eq, isNull, sql } from 'drizzle-orm';
+import { and, asc, eq, isNull, ne, sql } from 'drizzle-orm';
 import type { Orm } from '../db/database';
 import { apiKeys } from '../db/schema';
 
@@ -50,6 +50,15 @@ const RECORD_COLUMNS = {
   allowedOrigins: apiKeys.allowedOrigins,
 };
 
+const CHECK_COLUMNS = {
+  id: apiKeys.id,
+  name: apiKeys.name,
+  prefix: apiKeys.prefix,
+  limitPerMinute: apiKeys.limitPerMinute,
+  revokedAt: apiKeys.revokedAt,
+  allowedOrigins: apiKeys.allowedOrigins,
+};
+
 /** The Drizzle queries of the `api_keys` table. */
 export class ApiKeysRepo {
   /**
@@ -58,17 +67,17 @@ export class ApiKeysRepo {
    * another process takes effect on the next request.
    */
   private readonly byHash;
+  /** Prepared once, as `byHash`: every request with a visitor token reads its key by id. */
+  private readonly byId;
 
   constructor(private readonly orm: Orm) {
+    this.byId = orm
+      .select(CHECK_COLUMNS)
+      .from(apiKeys)
+      .where(eq(apiKeys.id, sql.placeholder('id')))
+      .prepare();
     this.byHash = orm
-      .select({
-        id: apiKeys.id,
-        name: apiKeys.name,
-        prefix: apiKeys.prefix,
-        limitPerMinute: apiKeys.limitPerMinute,
-        revokedAt: apiKeys.revokedAt,
-        allowedOrigins: apiKeys.allowedOrigins,
-      })
+      .select(CHECK_COLUMNS)
       .from(apiKeys)
       .where(eq(apiKeys.hash, sql.placeholder('hash')))
       .prepare();
@@ -77,6 +86,31 @@ export class ApiKeysRepo {
   /** The key with this SHA-256 hash, if any. */
   findByHash(hash: string): ApiKeyCheckRow | undefined {
     return this.byHash.get({ hash });
+  }
+
+  /** The key with this id, as the request path needs it, if any. */
+  findCheckRowById(id: number): ApiKeyCheckRow | undefined {
+    return this.byId.get({ id });
+  }
+
+  /** Replaces the web origins a key may be used from; returns the key as stored, if it exists. */
+  updateOrigins(id: number, allowedOrigins: readonly string[]): ApiKeyRecord | undefined {
+    return this.orm
+      .update(apiKeys)
+      .set({ allowedOrigins: [...allowedOrigins] })
+      .where(eq(apiKeys.id, id))
+      .returning(RECORD_COLUMNS)
+      .get();
+  }
+
+  /** Every web origin listed by a key that is not revoked, each once. */
+  originsOfActiveKeys(): string[] {
+    const lists = this.orm
+      .select({ allowedOrigins: apiKeys.allowedOrigins })
+      .from(apiKeys)
+      .where(and(isNull(apiKeys.revokedAt), ne(apiKeys.allowedOrigins, [])))
+      .all();
+    return [...new Set(lists.flatMap((row) => row.allowedOrigins))];
   }
 
   /** Stores a new key and returns it as stored. */

@@ -54,6 +54,17 @@ export type RevokeOutcome =
  */
 export const KEY_RECHECK_MS = 500;
 
+/**
+ * How long the web origins of the active keys (which preflights are answered for) are trusted without
+ * reading them again: changes made here count at once; a change made by the CLI, in another process,
+ * within this.
+ */
+export const ORIGINS_RECHECK_MS = 5_000;
+
+/** What changing a key's origins did. */
+export type UpdateOriginsOutcome =
+  { readonly outcome: 'updated'; readonly key: ApiKeyRecord } | { readonly outcome: 'not-found' };
+
 /** Keys remembered at once; past this the memory is simply cleared (a burst of keys, not a leak). */
 const MAX_REMEMBERED_KEYS = 1000;
 
@@ -66,6 +77,10 @@ interface RememberedKey {
 export class ApiKeyService {
   /** Valid keys seen lately, by the key as presented: a hit skips the pattern, the hash and the lookup. */
   private readonly remembered = new Map<string, RememberedKey>();
+  /** Valid keys read lately by id, for visitor tokens, which name their key by id. */
+  private readonly rememberedById = new Map<number, RememberedKey>();
+  /** The origins listed by active keys, until `until` (monotonic ms). */
+  private originsInUseCache: { readonly origins: ReadonlySet<string>; readonly until: number } | undefined;
 
   constructor(
     private readonly repo: ApiKeysRepo,
@@ -88,6 +103,7 @@ export class ApiKeyService {
       organisationId,
       allowedOrigins: input.allowedOrigins ?? [],
     });
+    if (record.allowedOrigins.length > 0) this.originsInUseCache = undefined;
     return { key: generated.key, record };
   }
 
@@ -107,19 +123,76 @@ export class ApiKeyService {
    */
   revokeInOrganisation(organisationId: number, id: number, now: Date): RevokeOutcome {
     if (!this.repo.findInOrganisation(organisationId, id)) return { outcome: 'not-found' };
-    const outcome = this.revoke(id, now);
-    for (const [presented, remembered] of this.remembered) {
-      if (remembered.row.id === id) this.remembered.delete(presented);
-    }
-    return outcome;
+    return this.revoke(id, now);
   }
 
-  /** Revokes a key; revoking twice is harmless and keeps the first date. */
+  /**
+   * Replaces the web origins one of the organisation's keys may be used from (an empty list lifts the
+   * limit); a key of another organisation is not found. Counts at once in this process, for requests
+   * and preflights alike.
+   */
+  updateOriginsInOrganisation(
+    organisationId: number,
+    id: number,
+    allowedOrigins: readonly string[],
+  ): UpdateOriginsOutcome {
+    if (!this.repo.findInOrganisation(organisationId, id)) return { outcome: 'not-found' };
+    const key = this.repo.updateOrigins(id, allowedOrigins);
+    this.forget(id);
+    if (!key) return { outcome: 'not-found' };
+    return { outcome: 'updated', key };
+  }
+
+  /** Revokes a key; revoking twice is harmless and keeps the first date. It stops working at once here. */
   revoke(id: number, now: Date): RevokeOutcome {
     const revoked = this.repo.revoke(id, now);
+    this.forget(id);
     const key = this.repo.findById(id);
     if (!key) return { outcome: 'not-found' };
     return { outcome: revoked ? 'revoked' : 'already-revoked', key };
+  }
+
+  /**
+   * The key a visitor token names, as `check` answers for a presented key: read again at most every
+   * `KEY_RECHECK_MS`, so that revoking the key stops its tokens too.
+   */
+  checkById(id: number): ApiKeyCheckRow | 'unknown' {
+    const now = this.monotonicMs();
+    const remembered = this.rememberedById.get(id);
+    if (remembered !== undefined && remembered.until > now) return remembered.row;
+    const row = this.repo.findCheckRowById(id);
+    if (row === undefined) return 'unknown';
+    if (row.revokedAt === null) {
+      if (this.rememberedById.size >= MAX_REMEMBERED_KEYS) this.rememberedById.clear();
+      this.rememberedById.set(id, { row, until: now + KEY_RECHECK_MS });
+    } else {
+      this.rememberedById.delete(id);
+    }
+    return row;
+  }
+
+  /**
+   * The web origins listed by keys that are not revoked: the origins whose preflights are answered
+   * (a preflight carries no key, so it cannot be answered for one key alone). Read again after a
+   * change made here, and at least every `ORIGINS_RECHECK_MS`.
+   */
+  originsInUse(): ReadonlySet<string> {
+    const now = this.monotonicMs();
+    if (this.originsInUseCache !== undefined && this.originsInUseCache.until > now) {
+      return this.originsInUseCache.origins;
+    }
+    const origins = new Set(this.repo.originsOfActiveKeys());
+    this.originsInUseCache = { origins, until: now + ORIGINS_RECHECK_MS };
+    return origins;
+  }
+
+  /** Drops what is remembered of a key that changed, and the origins in use. */
+  private forget(id: number): void {
+    for (const [presented, remembered] of this.remembered) {
+      if (remembered.row.id === id) this.remembered.delete(presented);
+    }
+    this.rememberedById.delete(id);
+    this.originsInUseCache = undefined;
   }
 
   /**
