@@ -14,6 +14,7 @@ import type { Database } from './db/database';
 import { healthRoutes } from './health/health.router';
 import { apiNotFound, problemHandler } from './http/problem';
 import { CALC_BASE_PATH, calcRegistry, calcRouter } from './calc/calc.router';
+import { serveDocs } from './http/docs-serving';
 import { securityHeaders } from './http/security-headers';
 import { serveWorkbench } from './http/static-serving';
 import { keyedMiddleware, keyedV1Router } from './http/v1';
@@ -69,6 +70,8 @@ export interface AppDeps {
   readonly version?: string;
   /** The built workbench (`dist/workbench/browser`); the app is not served when absent. */
   readonly staticDir?: string;
+  /** The built docs site (`dist/docs`), served at `/docs`; without it, every path there is a 404. */
+  readonly docsDir?: string;
   /** Where photos are stored (`UPLOADS_DIR`); `uploads/` beside the database file when absent. */
   readonly uploadsDir?: string;
   readonly log?: (message: string, error?: unknown) => void;
@@ -356,6 +359,8 @@ export function createApp(deps: AppDeps): Express {
   api.use(apiNotFound);
   app.use('/api', api);
 
+  // The docs before the workbench: no page under /docs is ever the workbench's index.html.
+  serveDocs(app, deps.docsDir);
   if (deps.staticDir) serveWorkbench(app, deps.staticDir);
 
   app.use(problemHandler(log));

@@ -84,6 +84,8 @@ const ConfigSchema = z.object({
    */
   SEED_DEMO: flag.optional(),
   STATIC_DIR: z.string().min(1).default('dist/workbench/browser'),
+  /** The built docs site (`npm run docs:build`), served at `/docs`. */
+  DOCS_DIR: z.string().min(1).default('dist/docs'),
   /** Web pages on these origins may call `/api/v1` from the browser. */
   CORS_ORIGINS: origins,
   /** Calculations per minute of a key created without `--limit`. */

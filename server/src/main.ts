@@ -62,6 +62,7 @@ async function main(): Promise<void> {
     clock: systemClock,
     version: VERSION,
     staticDir: config.STATIC_DIR,
+    docsDir: config.DOCS_DIR,
     uploadsDir: config.UPLOADS_DIR,
     usageLog,
     corsOrigins: config.CORS_ORIGINS,

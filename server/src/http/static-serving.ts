@@ -61,9 +61,13 @@ function setCacheHeaders(res: ServerResponse, path: string): void {
 /**
  * express-static-gzip over the build: it lists the compressed copies (`.br`, `.gz` from
  * scripts/compress-static.mjs) when built, so the list is built again when the build changes (a new
- * `index.html`), and a build made while the server runs is sent compressed too.
+ * `index.html`), and a build made while the server runs is sent compressed too. `setHeaders` sets the
+ * caching of a file (the workbench's rules by default).
  */
-function compressedFiles(root: string): RequestHandler {
+export function compressedFiles(
+  root: string,
+  setHeaders: (res: ServerResponse, path: string) => void = setCacheHeaders,
+): RequestHandler {
   const indexFile = join(root, 'index.html');
   let built: { stamp: number; serve: RequestHandler } | undefined;
   return (req, res, next) => {
@@ -75,7 +79,7 @@ function compressedFiles(root: string): RequestHandler {
           enableBrotli: true,
           orderPreference: ['br', 'gzip'],
           index: false,
-          serveStatic: { index: false, dotfiles: 'ignore', redirect: false, setHeaders: setCacheHeaders },
+          serveStatic: { index: false, dotfiles: 'ignore', redirect: false, setHeaders },
         }),
       };
     }
