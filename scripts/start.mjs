@@ -16,7 +16,6 @@ import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
-const ng = fileURLToPath(new URL('../node_modules/@angular/cli/bin/ng.js', import.meta.url));
 const env = { ...process.env, NG_CLI_ANALYTICS: 'false' };
 
 /** The child under way (a build, then the server): where a stop signal goes. */
@@ -44,9 +43,8 @@ function exitLike({ code, signal }) {
 }
 
 const builds = [
-  // The library's build imports @counterpoise/engine and @counterpoise/api as packages, built first.
-  { name: 'the shared packages', args: [fileURLToPath(new URL('./build-shared.mjs', import.meta.url))] },
-  { name: 'counterpoise', args: [ng, 'build', 'counterpoise'] },
+  // @counterpoise/ng, the engine and the API schemas inside it (scripts/build-lib.mjs).
+  { name: 'counterpoise', args: [fileURLToPath(new URL('./build-lib.mjs', import.meta.url))] },
   // The workbench's production build, chunks merged and compressed copies beside (scripts/build-app.mjs).
   { name: 'workbench', args: [fileURLToPath(new URL('./build-app.mjs', import.meta.url))] },
   // The typed client of the API (dist/client), generated from the OpenAPI document (scripts/build-client.mjs).

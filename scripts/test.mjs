@@ -73,8 +73,7 @@ const steps = [
   {
     name: 'Production build',
     commands: [
-      [process.execPath, join(root, 'scripts', 'build-shared.mjs')],
-      ng('build', 'counterpoise'),
+      [process.execPath, join(root, 'scripts', 'build-lib.mjs')],
       [process.execPath, join(root, 'scripts', 'build-app.mjs')],
       [process.execPath, join(root, 'scripts', 'build-client.mjs')],
     ],
