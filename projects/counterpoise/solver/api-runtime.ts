@@ -1,21 +1,21 @@
 import { isPlatformBrowser } from '@angular/common';
 import { InjectionToken, PLATFORM_ID, inject } from '@angular/core';
-import type * as CounterpoiseApi from '@counterpoise/api';
+import type * as CounterpoiseApi from '@counterpoise/ng/api';
 import { BalanceSolverError } from './balance-solver-error';
 
-/** The shared API package at run time: its zod schemas, the route table and the balancing engine. */
+/** `@counterpoise/ng/api` at run time: its zod schemas, the route table and the balancing engine. */
 export type ApiRuntime = typeof CounterpoiseApi;
 
 let loading: Promise<ApiRuntime> | undefined;
 
 /**
- * Loads `@counterpoise/api` on first use. It is imported dynamically, so that a dealer's bundler puts it
+ * Loads `@counterpoise/ng/api` on first use. It is imported dynamically, so that a dealer's bundler puts it
  * in a chunk of its own: the widgets render without it, and it arrives while the page is idle (see
  * `preloadApiRuntime`). A load that fails (a device that went offline before the chunk ever came) is
  * forgotten, so that the next calculation tries again.
  */
 export function loadApiRuntime(): Promise<ApiRuntime> {
-  loading ??= import('@counterpoise/api').catch((error: unknown) => {
+  loading ??= import('@counterpoise/ng/api').catch((error: unknown) => {
     loading = undefined;
     throw error;
   });

@@ -1,4 +1,4 @@
-import type { Problem } from '@counterpoise/api';
+import type { Problem } from '@counterpoise/ng/api';
 
 /** Why a solver could not give an answer. */
 export type BalanceSolverErrorReason =

@@ -1,6 +1,6 @@
 import { InjectionToken, inject } from '@angular/core';
 import type { Observable } from 'rxjs';
-import type { CalcRequest, CalcResponse, CalcRouteName } from '@counterpoise/api';
+import type { CalcRequest, CalcResponse, CalcRouteName } from '@counterpoise/ng/api';
 import { LocalBalanceSolver } from './local-balance-solver';
 
 /** Where a calculation runs: the calculator API over the network, or this device. */

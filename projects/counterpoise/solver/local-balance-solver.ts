@@ -1,6 +1,6 @@
 import { Injectable, inject } from '@angular/core';
 import { defer, from, of, switchMap, throwError, type Observable } from 'rxjs';
-import type { CalcRequest, CalcResponse, CalcRouteName } from '@counterpoise/api';
+import type { CalcRequest, CalcResponse, CalcRouteName } from '@counterpoise/ng/api';
 import { API_RUNTIME_LOADER, preloadApiRuntime, requireApiRuntime } from './api-runtime';
 import type { BalanceSolver } from './balance-solver';
 import { BalanceSolverError } from './balance-solver-error';

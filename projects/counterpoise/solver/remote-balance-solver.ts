@@ -11,7 +11,7 @@ import {
   TimeoutError,
   type Observable,
 } from 'rxjs';
-import type { CalcRequest, CalcResponse, CalcRouteName } from '@counterpoise/api';
+import type { CalcRequest, CalcResponse, CalcRouteName } from '@counterpoise/ng/api';
 import { API_RUNTIME_LOADER, type ApiRuntime, preloadApiRuntime, requireApiRuntime } from './api-runtime';
 import type { BalanceSolver } from './balance-solver';
 import { BalanceSolverError } from './balance-solver-error';
@@ -25,7 +25,7 @@ import {
 import { solverErrorFromResponse, parseProblem } from './solver-errors';
 
 /**
- * The header of the API key. The same name as `API_KEY_HEADER` of `@counterpoise/api` (a spec checks
+ * The header of the API key. The same name as `API_KEY_HEADER` of `@counterpoise/ng/api` (a spec checks
  * it), written here so that sending a request needs nothing of the API runtime.
  */
 export const API_KEY_HEADER_NAME = 'X-Api-Key';

@@ -1,4 +1,4 @@
-import type { Problem } from '@counterpoise/api';
+import type { Problem } from '@counterpoise/ng/api';
 import { type ApiRuntime, loadApiRuntime } from './api-runtime';
 import { BalanceSolverError } from './balance-solver-error';
 

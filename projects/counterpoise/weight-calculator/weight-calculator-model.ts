@@ -1,9 +1,9 @@
-import type { CalcRequest, CalcResponse } from '@counterpoise/api';
+import type { CalcRequest, CalcResponse } from '@counterpoise/ng/api';
 import type { BalanceSolverKind } from '@counterpoise/ng/solver';
 
 /**
  * The balancing methods the calculator offers, simplest first. Each is named as the calculator API's route
- * that computes it (`@counterpoise/api`), so a method has one name from the screen's code to the server.
+ * that computes it (`@counterpoise/ng/api`), so a method has one name from the screen's code to the server.
  * `multi-plane` is offered in its two-plane case: two sensors, two correction planes.
  */
 export const CALC_METHODS = ['one-run', 'single-plane', 'multi-plane', 'four-run'] as const;

@@ -1,4 +1,4 @@
-import type { CalcRequest } from '@counterpoise/api';
+import type { CalcRequest } from '@counterpoise/ng/api';
 import {
   type DialPositions,
   type RotationCounting,

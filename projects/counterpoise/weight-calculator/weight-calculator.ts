@@ -40,7 +40,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { type Observable, type Subscription, catchError, finalize, forkJoin, map, of, switchMap } from 'rxjs';
-import type { CalcRequest } from '@counterpoise/api';
+import type { CalcRequest } from '@counterpoise/ng/api';
 import type { RotationCounting, DialPositions, RotationDirection } from '@counterpoise/ng/core';
 import {
   type BlockedSector,
