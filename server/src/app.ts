@@ -22,6 +22,8 @@ import { API_KEY_SECURITY, KEYED_ROUTE_RESPONSES, keysRegistry } from './keys/ke
 import { ApiKeysRepo } from './keys/keys.repo';
 import { keysRoutes } from './keys/keys.router';
 import { ApiKeyService } from './keys/keys.service';
+import { requireSecretKey, tokensRoutes } from './keys/tokens.router';
+import { VisitorTokens } from './keys/visitor-tokens';
 import type { Mailer } from './mail/mailer';
 import { outboxRoutes } from './mail/outbox.router';
 import { peopleRoutes } from './people/people.router';
@@ -174,10 +176,11 @@ export function createApp(deps: AppDeps): Express {
   const accounts = deps.accounts ?? {};
   const mailer = accounts.mailer ?? NO_MAILER;
   const accountsRepo = new AccountsRepo(deps.database.orm);
+  const signingKey = accounts.signingKey ?? randomBytes(48);
   const auth = new AuthService(
     accountsRepo,
     {
-      signingKey: accounts.signingKey ?? randomBytes(48),
+      signingKey,
       passwordCost: { log2N: accounts.passwordHashCost ?? 15 },
       secureCookie: accounts.secureCookie ?? false,
       publicUrl: accounts.publicUrl ?? 'http://localhost:4300',
@@ -191,6 +194,8 @@ export function createApp(deps: AppDeps): Express {
     },
   );
   const keys = new ApiKeyService(new ApiKeysRepo(deps.database.orm));
+  // Short-lived tokens a portal's back end exchanges its key for, one per visitor of its pages.
+  const visitorTokens = new VisitorTokens(signingKey, clock);
   const clientLimits = accounts.clientLimits ?? {};
 
   // The workbench's routes, for signed-in people (and the public session routes): accounts first.
@@ -305,6 +310,18 @@ export function createApp(deps: AppDeps): Express {
     },
   });
 
+  // The exchange of a secret key for a visitor token, behind the keyed chain like the usage report.
+  const tokens = tokensRoutes({
+    tokens: visitorTokens,
+    access: {
+      exchange: {
+        guard: [requireSecretKey(keys)],
+        security: API_KEY_SECURITY,
+        responses: KEYED_ROUTE_RESPONSES,
+      },
+    },
+  });
+
   const health = healthRoutes({ database: deps.database, clock, version });
 
   // The document of what this app built, in the order of the reference: built once, before the keyed
@@ -315,6 +332,7 @@ export function createApp(deps: AppDeps): Express {
       authRegistry,
       ...accountsFeatures.map((feature) => feature.registry),
       keysRegistry,
+      tokens.registry,
       usage.registry,
       calcRegistry,
       ...recordFeatures.map((feature) => feature.registry),
@@ -331,6 +349,8 @@ export function createApp(deps: AppDeps): Express {
     documentedPaths: documentedPaths(openApiDocument),
     keys,
     tokens: auth,
+    visitorTokens,
+    visitorTokenScope: CALC_BASE_PATH,
     ...(accounts.userCalcLimitPerMinute === undefined
       ? {}
       : { userLimitPerMinute: accounts.userCalcLimitPerMinute }),
@@ -351,7 +371,7 @@ export function createApp(deps: AppDeps): Express {
 
   // The usage report, and the key check of every other `/api/v1` path: a keyed request that no route
   // answers is still a logged request of its key, and then a 404 below.
-  app.use('/api/v1', keyedV1Router({ ...keyedDeps, chain: keyed, routes: [usage.router] }));
+  app.use('/api/v1', keyedV1Router({ ...keyedDeps, chain: keyed, routes: [usage.router, tokens.router] }));
 
   const api = Router();
   api.use(health.router);

@@ -1,10 +1,16 @@
-import { ApiKeyListSchema, CreateApiKeySchema, CreatedApiKeySchema } from '@counterpoise/api';
+import {
+  ApiKeyListSchema,
+  ApiKeySummarySchema,
+  CreateApiKeySchema,
+  CreatedApiKeySchema,
+  UpdateApiKeyOriginsSchema,
+} from '@counterpoise/api';
 import type { Response } from 'express';
 import type { Clock } from '../clock';
 import { IdParamSchema } from '../http/params';
 import { HttpProblem } from '../http/problem';
 import { type AccessRule, type FeatureRoutes, RouteTable } from '../http/route';
-import { API_KEY_LIST_EXAMPLE, CREATED_API_KEY_EXAMPLE } from './keys.examples';
+import { API_KEY_LIST_EXAMPLE, CREATED_API_KEY_EXAMPLE, LIMITED_API_KEY_EXAMPLE } from './keys.examples';
 import { type ApiKeyService, toApiKeySummary } from './keys.service';
 
 /** Who may manage the organisation's keys: the app maps it to a permission (`keys:manage`). */
@@ -18,7 +24,7 @@ function organisationOf(res: Response): number {
 }
 
 /**
- * `GET/POST /keys` and `DELETE /keys/{id}`, mounted on `/api/v1`; who may call them comes from the
+ * `GET/POST /keys`, `PUT /keys/{id}/origins` and `DELETE /keys/{id}`, mounted on `/api/v1`; who may call them comes from the
  * app. The key service is the one the keyed chain checks keys with, so that a revocation counts at once.
  */
 export function keysRoutes(deps: {
@@ -53,10 +59,15 @@ export function keysRoutes(deps: {
       summary: 'Create an API key for the organisation',
       description:
         'The answer holds the whole key, this once: only its hash is stored. Without `limitPerMinute`, ' +
-        'the server’s default applies.',
+        'the server’s default applies. With `allowedOrigins`, the key works only from the pages of those ' +
+        'web origins (for a key put in a page: give it a low limit, anyone can read it there).',
       access: 'manage',
       body: CreateApiKeySchema,
-      bodyExample: { name: 'Dealer portal', limitPerMinute: 600 },
+      bodyExample: {
+        name: 'Dealer portal',
+        limitPerMinute: 600,
+        allowedOrigins: ['https://portal.example.com'],
+      },
       answer: {
         status: 201,
         description: 'The key, shown once.',
@@ -75,6 +86,38 @@ export function keysRoutes(deps: {
         );
         res.set('Cache-Control', 'no-store');
         return { key, summary: toApiKeySummary(record) };
+      },
+    })
+    .add<typeof IdParamSchema, undefined, typeof UpdateApiKeyOriginsSchema, typeof ApiKeySummarySchema>({
+      method: 'put',
+      path: '/keys/{id}/origins',
+      summary: 'Change the web origins an API key may be used from',
+      description:
+        'Replaces the whole list: requests with the key (and its visitor tokens) from any other origin, or ' +
+        'with no Origin header, are refused from then on, and CORS answers the listed origins. An empty ' +
+        'list lifts the limit. Each origin is normalised as browsers send it and the list deduplicated. A ' +
+        'key of another organisation is not found (404).',
+      access: 'manage',
+      params: IdParamSchema,
+      body: UpdateApiKeyOriginsSchema,
+      bodyExample: { allowedOrigins: ['https://portal.example.com', 'http://localhost:4200'] },
+      answer: {
+        status: 200,
+        description: 'The key with its new origins.',
+        schema: ApiKeySummarySchema,
+        example: LIMITED_API_KEY_EXAMPLE,
+      },
+      problems: { 404: 'No such key in the organisation.' },
+      handle: ({ params, body, res }) => {
+        const outcome = deps.keys.updateOriginsInOrganisation(
+          organisationOf(res),
+          params.id,
+          body.allowedOrigins,
+        );
+        if (outcome.outcome === 'not-found')
+          throw new HttpProblem(404, 'Not Found', `No API key ${params.id} in your organisation.`);
+        res.set('Cache-Control', 'no-store');
+        return toApiKeySummary(outcome.key);
       },
     })
     .add<typeof IdParamSchema>({
