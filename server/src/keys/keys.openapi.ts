@@ -23,7 +23,8 @@ keysRegistry.registerComponent('securitySchemes', API_KEY_BEARER_SCHEME, {
   bearerFormat: 'cpk_…',
   description:
     `The same API key, as \`Authorization: Bearer <key>\` instead of the ${API_KEY_HEADER} header. The ` +
-    'calculator routes also take the access token of a signed-in person here (see `AccessToken`).',
+    'calculator routes also take the access token of a signed-in person here (see `AccessToken`), and a ' +
+    'visitor token from `POST /api/v1/tokens`.',
 });
 
 /** The `security` of every keyed route: either scheme will do. */
@@ -69,12 +70,18 @@ const problem = (description: string, headers?: ResponseConfig['headers']): Resp
  */
 export const KEYED_ROUTE_RESPONSES: Record<401 | 403 | 429, ResponseConfig> = {
   401: problem(
-    'No API key, two different ones, or one that is malformed or unknown (`code`: `API_KEY_MISSING`, `API_KEY_CONFLICT`, `API_KEY_INVALID`).',
+    'No API key, two different ones, or one that is malformed or unknown (`code`: `API_KEY_MISSING`, ' +
+      '`API_KEY_CONFLICT`, `API_KEY_INVALID`); a visitor token that has expired or is not valid ' +
+      '(`TOKEN_EXPIRED`, `TOKEN_INVALID`).',
     {
       'WWW-Authenticate': { description: 'How to authenticate.', schema: { type: 'string' } },
     },
   ),
-  403: problem('The API key was revoked (`code`: `API_KEY_REVOKED`).'),
+  403: problem(
+    'The API key was revoked (`code`: `API_KEY_REVOKED`); it is limited to web origins and the request ' +
+      'came from another origin or with no Origin header (`API_KEY_ORIGIN_REFUSED`); a visitor token was ' +
+      'sent to a route outside the calculation routes (`TOKEN_SCOPE`).',
+  ),
   429: problem(
     'The key asked for more calculations this minute than its limit allows (a batch of n counts n) (`code`: `RATE_LIMITED`).',
     {
