@@ -6,7 +6,7 @@
  * The server is the real app (createApp) on a temporary database and a loopback port, with one
  * organisation and its owner signed in. Each page gets a key of its own, so that what one page's
  * examples count does not depend on another's. curl blocks run through /bin/sh with the real curl; the
- * TypeScript blocks are type-checked (tsc, strict) and run (tsx) in a folder where @counterpoise/client
+ * TypeScript blocks are type-checked (tsc, strict) and run (types stripped by esbuild) in a folder where @counterpoise/client
  * is installed from its packed tarball with no registry reachable: the packaging check of the client.
  *
  * The client is built afresh into a temporary folder (scripts/build-client.mjs), unless
@@ -17,7 +17,8 @@ import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSyn
 import type { Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { join } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import { fileURLToPath } from 'node:url';
+import { transformSync } from 'esbuild';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/src/app';
 import { createTestKey } from '../../server/src/keys/testing/test-keys';
@@ -29,7 +30,6 @@ import { type Captures, compareAnswer, type Example, examplesOf, settingsOf } fr
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
 const guide = join(root, 'docs', 'integrators');
-const tsxLoader = pathToFileURL(join(root, 'node_modules', 'tsx', 'dist', 'loader.mjs')).href;
 /** The organisation whose owner and keys the examples use. */
 const ORGANISATION = 'Ridgeline Rotor Service';
 
@@ -102,7 +102,12 @@ function installClient(): { app: string; typeErrors: Map<string, string[]> } {
   runOrThrow('npm', ['install', join(work, tarball), '--no-save', '--ignore-scripts'], app, offline);
 
   const programs = pages.flatMap((page) => page.examples.filter((example) => example.kind === 'ts'));
-  for (const program of programs) writeFileSync(join(app, programFile(program)), program.code);
+  for (const program of programs) {
+    writeFileSync(join(app, programFile(program)), program.code);
+    // Run as JavaScript with the types stripped (tsc checks them below): a plain node start per program.
+    const { code } = transformSync(program.code, { loader: 'ts', format: 'esm', target: 'node20' });
+    writeFileSync(join(app, programFile(program).replace(/\.ts$/, '.mjs')), code);
+  }
   writeFileSync(
     join(app, 'tsconfig.json'),
     JSON.stringify({
@@ -220,7 +225,12 @@ for (const page of pages) {
         const run =
           example.kind === 'curl'
             ? await execute('/bin/sh', ['-c', example.code], root, env)
-            : await execute(process.execPath, ['--import', tsxLoader, programFile(example)], live!.app, env);
+            : await execute(
+                process.execPath,
+                [programFile(example).replace(/\.ts$/, '.mjs')],
+                live!.app,
+                env,
+              );
         expect(run.code, `${where(example)} exits 0\n${run.stderr}`).toBe(0);
         if (example.answer) {
           const { documented, actual } = compareAnswer(
