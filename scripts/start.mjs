@@ -49,6 +49,8 @@ const builds = [
   { name: 'workbench', args: [fileURLToPath(new URL('./build-app.mjs', import.meta.url))] },
   // The typed client of the API (dist/client), generated from the OpenAPI document (scripts/build-client.mjs).
   { name: 'the typed client', args: [fileURLToPath(new URL('./build-client.mjs', import.meta.url))] },
+  // The docs site and its widget catalogue (dist/docs), served at /docs (scripts/build-docs.mjs).
+  { name: 'the docs site', args: [fileURLToPath(new URL('./build-docs.mjs', import.meta.url))] },
 ];
 const skipBuild = ['true', '1', 'yes'].includes(process.env.SKIP_BUILD ?? '');
 
