@@ -20,8 +20,10 @@ const END = '<!-- widget-sizes:end -->';
 
 /** Angular (with the CDK and Material), rxjs and tslib: what every Angular app already pays for. */
 const FRAMEWORK = ['@angular/*', 'rxjs', 'rxjs/*', 'tslib'];
-/** The shared packages the engine-backed entries import, and zod beneath them. */
-const SHARED = ['@counterpoise/api', '@counterpoise/engine', 'zod', 'zod/*'];
+/** zod, the one dependency of the package beneath its API entry (`@counterpoise/ng/api`). */
+const SHARED = ['zod', 'zod/*'];
+/** Entries that draw nothing: the engine and the API schemas (loaded when idle by the solvers). No target. */
+const NOT_WIDGETS = ['@counterpoise/ng/engine', '@counterpoise/ng/api'];
 
 /** One entry point's cost, in bytes. */
 interface EntrySize {
@@ -59,14 +61,10 @@ const linker = createEs2015LinkerPlugin({
 });
 
 /**
- * Resolves `@counterpoise/ng[/entry]` to the built bundles through the package's own `exports`, links
- * them, and resolves the shared packages to dist/ or leaves them out.
+ * Resolves `@counterpoise/ng[/entry]` to the built bundles through the package's own `exports` (the engine
+ * and the API schemas are entries of it too) and links them; what stays external is the caller's choice.
  */
-function builtLibrary(
-  exportsField: Record<string, { default: string }>,
-  withShared: boolean,
-  otherEntriesApart: boolean,
-): Plugin {
+function builtLibrary(exportsField: Record<string, { default: string }>, otherEntriesApart: boolean): Plugin {
   return {
     name: 'counterpoise-dist',
     setup(context) {
@@ -80,11 +78,6 @@ function builtLibrary(
         if (!target) return { errors: [{ text: `dist/counterpoise exports no "${key}"` }] };
         return { path: join(LIBRARY, target.default) };
       });
-      context.onResolve({ filter: /^@counterpoise\/(api|engine)$/ }, ({ path }) =>
-        withShared
-          ? { path: join(ROOT, 'dist', path.slice('@counterpoise/'.length), 'index.js') }
-          : { path, external: true },
-      );
       context.onLoad({ filter: /[\\/]dist[\\/]counterpoise[\\/].*\.mjs$/ }, async ({ path }) => {
         const source = readFileSync(path, 'utf8');
         const linked = await transformAsync(source, {
@@ -152,8 +145,8 @@ const length = (files: readonly Uint8Array[]) => files.reduce((sum, bytes) => su
 async function measureEntries(): Promise<EntrySize[]> {
   const manifest = JSON.parse(readFileSync(join(LIBRARY, 'package.json'), 'utf8'));
   const exportsField = manifest.exports as Record<string, { default: string }>;
-  const withShared = builtLibrary(exportsField, true, false);
-  const ownOnly = builtLibrary(exportsField, false, true);
+  const withShared = builtLibrary(exportsField, false);
+  const ownOnly = builtLibrary(exportsField, true);
   const keys = Object.keys(exportsField).filter((key) => key.startsWith('./') && !key.endsWith('/testing'));
   const sizes: EntrySize[] = [];
   for (const key of keys.filter((key) => key !== './package.json')) {
@@ -178,7 +171,7 @@ function sizesTable(sizes: readonly EntrySize[]): string {
   const rows = sizes.map(
     (s) =>
       `| \`${s.entry}\` | ${kB(s.minified)} | ${kB(s.gzipped)} | ${s.deferredGzipped === 0 ? '–' : kB(s.deferredGzipped)} | ${kB(s.ownGzipped)} | ${
-        s.gzipped <= TARGET_GZIP_BYTES ? 'yes' : '**no**'
+        NOT_WIDGETS.includes(s.entry) ? '–' : s.gzipped <= TARGET_GZIP_BYTES ? 'yes' : '**no**'
       } |`,
   );
   return [
@@ -198,10 +191,10 @@ function section(sizes: readonly EntrySize[]): string {
     'minified, split at dynamic imports, every export kept, so an app that imports less pays less); each file',
     'is gzipped at level 9. "First load" is what a page loads with the widget: the entry and everything it',
     'imports statically, other entries of the package included (the calculator embeds the dial and the',
-    'overlay). "Loaded when idle" is `@counterpoise/api` (zod, the schemas, the engine): the engines import it',
+    'overlay). "Loaded when idle" is `@counterpoise/ng/api` (zod, the schemas, the engine): the engines import it',
     'dynamically and start loading it once the browser is idle, so it is there for the first calculation and',
     'for work without a connection later, but not in the way of the first render. "Own code" leaves the other',
-    'entries and the shared packages out. Target: under 30 kB gzipped per widget at first load.',
+    'entries and zod out. Target: under 30 kB gzipped per widget at first load.',
     '',
     'Command: `npm run build:lib && npm run bench:sizes` (updates this section).',
     '',

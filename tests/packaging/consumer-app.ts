@@ -1,8 +1,12 @@
 /**
  * The files of the smallest Angular app a dealer might write against the packed `@counterpoise/ng`: one
  * standalone component that imports every public entry point of the package, shows the safety notice, and
- * brands it through the theme mixins the package ships.
+ * brands it through the theme mixins the package ships. The API entry (zod, the schemas and the engine's
+ * routes) is imported dynamically, as the solvers import it, so that it stays out of the first load.
  */
+
+/** Entry points the app loads on demand rather than with its first chunk. */
+export const DEFERRED_ENTRIES: readonly string[] = ['@counterpoise/ng/api'];
 
 /** A public entry point of the package and the name its namespace import gets in the app. */
 export interface ConsumedEntry {
@@ -25,8 +29,11 @@ export function consumedEntries(exportsField: Record<string, unknown>): Consumed
 
 /** The app's files, by path relative to its folder. */
 export function consumerAppFiles(entries: readonly ConsumedEntry[]): Record<string, string> {
-  const imports = entries.map((e) => `import * as ${e.alias} from '${e.specifier}';`).join('\n');
-  const counts = entries.map((e) => `  ['${e.specifier}', Object.keys(${e.alias}).length],`).join('\n');
+  const eager = entries.filter((e) => !DEFERRED_ENTRIES.includes(e.specifier));
+  const deferred = entries.filter((e) => DEFERRED_ENTRIES.includes(e.specifier));
+  const imports = eager.map((e) => `import * as ${e.alias} from '${e.specifier}';`).join('\n');
+  const counts = eager.map((e) => `  ['${e.specifier}', Object.keys(${e.alias}).length],`).join('\n');
+  const loaders = deferred.map((e) => `  ['${e.specifier}', () => import('${e.specifier}')],`).join('\n');
   return {
     'angular.json': JSON.stringify(
       {
@@ -107,13 +114,18 @@ export function consumerAppFiles(entries: readonly ConsumedEntry[]): Record<stri
       '',
     ].join('\n'),
     'src/portal.ts': [
-      "import { ChangeDetectionStrategy, Component } from '@angular/core';",
+      "import { ChangeDetectionStrategy, Component, afterNextRender, signal } from '@angular/core';",
       "import { CpSafetyNotice } from '@counterpoise/ng/core';",
       imports,
       '',
       '/** Every public entry point of the package, so that each one is compiled, linked and bundled. */',
       'const EXPORT_COUNTS: readonly (readonly [string, number])[] = [',
       counts,
+      '];',
+      '',
+      '/** The entries loaded on demand, each in a chunk of its own. */',
+      'const LOADERS: readonly (readonly [string, () => Promise<object>])[] = [',
+      loaders,
       '];',
       '',
       '@Component({',
@@ -125,14 +137,23 @@ export function consumerAppFiles(entries: readonly ConsumedEntry[]): Record<stri
       '      <cp-safety-notice heading="Before the service run" [topics]="[\'running\', \'weights\']" />',
       '    </div>',
       '    <ul>',
-      '      @for (entry of exportCounts; track entry[0]) {',
+      '      @for (entry of exportCounts(); track entry[0]) {',
       '        <li>{{ entry[0] }}: {{ entry[1] }} exports</li>',
       '      }',
       '    </ul>',
       '  `,',
       '})',
       'export class Portal {',
-      '  protected readonly exportCounts = EXPORT_COUNTS;',
+      '  protected readonly exportCounts = signal(EXPORT_COUNTS);',
+      '',
+      '  constructor() {',
+      '    afterNextRender(async () => {',
+      '      for (const [specifier, load] of LOADERS) {',
+      '        const entry = await load();',
+      '        this.exportCounts.update((counts) => [...counts, [specifier, Object.keys(entry).length] as const]);',
+      '      }',
+      '    });',
+      '  }',
       '}',
       '',
     ].join('\n'),

@@ -1,180 +1,113 @@
-import { execFileSync, spawnSync } from 'node:child_process';
-import {
-  existsSync,
-  lstatSync,
-  mkdirSync,
-  mkdtempSync,
-  readdirSync,
-  readFileSync,
-  rmSync,
-  symlinkSync,
-  writeFileSync,
-} from 'node:fs';
+import { lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { type ConsumedEntry, consumedEntries, consumerAppFiles } from './consumer-app';
+import { installTarball, LIBRARY_DIST, ng, packLibrary, type PackResult } from './dealer-install';
 
 /*
- * Packs the three packages as they would be published (`npm pack` of dist/engine, dist/api and
- * dist/counterpoise), installs the tarballs into a fresh app as a dealer would, and builds that app with
- * the Angular CLI. Angular itself and the build tools are linked from this workspace's node_modules, so
- * the test needs no network and no second install of Angular.
+ * Packs @counterpoise/ng as it would be published (`npm pack` of dist/counterpoise), installs that one
+ * tarball into a fresh app as a dealer would, with every registry unreachable (dealer-install.ts), and
+ * builds the app with the Angular CLI: the engine and the API schemas must come inside the tarball.
  */
-
-const ROOT = fileURLToPath(new URL('../..', import.meta.url));
-const DIST = join(ROOT, 'dist');
-const PACKAGES = ['engine', 'api', 'counterpoise'] as const;
-
-interface PackResult {
-  readonly name: string;
-  readonly filename: string;
-  readonly files: readonly { readonly path: string }[];
-}
 
 let work: string;
 let app: string;
-const packed = new Map<string, PackResult>();
+let packed: PackResult;
 let entries: ConsumedEntry[] = [];
 let build: { status: number | null; output: string };
 
-const npm = (args: string[], cwd: string) =>
-  execFileSync('npm', args, {
-    cwd,
-    encoding: 'utf8',
-    env: { ...process.env, npm_config_update_notifier: 'false', npm_config_fund: 'false' },
-  });
-
-/** Links every package of the workspace the app has not installed itself: Angular, rxjs, the CLI. */
-function linkWorkspacePackages(target: string): void {
-  const source = join(ROOT, 'node_modules');
-  for (const name of readdirSync(source)) {
-    if (name.startsWith('.') || name === '@counterpoise') continue;
-    const scoped = name.startsWith('@');
-    for (const pkg of scoped ? readdirSync(join(source, name)) : [name]) {
-      const id = scoped ? `${name}/${pkg}` : pkg;
-      const destination = join(target, id);
-      if (existsSync(destination)) continue;
-      mkdirSync(dirname(destination), { recursive: true });
-      symlinkSync(join(source, id), destination, lstatSync(join(source, id)).isDirectory() ? 'dir' : 'file');
-    }
-  }
-}
-
 beforeAll(() => {
-  for (const name of PACKAGES) {
-    if (!existsSync(join(DIST, name, 'package.json'))) {
-      throw new Error(`dist/${name} is not built: run \`npm run build:lib\` first.`);
-    }
-  }
   work = mkdtempSync(join(tmpdir(), 'counterpoise-pack-'));
-  const report = JSON.parse(
-    npm(['pack', '--json', '--pack-destination', work, ...PACKAGES.map((name) => join(DIST, name))], ROOT),
-  ) as PackResult[];
-  for (const result of report) packed.set(result.name, result);
-
-  const library = JSON.parse(readFileSync(join(DIST, 'counterpoise', 'package.json'), 'utf8'));
+  packed = packLibrary(work);
+  const library = JSON.parse(readFileSync(join(LIBRARY_DIST, 'package.json'), 'utf8'));
   entries = consumedEntries(library.exports);
 
   app = join(work, 'portal');
   mkdirSync(join(app, 'src'), { recursive: true });
-  const tarballs = Object.fromEntries(
-    [...packed.values()].map((result) => [result.name, `file:../${result.filename}`]),
-  );
-  writeFileSync(
-    join(app, 'package.json'),
-    JSON.stringify({ name: 'service-portal', private: true, dependencies: tarballs }, null, 2),
-  );
-  // Peers (Angular, rxjs) are the app's own business: they come linked from the workspace below.
-  npm(
-    [
-      'install',
-      '--prefer-offline',
-      '--legacy-peer-deps',
-      '--ignore-scripts',
-      '--no-audit',
-      '--no-package-lock',
-    ],
-    app,
-  );
-  linkWorkspacePackages(join(app, 'node_modules'));
+  installTarball(app, `../${packed.filename}`);
   for (const [path, text] of Object.entries(consumerAppFiles(entries))) {
     mkdirSync(dirname(join(app, path)), { recursive: true });
     writeFileSync(join(app, path), text);
   }
-
-  const run = spawnSync(
-    process.execPath,
-    [join(app, 'node_modules', '@angular', 'cli', 'bin', 'ng.js'), 'build'],
-    { cwd: app, encoding: 'utf8', env: { ...process.env, NG_CLI_ANALYTICS: 'false', NO_COLOR: '1' } },
-  );
-  build = { status: run.status, output: `${run.stdout}\n${run.stderr}` };
-});
+  build = ng(app, ['build']);
+}, 300_000);
 
 afterAll(() => {
   if (work) rmSync(work, { recursive: true, force: true });
 });
 
-describe('the packed packages', () => {
-  it('pack all three, each with its manifest, code and declarations', () => {
-    expect([...packed.keys()].sort()).toEqual([
-      '@counterpoise/api',
-      '@counterpoise/engine',
-      '@counterpoise/ng',
-    ]);
-    for (const name of ['@counterpoise/engine', '@counterpoise/api']) {
-      const files = packed.get(name)!.files.map((file) => file.path);
-      expect(files).toEqual(expect.arrayContaining(['package.json', 'index.js', 'index.d.ts']));
-    }
-  });
-
-  it('ship the library with a secondary entry, a harness entry and a theme mixin per widget', () => {
-    const files = packed.get('@counterpoise/ng')!.files.map((file) => file.path);
+describe('the packed package', () => {
+  it('is one tarball with the widgets, the engine, the API schemas, the license and the README', () => {
+    const files = packed.files.map((file) => file.path);
+    expect(packed.name).toBe('@counterpoise/ng');
     expect(files).toEqual(
       expect.arrayContaining([
         'package.json',
+        'LICENSE',
+        'README.md',
         'fesm2022/counterpoise-ng-core.mjs',
         'fesm2022/counterpoise-ng-core-testing.mjs',
+        'fesm2022/counterpoise-ng-engine.mjs',
+        'fesm2022/counterpoise-ng-api.mjs',
+        'types/counterpoise-ng-engine.d.ts',
+        'types/counterpoise-ng-api.d.ts',
         'core/_safety-notice-theme.scss',
       ]),
     );
-    // Every entry that renders something ships its theme mixins; the solver entry renders nothing.
+    // Every entry that renders something ships its theme mixins; the solver, engine and api render nothing.
     const rendering = entries
       .filter((entry) => entry.specifier.startsWith('@counterpoise/ng/'))
       .map((entry) => entry.specifier.slice('@counterpoise/ng/'.length))
-      .filter((folder) => folder !== 'solver');
+      .filter((folder) => !['solver', 'engine', 'api'].includes(folder));
     for (const folder of rendering) {
       const theme = files.find((path) => new RegExp(`^${folder}/_[\\w-]+-theme\\.scss$`).test(path));
       expect(theme, `${folder} ships no _<widget>-theme.scss`).toBeDefined();
     }
   });
 
-  it('declare the shared packages as dependencies and Angular as peers', () => {
-    const manifest = JSON.parse(readFileSync(join(DIST, 'counterpoise', 'package.json'), 'utf8'));
-    expect(Object.keys(manifest.dependencies)).toEqual(
-      expect.arrayContaining(['@counterpoise/api', '@counterpoise/engine']),
-    );
+  it('depends on no other @counterpoise package, names its license, and has Angular as peers', () => {
+    const manifest = JSON.parse(readFileSync(join(LIBRARY_DIST, 'package.json'), 'utf8'));
+    expect(Object.keys(manifest.dependencies).sort()).toEqual(['tslib', 'zod']);
     expect(Object.keys(manifest.peerDependencies)).toEqual(
       expect.arrayContaining(['@angular/core', '@angular/material']),
     );
-    const api = JSON.parse(readFileSync(join(DIST, 'api', 'package.json'), 'utf8'));
-    expect(Object.keys(api.dependencies)).toEqual(['@counterpoise/engine', 'zod']);
+    expect(manifest.license).toBe('MIT');
+    expect(readFileSync(join(LIBRARY_DIST, 'LICENSE'), 'utf8')).toMatch(
+      /^MIT License\n\nCopyright \(c\) \d{4} The Counterpoise authors\n/,
+    );
+    expect(Object.keys(manifest.exports)).toEqual(expect.arrayContaining(['./engine', './api']));
+  });
+
+  it('imports no package by a name only this workspace knows', () => {
+    const code = packed.files.map((file) => file.path).filter((path) => /\.(mjs|d\.ts)$/.test(path));
+    const offenders = code.filter((path) =>
+      /(?:from\s*|import\s*\(\s*|import\s+)['"]@counterpoise\/(?:engine|api)['"]/.test(
+        readFileSync(join(LIBRARY_DIST, path), 'utf8'),
+      ),
+    );
+    expect(offenders).toEqual([]);
   });
 });
 
-describe('a dealer app built against the tarballs', () => {
-  it('installs the three packages from their tarballs, not from the workspace', () => {
-    for (const name of ['engine', 'api', 'ng']) {
-      const installed = join(app, 'node_modules', '@counterpoise', name);
-      expect(lstatSync(installed).isSymbolicLink()).toBe(false);
-      expect(existsSync(join(installed, 'package.json'))).toBe(true);
-    }
+describe('a dealer app built against the tarball', () => {
+  it('installs @counterpoise/ng from its tarball, with no registry to reach, and nothing else of ours', () => {
+    const scope = join(app, 'node_modules', '@counterpoise');
+    expect(readdirSync(scope)).toEqual(['ng']);
+    expect(lstatSync(join(scope, 'ng')).isSymbolicLink()).toBe(false);
+    expect(JSON.parse(readFileSync(join(scope, 'ng', 'package.json'), 'utf8')).version).toBe(
+      JSON.parse(readFileSync(join(LIBRARY_DIST, 'package.json'), 'utf8')).version,
+    );
   });
 
   it('imports every public entry point and builds with the Angular CLI', () => {
     expect(entries.map((entry) => entry.specifier)).toEqual(
-      expect.arrayContaining(['@counterpoise/ng', '@counterpoise/ng/core']),
+      expect.arrayContaining([
+        '@counterpoise/ng',
+        '@counterpoise/ng/core',
+        '@counterpoise/ng/engine',
+        '@counterpoise/ng/api',
+      ]),
     );
     expect(build.output).not.toMatch(/\[ERROR\]/);
     expect(build.status, build.output).toBe(0);

@@ -8,7 +8,7 @@
  *   node --import tsx tests/packaging/public-surface.ts [--root D]
  *                                               prints the surface of this (or another) checkout
  */
-import { readdirSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, join, relative, resolve, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import ts from 'typescript';
@@ -28,6 +28,27 @@ function entryFiles(libraryDir: string): string[] {
   };
   walk(libraryDir);
   return found.sort();
+}
+
+/**
+ * The entry points whose sources live outside the library (their ng-package.json names an entry file in
+ * shared/): `@counterpoise/ng/engine` and `@counterpoise/ng/api`. Their names are those of the shared
+ * packages, reviewed where they change; the surface lists each such entry and the file it ships.
+ */
+function sharedEntries(libraryDir: string, root: string): string[] {
+  const lines: string[] = [];
+  for (const name of readdirSync(libraryDir).sort()) {
+    const config = join(libraryDir, name, 'ng-package.json');
+    if (!existsSync(config)) continue;
+    const entryFile = (JSON.parse(readFileSync(config, 'utf8')) as { lib?: { entryFile?: string } }).lib
+      ?.entryFile;
+    if (!entryFile) continue;
+    const target = relative(root, resolve(libraryDir, name, entryFile))
+      .split(sep)
+      .join('/');
+    if (!target.startsWith('projects/')) lines.push(`@counterpoise/ng/${name}  entry ${target}`);
+  }
+  return lines;
 }
 
 /** What kind of thing a declaration is, in the words of the TypeScript source. */
@@ -63,7 +84,7 @@ export function publicSurface(root = repoRoot): string[] {
       lines.push(`${entry}  ${kindOf(target.declarations?.[0])} ${exported.name}`);
     }
   }
-  return lines.sort();
+  return [...lines, ...sharedEntries(libraryDir, root)].sort();
 }
 
 const isMain = process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url);
