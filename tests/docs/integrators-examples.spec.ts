@@ -6,14 +6,23 @@
  * The server is the real app (createApp) on a temporary database and a loopback port, with one
  * organisation and its owner signed in. Each page gets a key of its own, so that what one page's
  * examples count does not depend on another's. curl blocks run through /bin/sh with the real curl; the
- * TypeScript blocks are type-checked (tsc, strict) and run (types stripped by esbuild) in a folder where @counterpoise/client
- * is installed from its packed tarball with no registry reachable: the packaging check of the client.
+ * TypeScript blocks are type-checked (tsc, strict) and run (their types stripped by esbuild) in a folder
+ * where @counterpoise/client is installed from its packed tarball with no registry reachable: the
+ * packaging check of the client.
  *
  * The client is built afresh into a temporary folder (scripts/build-client.mjs), unless
  * COUNTERPOISE_CLIENT_DIR names a built one (dist/client after `npm run build:client`).
  */
 import { execFile, spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import {
+  existsSync,
+  mkdirSync,
+  mkdtempSync,
+  readdirSync,
+  readFileSync,
+  rmSync,
+  writeFileSync,
+} from 'node:fs';
 import type { Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { join } from 'node:path';
@@ -100,6 +109,10 @@ function installClient(): { app: string; typeErrors: Map<string, string[]> } {
     JSON.stringify({ name: 'integrators-examples', private: true, type: 'module' }),
   );
   runOrThrow('npm', ['install', join(work, tarball), '--no-save', '--ignore-scripts'], app, offline);
+  // The programs must find the client the tarball installed, not some other copy up the tree.
+  const installed = join(app, 'node_modules', '@counterpoise', 'client', 'node_modules', 'openapi-fetch');
+  if (!existsSync(join(installed, 'package.json')))
+    throw new Error(`The tarball did not install ${installed}.`);
 
   const programs = pages.flatMap((page) => page.examples.filter((example) => example.kind === 'ts'));
   for (const program of programs) {
