@@ -5,7 +5,9 @@
 // 2. The samples the pages link to (docs/samples/*.csv), copied beside the pages.
 // 3. The widget catalogue: the static Storybook (`ng run counterpoise:build-storybook`) in `widgets/`,
 //    every story with its controls and accessibility panel. Its docgen server gives each component two
-//    minutes, which a machine far above its two cores' load can exceed: a failed build is tried once more.
+//    minutes, which a machine far above its two cores' load can exceed: a failed build is tried once more,
+//    then a third time without the docgen server (STORYBOOK_DOCGEN=off, .storybook/main.ts): the stories,
+//    controls and accessibility panel are all there, the docs pages' props tables are not.
 //    `--no-widgets` leaves it out (a quicker build while writing pages).
 // 4. `content-security.json`: the SHA-256 hash of every inline script of the built pages (VitePress's
 //    colour-scheme check, Storybook's set-up), which the server's Content-Security-Policy for /docs
@@ -27,14 +29,19 @@ const withWidgets = !args.includes('--no-widgets');
 const env = { ...process.env, NG_CLI_ANALYTICS: 'false', STORYBOOK_DISABLE_TELEMETRY: 'true' };
 
 const timings = [];
-/** Runs a step's command; exits with its code when it fails (after `tries` attempts). */
-function step(name, command, commandArgs, { tries = 1, extraEnv = {} } = {}) {
+/**
+ * Runs a step's command, once per entry of `attempts` (extra environment of each) until one succeeds;
+ * exits with the last code when none does.
+ */
+function step(name, command, commandArgs, attempts = [{}]) {
   const started = Date.now();
-  for (let attempt = 1; attempt <= tries; attempt++) {
-    console.log(`\n▶ ${name}${attempt > 1 ? ` (attempt ${attempt} of ${tries})` : ''}`);
+  for (const [index, attempt] of attempts.entries()) {
+    const note = attempts.length > 1 ? ` (attempt ${index + 1} of ${attempts.length})` : '';
+    console.log(`\n▶ ${name}${note}`);
+    if (attempt.note) console.warn(attempt.note);
     const run = spawnSync(command, commandArgs, {
       cwd: root,
-      env: { ...env, ...extraEnv },
+      env: { ...env, ...attempt.env },
       stdio: 'inherit',
     });
     if (run.status === 0) {
@@ -53,9 +60,7 @@ step(
   'Pages (VitePress)',
   process.execPath,
   [join(root, 'node_modules/vitepress/bin/vitepress.js'), 'build', 'docs'],
-  {
-    extraEnv: { DOCS_OUT_DIR: outDir },
-  },
+  [{ env: { DOCS_OUT_DIR: outDir } }],
 );
 
 cpSync(join(root, 'docs/samples'), join(outDir, 'samples'), { recursive: true });
@@ -72,7 +77,16 @@ if (withWidgets) {
       join(outDir, 'widgets'),
       '--quiet',
     ],
-    { tries: 2 },
+    [
+      {},
+      {},
+      {
+        env: { STORYBOOK_DOCGEN: 'off' },
+        note:
+          'The docgen server timed out twice: building the catalogue without it (no props tables on the ' +
+          "docs pages; the controls come from the stories' args).",
+      },
+    ],
   );
 }
 

@@ -122,10 +122,10 @@ export default defineConfig({
     search: { provider: 'local' },
     nav: [
       { text: 'Field guide', link: '/field-guide/', activeMatch: '^/field-guide/' },
-      { text: 'Dealer developers', link: '/dealers/', activeMatch: '^/dealers/' },
+      { text: 'Dealers', link: '/dealers/', activeMatch: '^/dealers/' },
       { text: 'Integrators', link: '/integrators/', activeMatch: '^/integrators/' },
       { text: 'Methods', link: '/methods' },
-      { text: 'Widget catalogue', link: '/widgets/index.html', target: '_self' },
+      { text: 'Widgets', link: '/widgets/index.html', target: '_self' },
     ].filter(({ link }) => link.startsWith('/widgets/') || existsSync(`${docsRoot}${pageFile(link)}`)),
     sidebar,
     outline: { level: [2, 3] },
