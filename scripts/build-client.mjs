@@ -88,7 +88,7 @@ rmSync(outDir, { recursive: true, force: true });
 mkdirSync(outDir, { recursive: true });
 cpSync(stagedOut, outDir, { recursive: true });
 cpSync(join(staging, 'src', 'openapi.d.ts'), join(outDir, 'openapi.d.ts'));
-writeFileSync(join(outDir, 'openapi.json'), documentText);
+writeFileSync(join(outDir, 'openapi.json'), JSON.stringify(document));
 for (const file of ['README.md', 'LICENSE']) cpSync(join(source, file), join(outDir, file));
 
 const rootPackage = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8'));
