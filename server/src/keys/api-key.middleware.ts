@@ -129,8 +129,8 @@ function originRefusal(
   );
 }
 
-/** The path of a request without its query. */
-const pathOf = (req: Request) => req.originalUrl.split('?')[0]!;
+/** The path of a request without its query, in lower case: Express matches routes regardless of case. */
+const pathOf = (req: Request) => req.originalUrl.split('?')[0]!.toLowerCase();
 
 /**
  * Lets through only requests with a valid, unrevoked API key, and leaves the key on
@@ -220,7 +220,8 @@ export function requireApiKey(keys: ApiKeyService, options: KeyCheckOptions = {}
         );
       }
       const path = pathOf(req);
-      if (scope === undefined || (path !== scope && !path.startsWith(`${scope}/`))) {
+      const base = scope?.toLowerCase();
+      if (base === undefined || (path !== base && !path.startsWith(`${base}/`))) {
         throw forbidden(
           `A visitor token may call the calculation routes (${scope ?? 'none here'}/…) only; ${req.method} ` +
             `${path} needs the API key itself.`,

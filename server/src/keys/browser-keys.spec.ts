@@ -310,6 +310,13 @@ describe('visitor tokens', () => {
     const { token } = (await exchange(key).expect(201)).body;
     const usage = await request(app).get('/api/v1/usage').set('Authorization', `Bearer ${token}`).expect(403);
     expect(usage.body.code).toBe('TOKEN_SCOPE');
+    // Express matches paths regardless of case, and so does the token's scope.
+    await request(app).get('/API/V1/Usage').set('Authorization', `Bearer ${token}`).expect(403);
+    await request(app)
+      .post('/API/v1/CALC/radius')
+      .set('Authorization', `Bearer ${token}`)
+      .send(RADIUS)
+      .expect(200);
     const again = await request(app).post('/api/v1/tokens').set('Authorization', `Bearer ${token}`).send({});
     expect(again.status).toBe(403);
     expect(again.body.code).toBe('TOKEN_SCOPE');
