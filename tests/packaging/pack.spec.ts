@@ -1,8 +1,16 @@
 import { lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import type { Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { type ConsumedEntry, consumedEntries, consumerAppFiles } from './consumer-app';
+import type * as PackagedApi from '@counterpoise/api';
+import { createApp } from '../../server/src/app';
+import { createTestKey } from '../../server/src/keys/testing/test-keys';
+import { openTemporaryDatabase } from '../../server/src/testing/temporary-database';
+import { UsageLog } from '../../server/src/usage/usage-log';
 import { installTarball, LIBRARY_DIST, ng, packLibrary, type PackResult } from './dealer-install';
 
 /*
@@ -129,5 +137,43 @@ describe('a dealer app built against the tarball', () => {
     expect(text(later)).toContain('Invalid input');
     const styles = readFileSync(join(browser, 'styles.css'), 'utf8');
     expect(styles).toMatch(/--cp-safety-notice-accent-color:\s*#7a3e00/);
+  });
+});
+
+describe('the two engines, from the installed package', () => {
+  it('the engine inside the tarball answers every calculator route as the server does', async () => {
+    // The API entry as the dealer's install has it: its own bundle, importing the engine entry and zod.
+    const entry = join(app, 'node_modules', '@counterpoise', 'ng', 'fesm2022', 'counterpoise-ng-api.mjs');
+    const local = (await import(pathToFileURL(entry).href)) as typeof PackagedApi;
+
+    const temporary = openTemporaryDatabase();
+    const usageLog = new UsageLog(temporary.database);
+    const server = await new Promise<Server>((resolve) => {
+      const listening = createApp({ database: temporary.database, usageLog }).listen(0, '127.0.0.1', () =>
+        resolve(listening),
+      );
+    });
+    try {
+      const { key } = createTestKey(temporary.database, { name: 'Packaging check' });
+      const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+      expect(local.CALC_ROUTE_NAMES.length).toBeGreaterThan(3);
+      for (const route of local.CALC_ROUTE_NAMES) {
+        const request = local.CALC_ROUTES[route].example;
+        const outcome = local.calculate(route, request);
+        expect(outcome.status, route).toBe(200);
+        const answer = await fetch(`${url}/api/v1/calc/${route}`, {
+          method: 'POST',
+          headers: { 'content-type': 'application/json', 'x-api-key': key },
+          body: JSON.stringify(request),
+        });
+        expect(answer.status, route).toBe(200);
+        expect(await answer.json(), route).toEqual(outcome.status === 200 ? outcome.result : null);
+      }
+    } finally {
+      server.closeAllConnections();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      usageLog.close();
+      temporary.dispose();
+    }
   });
 });
