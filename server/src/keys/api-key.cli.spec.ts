@@ -76,9 +76,9 @@ describe('npm run api-key', { timeout: 60_000 }, () => {
     const listed = apiKey('list');
     expect(listed.status).toBe(0);
     const lines = listed.stdout.trimEnd().split('\n');
-    expect(lines[0]).toMatch(/^id\s+name\s+prefix\s+limit\/min\s+created\s+last used\s+state$/);
-    expect(lines[1]).toMatch(new RegExp(`^1\\s+First\\s+${first.slice(0, 12)}….*revoked 20`));
-    expect(lines[2]).toMatch(new RegExp(`^2\\s+Second\\s+${second.slice(0, 12)}….*never\\s+active$`));
+    expect(lines[0]).toMatch(/^id\s+name\s+prefix\s+limit\/min\s+created\s+last used\s+state\s+origins$/);
+    expect(lines[1]).toMatch(new RegExp(`^1\\s+First\\s+${first.slice(0, 12)}….*revoked 20.*\\s+any$`));
+    expect(lines[2]).toMatch(new RegExp(`^2\\s+Second\\s+${second.slice(0, 12)}….*never\\s+active\\s+any$`));
     expect(listed.stdout).not.toContain(first);
     expect(listed.stdout).not.toContain(second);
   });

@@ -36,6 +36,8 @@ describe('runApiKeyCommand', () => {
     [['create', '--name', 'x', '--limit', 'many'], /--limit: /],
     [['create', '--name', 'x', '--limit', '1000001'], /--limit: The limit is at most 1000000/],
     [['create', '--name', 'x', '--colour', 'red'], /Unknown option '--colour'/],
+    [['create', '--name', 'x', '--origin', 'http://portal.example.com'], /--origin: .*use https:/],
+    [['create', '--name', 'x', '--origin', 'https://a.example.com/shop'], /--origin: .*has a path/],
     [['list', 'extra'], /Unexpected argument 'extra'/],
     [['revoke'], /Name the id of one key/],
     [['revoke', 'abc'], /Name the id of one key/],
@@ -85,6 +87,31 @@ describe('runApiKeyCommand', () => {
       expect(line).not.toMatch(HIDDEN_CHARACTERS);
     }
     expect(run('rot\u202Eate').err).toContain('Unknown command "rot\\u202Eate"');
+  });
+
+  it('limits a key to the web origins given, normalised, and lists them', () => {
+    const result = run(
+      'create',
+      '--name',
+      'Portal pages',
+      '--limit',
+      '60',
+      '--origin',
+      'https://Portal.example.com/',
+      '--origin',
+      'http://localhost:4200',
+    );
+    expect(result.status).toBe(EXIT.ok);
+    expect(result.out).toContain('from https://portal.example.com, http://localhost:4200 only.');
+    const key = result.out.split('\n').at(-1)!;
+    expect(keys.check(key)).toMatchObject({
+      allowedOrigins: ['https://portal.example.com', 'http://localhost:4200'],
+    });
+    run('create', '--name', 'Back office');
+    const listed = run('list').out.split('\n');
+    expect(listed[0]).toMatch(/state +origins$/);
+    expect(listed[1]).toMatch(/active +https:\/\/portal\.example\.com http:\/\/localhost:4200$/);
+    expect(listed[2]).toMatch(/active +any$/);
   });
 
   it('prints its usage on help', () => {

@@ -20,9 +20,10 @@ export const EXIT = { ok: 0, failed: 1, usage: 2 } as const;
 export const API_KEY_USAGE = [
   'Usage: npm run api-key -- <command>',
   '',
-  '  create --name NAME [--limit PER_MINUTE] [--org ORGANISATION]',
+  '  create --name NAME [--limit PER_MINUTE] [--org ORGANISATION] [--origin ORIGIN]...',
   '                                           create a key and print it on the last line (shown only once);',
-  '                                           --org is required once organisations exist',
+  '                                           --org is required once organisations exist; each --origin',
+  '                                           limits the key to the pages of that web origin (https://…)',
   '  list                                     list every key, without secrets',
   '  revoke ID                                revoke a key; requests with it are refused from then on',
   '',
@@ -93,7 +94,12 @@ function create(
 ): number {
   const { values } = parse(
     args,
-    { name: { type: 'string' }, limit: { type: 'string' }, org: { type: 'string' } },
+    {
+      name: { type: 'string' },
+      limit: { type: 'string' },
+      org: { type: 'string' },
+      origin: { type: 'string', multiple: true },
+    },
     false,
   );
   const orgName = values['org']?.trim();
@@ -110,24 +116,32 @@ function create(
     throw new UsageError('--org: Name the organisation the key belongs to.');
   }
   const limit = values['limit'];
+  const origins = values['origin'];
   const parsed = CreateApiKeySchema.safeParse({
     name: values['name'] ?? '',
     ...(limit === undefined ? {} : { limitPerMinute: /^\d+$/.test(limit) ? Number(limit) : Number.NaN }),
+    ...(origins === undefined ? {} : { allowedOrigins: origins }),
   });
   if (!parsed.success) {
+    const option = { limitPerMinute: 'limit', allowedOrigins: 'origin' } as Record<string, string>;
     const messages = parsed.error.issues.map(
-      (issue) => `--${issue.path[0] === 'limitPerMinute' ? 'limit' : 'name'}: ${issue.message}`,
+      (issue) => `--${option[String(issue.path[0])] ?? 'name'}: ${shown(issue.message)}`,
     );
     throw new UsageError(messages.join('\n'));
   }
   const { key, record } = keys.create(
-    { name: parsed.data.name, limitPerMinute: parsed.data.limitPerMinute ?? defaultLimitPerMinute },
+    {
+      name: parsed.data.name,
+      limitPerMinute: parsed.data.limitPerMinute ?? defaultLimitPerMinute,
+      allowedOrigins: parsed.data.allowedOrigins ?? [],
+    },
     now,
     organisation?.id ?? null,
   );
   output.out(
     `Created API key ${record.id} "${shown(record.name)}" (${record.prefix}…), ` +
-      `${record.limitPerMinute} calculations a minute${organisation ? `, for ${shown(organisation.name)}` : ''}.`,
+      `${record.limitPerMinute} calculations a minute${organisation ? `, for ${shown(organisation.name)}` : ''}` +
+      (record.allowedOrigins.length > 0 ? `, from ${record.allowedOrigins.join(', ')} only.` : '.'),
   );
   output.out('Keep it now: it is shown only this once, and only its hash is stored.');
   output.out(key);
@@ -142,7 +156,7 @@ function list(args: string[], keys: ApiKeyService, output: CommandOutput): numbe
     return EXIT.ok;
   }
   const rows = [
-    ['id', 'name', 'prefix', 'limit/min', 'created', 'last used', 'state'],
+    ['id', 'name', 'prefix', 'limit/min', 'created', 'last used', 'state', 'origins'],
     ...records.map((record) => [
       String(record.id),
       shown(record.name),
@@ -151,6 +165,7 @@ function list(args: string[], keys: ApiKeyService, output: CommandOutput): numbe
       record.createdAt.toISOString(),
       record.lastUsedAt?.toISOString() ?? 'never',
       stateOf(record),
+      record.allowedOrigins.length > 0 ? record.allowedOrigins.join(' ') : 'any',
     ]),
   ];
   const widths = rows[0]!.map((_, column) => Math.max(...rows.map((row) => row[column]!.length)));
@@ -188,14 +203,20 @@ function stateOf(record: ApiKeyRecord): string {
   return record.revokedAt ? `revoked ${record.revokedAt.toISOString()}` : 'active';
 }
 
-function parse(
+function parse<O extends Record<string, { type: 'string'; multiple?: boolean }>>(
   args: string[],
-  options: Record<string, { type: 'string' }>,
+  options: O,
   allowPositionals: boolean,
-): { values: Record<string, string | undefined>; positionals: string[] } {
+): {
+  values: { [K in keyof O]?: O[K]['multiple'] extends true ? string[] : string };
+  positionals: string[];
+} {
   try {
     const { values, positionals } = parseArgs({ args, options, allowPositionals, strict: true });
-    return { values: values as Record<string, string | undefined>, positionals };
+    return {
+      values: values as { [K in keyof O]?: O[K]['multiple'] extends true ? string[] : string },
+      positionals,
+    };
   } catch (error) {
     throw new UsageError(shown(error instanceof Error ? error.message : String(error)));
   }
