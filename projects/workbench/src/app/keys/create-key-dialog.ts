@@ -30,6 +30,7 @@ import type { CreatedApiKey } from '../auth/api-types';
 import { errorMessage, requiredWith, schemaError, schemaValidator } from '../shell/validators';
 import { type CreateApiKeyRequest, KeysApi } from './keys.api';
 import { ErrorBanner } from '../forms/error-banner';
+import { MAX_ORIGINS, originsFromText, validOrigins } from './web-origins';
 import { BusyButton } from '../forms/busy-button';
 import { FormRequest } from '../forms/form-request';
 
@@ -68,20 +69,24 @@ export class CreateKeyDialog {
     ],
     // Empty means the server's default limit; the field holds text so that a half-typed number is kept.
     limitPerMinute: ['', validLimit],
+    allowedOrigins: ['', validOrigins],
   });
   protected readonly request = new FormRequest();
   /** The new key, present from the server's answer until the dialog closes. */
   protected readonly created = signal<CreatedApiKey | null>(null);
   protected readonly copied = signal<'yes' | 'failed' | null>(null);
   protected readonly maxLimit = MAX_LIMIT_PER_MINUTE;
+  protected readonly maxOrigins = MAX_ORIGINS;
   protected readonly errorMessage = errorMessage;
 
   protected submit(): void {
-    const { name, limitPerMinute } = this.form.getRawValue();
+    const { name, limitPerMinute, allowedOrigins } = this.form.getRawValue();
     const limit = limitPerMinute.trim();
+    const origins = originsFromText(allowedOrigins);
     const request: CreateApiKeyRequest = {
       name: name.trim(),
       ...(limit ? { limitPerMinute: Number(limit) } : {}),
+      ...(origins.length > 0 ? { allowedOrigins: origins } : {}),
     };
     this.request.send(this.form, () => this.api.create(request), {
       sent: (created) => {

@@ -3,9 +3,11 @@ import { Clipboard } from '@angular/cdk/clipboard';
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import type { HarnessLoader } from '@angular/cdk/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { TestBed } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import { provideRouter } from '@angular/router';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
@@ -18,7 +20,9 @@ import { AuthSession } from '../auth/auth-session';
 import { aSession } from '../auth/testing';
 import { KeysPage } from './keys-page';
 import { KEYS_URLS } from './keys.api';
-import { renderAnswered, settle } from '../shell/testing';
+import { settle } from '../shell/testing';
+import { nextRequest } from '../records/testing';
+import { emptyUsage } from './keys-testing';
 
 const PORTAL: ApiKeySummary = {
   id: 1,
@@ -28,7 +32,7 @@ const PORTAL: ApiKeySummary = {
   createdAt: '2026-05-04T08:00:00.000Z',
   lastUsedAt: '2026-05-04T09:12:30.250Z',
   revokedAt: null,
-  allowedOrigins: [],
+  allowedOrigins: ['https://portal.ridgeline-rotor.test'],
 };
 const LOGGER: ApiKeySummary = {
   id: 2,
@@ -68,6 +72,7 @@ describe('KeysPage', { timeout: 20_000 }, () => {
       providers: [
         provideHttpClient(),
         provideHttpClientTesting(),
+        provideRouter([]),
         { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
         {
           provide: BreakpointObserver,
@@ -87,8 +92,22 @@ describe('KeysPage', { timeout: 20_000 }, () => {
 
   afterEach(() => http.verify());
 
+  /** The page with its list answered, and its usage (the last 30 days by day) answered empty. */
   async function render(list: ApiKeyList = LIST) {
-    return renderAnswered(KeysPage, http, KEYS_URLS.list, list);
+    const fixture = TestBed.createComponent(KeysPage);
+    fixture.detectChanges();
+    http.expectOne(KEYS_URLS.list).flush(list);
+    // The usage is asked for once the keys are there.
+    fixture.detectChanges();
+    const usage = await nextRequest(http, (request) => request.url === KEYS_URLS.usage);
+    usage.flush(emptyUsage(usage.request.params.get('from')!, usage.request.params.get('to')!));
+    await fixture.whenStable();
+    return {
+      fixture,
+      element: fixture.nativeElement as HTMLElement,
+      loader: TestbedHarnessEnvironment.loader(fixture),
+      overlays: TestbedHarnessEnvironment.documentRootLoader(fixture),
+    };
   }
 
   function buttonByText(text: string): HTMLButtonElement | undefined {
@@ -113,11 +132,15 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     const { loader } = await render();
     const table = await loader.getHarness(MatTableHarness);
     const cells = await table.getCellTextByColumnName();
-    expect(cells['name']?.text).toEqual(['Test bench logger', 'Dealer portal', 'Old spreadsheet']);
+    expect(cells['name']?.text).toEqual([
+      'Test bench logger From any origin',
+      'Dealer portal Only from https://portal.ridgeline-rotor.test',
+      'Old spreadsheet From any origin',
+    ]);
     expect(cells['prefix']?.text).toEqual(['cpk_bG9nZ2Vy…', 'cpk_Q2xvY2s5…', 'cpk_b2xkc2hl…']);
     expect(cells['lastUsedAt']?.text[0]).toBe('Never');
     expect(cells['limitPerMinute']?.text).toEqual(['60/min', '600/min', '60/min']);
-    expect(cells['actions']?.text).toEqual(['Revoke', 'Revoke', 'Revoked 2 Feb 2026']);
+    expect(cells['actions']?.text).toEqual(['Origins  Revoke', 'Origins  Revoke', 'Revoked 2 Feb 2026']);
   });
 
   it('stacks the details of each key on a phone', async () => {
@@ -126,6 +149,7 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     const cells = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
     expect(cells['summary']?.text[0]).toContain('Dealer portal');
     expect(cells['summary']?.text[0]).toContain('600 calculations a minute');
+    expect(cells['summary']?.text[0]).toMatch(/Web origins\s*https:\/\/portal\.ridgeline-rotor\.test/);
   });
 
   it('says when there are no keys yet', async () => {
@@ -250,5 +274,76 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     expect((fixture.nativeElement as HTMLElement).querySelector('[role=alert]')?.textContent).toContain(
       'Your role does not allow this.',
     );
+  });
+
+  it('creates a key limited to web origins, checking each with the contract’s rule', async () => {
+    const { loader, overlays, fixture } = await render();
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Create a key/ }))).click();
+    const dialog = await overlays.getHarness(MatDialogHarness);
+    await (
+      await dialog.getHarness(MatInputHarness.with({ selector: '[formControlName=name]' }))
+    ).setValue('Dealer portal page');
+    const origins = await dialog.getHarness(
+      MatInputHarness.with({ selector: '[formControlName=allowedOrigins]' }),
+    );
+    await origins.setValue('http://portal.ridgeline-rotor.test');
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Create the key' }))).click();
+    const field = await dialog.getHarness(
+      MatFormFieldHarness.with({ floatingLabelText: /Allowed web origins/ }),
+    );
+    expect((await field.getTextErrors())[0]).toMatch(/uses http:.*use https:/);
+    http.expectNone(KEYS_URLS.list);
+
+    await origins.setValue('https://portal.ridgeline-rotor.test/\nhttp://localhost:4200');
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Create the key' }))).click();
+    const request = http.expectOne(KEYS_URLS.list);
+    expect(request.request.body).toEqual({
+      name: 'Dealer portal page',
+      allowedOrigins: ['https://portal.ridgeline-rotor.test/', 'http://localhost:4200'],
+    });
+    request.flush(
+      {
+        key: WHOLE_KEY,
+        summary: {
+          ...LOGGER,
+          id: 5,
+          allowedOrigins: ['https://portal.ridgeline-rotor.test', 'http://localhost:4200'],
+        },
+      } satisfies CreatedApiKey,
+      { status: 201, statusText: 'Created' },
+    );
+    await fixture.whenStable();
+    expect(await dialog.getTitleText()).toBe('Your new key');
+    // Clicked without a harness, which would wait for the list's reload it starts.
+    buttonByText('I have kept the key')!.click();
+    await settle(fixture);
+    http.expectOne(KEYS_URLS.list).flush(LIST);
+  });
+
+  it('changes a key’s web origins, the whole list at once', async () => {
+    const { loader, overlays, fixture } = await render();
+    await (
+      await loader.getHarness(
+        MatButtonHarness.with({ selector: '[aria-label="Change the web origins of the key Dealer portal"]' }),
+      )
+    ).click();
+    const dialog = await overlays.getHarness(MatDialogHarness);
+    expect(await dialog.getTitleText()).toBe('Web origins of “Dealer portal”');
+    const origins = await dialog.getHarness(MatInputHarness);
+    expect(await origins.getValue()).toBe('https://portal.ridgeline-rotor.test');
+    await origins.setValue('https://portal.ridgeline-rotor.test\nhttps://staging.ridgeline-rotor.test');
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Save the origins' }))).click();
+    const request = http.expectOne(KEYS_URLS.origins(1));
+    expect(request.request.method).toBe('PUT');
+    expect(request.request.body).toEqual({
+      allowedOrigins: ['https://portal.ridgeline-rotor.test', 'https://staging.ridgeline-rotor.test'],
+    });
+    const changed = { ...PORTAL, allowedOrigins: request.request.body.allowedOrigins };
+    request.flush(changed);
+    await settle(fixture);
+    http.expectOne(KEYS_URLS.list).flush({ keys: [changed, LOGGER] });
+    await fixture.whenStable();
+    const cells = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
+    expect(cells['name']?.text[1]).toContain('https://staging.ridgeline-rotor.test');
   });
 });

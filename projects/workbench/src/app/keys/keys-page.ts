@@ -25,17 +25,23 @@ import { askToConfirm } from '../shell/confirm-dialog';
 import { httpErrorMessage } from '../shell/server-errors';
 import { API_REFERENCE_URL } from '../status/health.api';
 import { CreateKeyDialog } from './create-key-dialog';
+import { EditOriginsDialog } from './edit-origins-dialog';
 import { KeysApi } from './keys.api';
 import { ListPage, resourceSource } from '../shell/list-page';
+import { KeyUsage } from './key-usage';
+import { QuickStart } from './quick-start';
 
 /**
- * The organisation's API keys: creating one (shown once, with a copy button), what each is called, how it
- * starts, when it was created and last used, its limit, and revoking it after a confirmation.
+ * The developer portal: the organisation's API keys (creating one, shown once with a copy button; what each
+ * is called, how it starts, when it was created and last used, its limit; revoking it after a
+ * confirmation), a quick start with a ready command for a key, and what the keys were used for.
  */
 @Component({
   selector: 'app-keys-page',
   imports: [
+    KeyUsage,
     ListPage,
+    QuickStart,
     DatePipe,
     MatButtonModule,
     MatIconModule,
@@ -86,6 +92,25 @@ export class KeysPage {
       .afterClosed()
       .pipe(filter((summary) => summary !== undefined))
       .subscribe(() => this.list.reload());
+  }
+
+  protected changeOrigins(key: ApiKeySummary): void {
+    this.dialog
+      .open<EditOriginsDialog, ApiKeySummary, ApiKeySummary>(EditOriginsDialog, {
+        data: key,
+        width: '34rem',
+        maxWidth: 'calc(100vw - 32px)',
+      })
+      .afterClosed()
+      .subscribe((changed) => {
+        if (changed !== undefined) {
+          this.snackBar.open(`The web origins of “${key.name}” are saved.`, 'Close', { duration: 6_000 });
+          this.list.reload();
+        }
+        afterNextRender(() => this.document.getElementById(`origins-${key.id}`)?.focus(), {
+          injector: this.injector,
+        });
+      });
   }
 
   protected revoke(key: ApiKeySummary): void {

@@ -1,9 +1,11 @@
 import { HttpClient, type HttpResourceRef, httpResource } from '@angular/common/http';
-import { Injectable, inject } from '@angular/core';
-import type { CreateApiKeySchema } from '@counterpoise/api';
+import { Injectable, inject, type Signal } from '@angular/core';
+import type { ApiKeySummary, CreateApiKeySchema } from '@counterpoise/api';
 import type { Observable } from 'rxjs';
 import type * as z from 'zod';
 import type { ApiKeyList, CreatedApiKey } from '../auth/api-types';
+import type { UsageReport } from './usage-model';
+import type { UsageQueryState } from './usage-query';
 
 /** `POST /api/v1/keys`: what the person asks for; a limit left out takes the server's default. */
 export type CreateApiKeyRequest = z.input<typeof CreateApiKeySchema>;
@@ -12,6 +14,8 @@ export type CreateApiKeyRequest = z.input<typeof CreateApiKeySchema>;
 export const KEYS_URLS = {
   list: '/api/v1/keys',
   key: (id: number) => `/api/v1/keys/${encodeURIComponent(id)}`,
+  origins: (id: number) => `/api/v1/keys/${encodeURIComponent(id)}/origins`,
+  usage: '/api/v1/usage',
 } as const;
 
 /**
@@ -30,9 +34,27 @@ export class KeysApi {
     return httpResource<ApiKeyList>(() => KEYS_URLS.list);
   }
 
+  /**
+   * The usage of the organisation's keys over the query's days (both included), asked again whenever
+   * the query changes; nothing is asked while `query` is undefined (a span not yet valid).
+   */
+  usageResource(query: Signal<UsageQueryState | undefined>): HttpResourceRef<UsageReport | undefined> {
+    return httpResource<UsageReport>(() => {
+      const state = query();
+      return state === undefined
+        ? undefined
+        : { url: KEYS_URLS.usage, params: { from: state.from, to: state.to, groupBy: state.groupBy } };
+    });
+  }
+
   /** Creates a key; the answer holds the whole key, the one time the server ever sends it. */
   create(request: CreateApiKeyRequest): Observable<CreatedApiKey> {
     return this.http.post<CreatedApiKey>(KEYS_URLS.list, request);
+  }
+
+  /** Replaces the web origins a key may be used from; an empty list lifts the limit. */
+  changeOrigins(id: number, allowedOrigins: readonly string[]): Observable<ApiKeySummary> {
+    return this.http.put<ApiKeySummary>(KEYS_URLS.origins(id), { allowedOrigins });
   }
 
   /** Revokes a key for good; software that uses it is refused from its next request. */
