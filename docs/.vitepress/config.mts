@@ -19,10 +19,10 @@ interface Page {
  * A sidebar group of the pages that exist: the doors are written by several people, and a page not
  * written yet is left out rather than linked to nothing (the build fails on a dead link in a page).
  */
-function group(text: string, pages: readonly Page[], collapsed = false): DefaultTheme.SidebarItem {
+function group(text: string, pages: readonly Page[]): DefaultTheme.SidebarItem {
+  // Not collapsible: the theme's collapsible group is a button holding another (axe: nested-interactive).
   return {
     text,
-    collapsed,
     items: pages
       .filter(({ page }) => existsSync(`${docsRoot}/${page}.md`))
       .map(({ text, page }) => ({ text, link: `/${page}` })),
@@ -66,21 +66,17 @@ const sidebar: DefaultTheme.SidebarItem[] = [
     { text: 'Balancing methods', page: 'methods' },
     { text: 'Benchmarks', page: 'benchmarks' },
   ]),
-  group(
-    'Reference',
-    [
-      { text: 'Balancing jobs', page: 'jobs' },
-      { text: 'Shop records', page: 'records' },
-      { text: 'Service reports', page: 'reports' },
-      { text: 'Photos', page: 'photos' },
-      { text: 'Readings from CSV', page: 'readings-csv' },
-      { text: 'Machine history', page: 'machine-history' },
-      { text: 'Offline work', page: 'offline' },
-      { text: 'Appearance', page: 'appearance' },
-      { text: 'The calculation API', page: 'api' },
-    ],
-    true,
-  ),
+  group('Reference', [
+    { text: 'Balancing jobs', page: 'jobs' },
+    { text: 'Shop records', page: 'records' },
+    { text: 'Service reports', page: 'reports' },
+    { text: 'Photos', page: 'photos' },
+    { text: 'Readings from CSV', page: 'readings-csv' },
+    { text: 'Machine history', page: 'machine-history' },
+    { text: 'Offline work', page: 'offline' },
+    { text: 'Appearance', page: 'appearance' },
+    { text: 'The calculation API', page: 'api' },
+  ]),
   group('Maintainers', [{ text: 'Contributor guide', page: 'maintainers' }]),
 ];
 
@@ -106,6 +102,8 @@ export default defineConfig({
   title: 'Counterpoise',
   description: 'Field balancing of rotating equipment: the workbench, the widgets and the calculation API.',
   lang: 'en',
+  // The workbench's icon (docs/public/favicon.svg is a copy of projects/workbench/public/favicon.svg).
+  head: [['link', { rel: 'icon', type: 'image/svg+xml', href: '/docs/favicon.svg' }]],
   base: '/docs/',
   srcExclude: ['examples/**', 'samples/**', '**/README.md'],
   outDir: process.env.DOCS_OUT_DIR ?? '../dist/docs/',
@@ -116,10 +114,14 @@ export default defineConfig({
   lastUpdated: false,
   // Addresses of a local server (`http://localhost:4300`) and of the pages beside the site on the same
   // server (the widget catalogue, Swagger UI) are not pages of this site; every other link must resolve.
-  ignoreDeadLinks: [/^https?:\/\/localhost[:/]/, /^\/widgets\//, /^\/api\//, /browser-keys/],
+  ignoreDeadLinks: [/^https?:\/\/localhost[:/]/, /^\/widgets\//, /^\/api\//],
   markdown: { config: contributorGuideLinks },
   themeConfig: {
-    search: { provider: 'local' },
+    search: {
+      provider: 'local',
+      // The button's name holds its visible text (axe's label-content-name-mismatch), shortcut included.
+      options: { translations: { button: { buttonText: 'Search', buttonAriaLabel: 'Search (Ctrl K)' } } },
+    },
     nav: [
       { text: 'Field guide', link: '/field-guide/', activeMatch: '^/field-guide/' },
       { text: 'Dealers', link: '/dealers/', activeMatch: '^/dealers/' },
