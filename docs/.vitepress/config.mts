@@ -117,11 +117,7 @@ export default defineConfig({
   ignoreDeadLinks: [/^https?:\/\/localhost[:/]/, /^\/widgets\//, /^\/api\//],
   markdown: { config: contributorGuideLinks },
   themeConfig: {
-    search: {
-      provider: 'local',
-      // The button's name holds its visible text (axe's label-content-name-mismatch), shortcut included.
-      options: { translations: { button: { buttonText: 'Search', buttonAriaLabel: 'Search (Ctrl K)' } } },
-    },
+    search: { provider: 'local' },
     nav: [
       { text: 'Field guide', link: '/field-guide/', activeMatch: '^/field-guide/' },
       { text: 'Dealers', link: '/dealers/', activeMatch: '^/dealers/' },
