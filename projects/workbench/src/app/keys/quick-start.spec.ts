@@ -30,10 +30,20 @@ describe('the quick start’s command', () => {
   });
 
   it('names the key by its prefix alone, in the API’s header', () => {
-    const line = curlLine('https://portal.example', 'cpk_Q2xvY2s5');
+    const line = curlLine('https://portal.example', PORTAL);
     expect(line).toContain(`-H '${API_KEY_HEADER}: cpk_Q2xvY2s5…'`);
     expect(line).toContain(`curl -X POST 'https://portal.example/api/v1/calc/single-plane'`);
     expect(line).toContain(JSON.stringify(CALC_ROUTES['single-plane'].example));
+    expect(line).not.toContain('Origin:');
+  });
+
+  it('sends the first web origin of a key limited to some, as its pages would', () => {
+    const line = curlLine('https://portal.example', {
+      ...PORTAL,
+      allowedOrigins: ['https://portal.ridgeline-rotor.test', 'http://localhost:4200'],
+    });
+    expect(line).toContain(`-H 'Origin: https://portal.ridgeline-rotor.test'`);
+    expect(line).not.toContain('localhost:4200');
   });
 });
 

@@ -36,13 +36,16 @@ export const TYPED_CLIENT_URL = '/docs/integrators/client.html';
 
 /**
  * A ready curl line for a key: a real calculator route with a real body, the key written as its prefix
- * and an ellipsis, since the whole key is shown once, at its creation, and never again.
+ * and an ellipsis, since the whole key is shown once, at its creation, and never again. A key limited to
+ * web origins answers only requests that name one, so its line sends the first, as its pages would.
  */
-export function curlLine(origin: string, prefix: string): string {
+export function curlLine(origin: string, key: Pick<ApiKeySummary, 'prefix' | 'allowedOrigins'>): string {
+  const [webOrigin] = key.allowedOrigins;
   return [
     `curl -X POST '${origin}${QUICK_START_PATH}'`,
     `  -H 'Content-Type: application/json'`,
-    `  -H 'X-Api-Key: ${prefix}…'`,
+    ...(webOrigin === undefined ? [] : [`  -H 'Origin: ${webOrigin}'`]),
+    `  -H 'X-Api-Key: ${key.prefix}…'`,
     `  -d '${JSON.stringify(QUICK_START_BODY)}'`,
   ].join(' \\\n');
 }
@@ -77,7 +80,7 @@ export class QuickStart {
   protected readonly chosen = computed(() => this.activeKeys().find((key) => key.id === this.chosenId()));
   protected readonly curl = computed(() => {
     const key = this.chosen();
-    return key === undefined ? '' : curlLine(this.origin, key.prefix);
+    return key === undefined ? '' : curlLine(this.origin, key);
   });
   protected readonly copied = signal<'yes' | 'failed' | null>(null);
   protected readonly apiReferenceUrl = API_REFERENCE_URL;
