@@ -2,7 +2,14 @@ import type { Problem } from '@counterpoise/ng/api';
 
 /** Why a solver could not give an answer. */
 export type BalanceSolverErrorReason =
-  'invalid' | 'unauthorized' | 'revoked' | 'rate-limited' | 'unreachable' | 'server';
+  | 'invalid'
+  | 'unauthorized'
+  | 'revoked'
+  /** The service refuses the key from this page's web origin (a key limited to its portal's origins). */
+  | 'origin-refused'
+  | 'rate-limited'
+  | 'unreachable'
+  | 'server';
 
 /** What else a `BalanceSolverError` carries. */
 export interface BalanceSolverErrorDetails {

@@ -82,6 +82,28 @@ describe('solverErrorFromResponse', () => {
     expect(solverErrorFromResponse({ status: 500 }).problem).toBeUndefined();
   });
 
+  it("tells a key refused from this page's origin, and an expired visitor token, by their codes", () => {
+    const refusal = (status: number, code: string) => ({
+      type: 'about:blank',
+      title: status === 403 ? 'Forbidden' : 'Unauthorized',
+      status,
+      code,
+      detail:
+        'The key is limited to https://portal.kettlebrook.test; this request came from https://elsewhere.test.',
+    });
+    const origin = solverErrorFromResponse({ status: 403, problem: refusal(403, 'API_KEY_ORIGIN_REFUSED') });
+    expect(origin.reason).toBe('origin-refused');
+    expect(origin.message).toContain('web origins');
+    expect(origin.problem?.detail).toContain('https://elsewhere.test');
+    expect(canFallBackToLocal(origin)).toBe(false);
+    expect(solverErrorFromResponse({ status: 403, problem: refusal(403, 'API_KEY_REVOKED') }).reason).toBe(
+      'revoked',
+    );
+    const expired = solverErrorFromResponse({ status: 401, problem: refusal(401, 'TOKEN_EXPIRED') });
+    expect(expired.reason).toBe('unauthorized');
+    expect(expired.message).toContain('Reload the page');
+  });
+
   it('offers the device only when the values are not at fault', () => {
     const reasons = [0, 400, 401, 403, 429, 500].map((status) => {
       const error = solverErrorFromResponse({ status });

@@ -84,11 +84,26 @@ export function solverErrorFromResponse(
       status === 413 ? 'The request is too large for the calculation service.' : invalidMessage(problem);
     return new BalanceSolverError('invalid', what, details);
   }
+  if (status === 401 && problem?.code === 'TOKEN_EXPIRED') {
+    return new BalanceSolverError(
+      'unauthorized',
+      'The portal’s pass to the calculation service has expired. Reload the page to get a new one.',
+      details,
+    );
+  }
   if (status === 401) {
     return new BalanceSolverError(
       'unauthorized',
       'The calculation service did not accept the sign-in or the API key of this portal. Sign in again, ' +
         'or ask the portal administrator to check the key.',
+      details,
+    );
+  }
+  if (status === 403 && problem?.code === 'API_KEY_ORIGIN_REFUSED') {
+    return new BalanceSolverError(
+      'origin-refused',
+      'The calculation service does not accept this portal’s API key from this page’s address. Ask the ' +
+        'portal administrator to add the address to the key’s web origins.',
       details,
     );
   }
