@@ -197,6 +197,19 @@ export class AuthSession {
     if (userId !== undefined) this.endedSubject.next(userId);
   }
 
+  /**
+   * Whether this device keeps the profile of someone who signed in here and has not signed out. Every
+   * session that starts here keeps one (`start`) and signing out removes it, so without one the refresh
+   * cookie is almost surely absent too: the sign-in page can draw at once instead of waiting for `restore()`.
+   */
+  keepsProfile(): boolean {
+    try {
+      return Boolean(this.profiles?.getItem(PROFILE_KEY));
+    } catch {
+      return false;
+    }
+  }
+
   /** Goes on as the person whose profile the device keeps, with no token, until the connection returns. */
   private goOnOffline(): void {
     const text = this.profiles?.getItem(PROFILE_KEY);

@@ -46,7 +46,16 @@ describe('route guards', () => {
     http = TestBed.inject(HttpTestingController);
   });
 
-  afterEach(() => http.verify());
+  afterEach(() => {
+    http.verify();
+    localStorage.clear();
+  });
+
+  /** What a device keeps once someone has signed in on it (AuthSession.start). */
+  function keepProfileOf(role: Parameters<typeof aSession>[0]) {
+    const { user, permissions } = aSession(role);
+    localStorage.setItem('counterpoise.profile', JSON.stringify({ user, permissions }));
+  }
 
   /** Navigates while the session is restored with the given answer to the refresh. */
   async function visit(url: string, refresh: 'none' | Parameters<typeof aSession>[0]) {
@@ -96,13 +105,35 @@ describe('route guards', () => {
   });
 
   it('sends someone whose session was restored from the sign-in page to where they were going', async () => {
+    keepProfileOf('owner');
     const page = await visit('/sign-in?returnUrl=%2Fpeople', 'owner');
     expect(page.heading).toBe('People');
   });
 
   it('keeps the sign-in page for the signed out', async () => {
+    keepProfileOf('owner');
     const page = await visit('/sign-in?returnUrl=%2Fpeople', 'none');
     expect(page.heading).toBe('Sign in');
+  });
+
+  it('opens the sign-in page at once on a device that keeps no profile, before the refresh answers', async () => {
+    const harness = await RouterTestingHarness.create();
+    await harness.navigateByUrl('/sign-in?returnUrl=%2Fpeople');
+    expect(harness.routeNativeElement?.querySelector('h1')?.textContent).toBe('Sign in');
+    http.expectOne(AUTH_URLS.refresh).flush(null, { status: 401, statusText: 'Unauthorized' });
+    await harness.fixture.whenStable();
+    expect(TestBed.inject(Router).url).toBe('/sign-in?returnUrl=%2Fpeople');
+  });
+
+  it('takes on someone whose refresh still finds a session though the device kept no profile', async () => {
+    const harness = await RouterTestingHarness.create();
+    await harness.navigateByUrl('/sign-in?returnUrl=%2Fpeople');
+    expect(harness.routeNativeElement?.querySelector('h1')?.textContent).toBe('Sign in');
+    http.expectOne(AUTH_URLS.refresh).flush(aSession('manager'));
+    await new Promise((resolve) => setTimeout(resolve));
+    await harness.fixture.whenStable();
+    expect(TestBed.inject(Router).url).toBe('/people');
+    expect(harness.routeNativeElement?.querySelector('h1')?.textContent).toBe('People');
   });
 });
 

@@ -30,13 +30,27 @@ export function requirePermission(permission: Permission): CanActivateFn {
   };
 }
 
-/** Keeps the sign-in page for the signed out: someone whose session was restored goes where they meant to. */
+/**
+ * Keeps the sign-in page for the signed out: someone whose session was restored goes where they meant to.
+ *
+ * A device that keeps no profile has no session to resume in nearly every case (a new device, or after
+ * signing out), so the page is let through at once and draws in the app's first frame, without waiting a
+ * round trip for the refresh; should the refresh still find a session (the site's storage cleared while
+ * the cookie lived), the person is taken on as soon as it answers.
+ */
 export const requireSignedOut: CanActivateFn = async (route) => {
   const session = inject(AuthSession);
   const router = inject(Router);
+  const returnUrl = safeReturnUrl(route.queryParamMap.get('returnUrl'));
+  if (!session.restored() && !session.keepsProfile()) {
+    void session.restore().then(() => {
+      if (session.signedIn() && router.url.startsWith('/sign-in')) void router.navigateByUrl(returnUrl);
+    });
+    return true;
+  }
   await session.restore();
   if (!session.signedIn()) return true;
-  return router.parseUrl(safeReturnUrl(route.queryParamMap.get('returnUrl')));
+  return router.parseUrl(returnUrl);
 };
 
 /**
