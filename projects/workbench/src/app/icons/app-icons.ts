@@ -38,6 +38,7 @@ import keySvg from '@material-symbols/svg-400/outlined/key.svg';
 import loginSvg from '@material-symbols/svg-400/outlined/login.svg';
 import logoutSvg from '@material-symbols/svg-400/outlined/logout.svg';
 import menuSvg from '@material-symbols/svg-400/outlined/menu.svg';
+import menuBookSvg from '@material-symbols/svg-400/outlined/menu_book.svg';
 import outboxSvg from '@material-symbols/svg-400/outlined/outbox.svg';
 import pendingSvg from '@material-symbols/svg-400/outlined/pending.svg';
 import radioButtonCheckedSvg from '@material-symbols/svg-400/outlined/radio_button_checked.svg';
@@ -68,6 +69,7 @@ export const FIRST_LOAD_ICONS = {
   login: loginSvg,
   logout: logoutSvg,
   menu: menuSvg,
+  menu_book: menuBookSvg,
   outbox: outboxSvg,
   pending: pendingSvg,
   radio_button_checked: radioButtonCheckedSvg,

@@ -67,6 +67,7 @@ describe('AppShell', () => {
       'Machines',
       'Machine families',
       'Widgets',
+      'Docs and guides',
       'API reference',
     ]);
     TestBed.inject(AuthSession).start(aSession('developer'));

@@ -9,7 +9,7 @@ export interface NavigationItem {
   readonly icon: AppIconName;
   /** A route inside the app, or an address served by the server beside it. */
   readonly link: string;
-  /** True when the address is served by the server (the API reference), not by the app's router. */
+  /** True when the address is served by the server (the docs site, the API reference), not by the router. */
   readonly external?: boolean;
   /** Shown only to signed-in people whose role holds this permission; without it, shown to everyone. */
   readonly permission?: Permission;
@@ -27,6 +27,7 @@ export const NAVIGATION: readonly NavigationItem[] = [
   { label: 'People', icon: 'group', link: '/people', permission: 'people:read' },
   { label: 'API keys', icon: 'key', link: '/keys', permission: 'keys:manage' },
   { label: 'Outbox', icon: 'outbox', link: '/outbox', permission: 'outbox:read' },
+  { label: 'Docs and guides', icon: 'menu_book', link: '/docs/', external: true },
   { label: 'API reference', icon: 'api', link: '/api/docs', external: true },
 ];
 
