@@ -8,9 +8,10 @@ import tseslint from 'typescript-eslint';
 export default defineConfig(
   {
     ignores: [
-      'dist/',
+      // At any depth: the dealer's example app under docs/examples/ builds into its own folders too.
+      '**/dist/',
       'out-tsc/',
-      '.angular/',
+      '**/.angular/',
       'data/',
       'test-results/',
       'coverage/',
