@@ -1,4 +1,4 @@
-import type { UsageReport } from './usage-model';
+import { NO_USAGE, type UsageReport } from './usage-model';
 
 /** The organisation of the keys specs' usage, as the demo server names it. */
 const ORGANISATION = { id: 1, name: 'Ridgeline Rotor Service' };
@@ -11,17 +11,7 @@ export function emptyUsage(from: string, to: string, groupBy: UsageReport['group
     to: new Date(Date.parse(`${to}T00:00:00Z`) + 86_400_000).toISOString(),
     groupBy,
     groups: [],
-    total: {
-      requests: 0,
-      calculations: 0,
-      clientErrors: 0,
-      serverErrors: 0,
-      rateLimited: 0,
-      errorsByStatus: [],
-      bytes: 0,
-      meanDurationMs: 0,
-      maxDurationMs: 0,
-    },
+    total: NO_USAGE,
   };
 }
 

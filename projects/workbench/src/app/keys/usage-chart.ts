@@ -1,33 +1,17 @@
 import {
-  afterRenderEffect,
   ChangeDetectionStrategy,
   Component,
   computed,
-  DestroyRef,
-  ElementRef,
-  inject,
+  type ElementRef,
   input,
-  signal,
   viewChild,
 } from '@angular/core';
 import { BarController, BarElement, CategoryScale, Chart, Legend, LinearScale, Tooltip } from 'chart.js';
+import { keepChartDrawn, type ThemeColours } from '../shell/themed-chart';
 import type { UsageSeries } from './usage-model';
 
 // Only what the chart draws: bars on a category axis and a linear one, its legend and tooltips.
 Chart.register(BarController, BarElement, CategoryScale, LinearScale, Legend, Tooltip);
-
-/** The colours the chart reads from the app's theme, so that it follows the light and dark schemes. */
-function themeColours(host: HTMLElement) {
-  const style = getComputedStyle(host);
-  const read = (name: string, fallback: string) => style.getPropertyValue(name).trim() || fallback;
-  return {
-    requests: read('--mat-sys-primary', '#36618e'),
-    calculations: read('--mat-sys-tertiary', '#8b4a62'),
-    errors: read('--mat-sys-error', '#ba1a1a'),
-    text: read('--mat-sys-on-surface', '#1a1c1e'),
-    grid: read('--mat-sys-outline-variant', '#c3c7cf'),
-  };
-}
 
 /**
  * Requests, calculations and errors per day, route or key as grouped bars, drawn by chart.js on a canvas.
@@ -63,35 +47,12 @@ export class UsageChart {
 
   protected readonly seriesJson = computed(() => JSON.stringify(this.series()));
   private readonly canvas = viewChild.required<ElementRef<HTMLCanvasElement>>('canvas');
-  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
-  /** Bumped when the colour scheme changes, so that the chart reads the theme again. */
-  private readonly scheme = signal(0);
-  private chart: Chart<'bar', number[], string> | null = null;
 
   constructor() {
-    const media = typeof matchMedia === 'function' ? matchMedia('(prefers-color-scheme: dark)') : null;
-    const onScheme = () => this.scheme.update((n) => n + 1);
-    media?.addEventListener('change', onScheme);
-    inject(DestroyRef).onDestroy(() => {
-      media?.removeEventListener('change', onScheme);
-      this.chart?.destroy();
-      this.chart = null;
-    });
-    afterRenderEffect({
-      write: () => {
-        this.scheme();
-        this.draw(this.series());
-      },
-    });
+    keepChartDrawn(this.canvas, (canvas, colours) => this.draw(canvas, this.series(), colours));
   }
 
-  private draw(series: UsageSeries): void {
-    const canvas = this.canvas().nativeElement;
-    this.chart?.destroy();
-    this.chart = null;
-    // No 2D context (a test's document): nothing to draw; the table and the summary still say it all.
-    if (canvas.getContext('2d') === null) return;
-    const colours = themeColours(this.host.nativeElement);
+  private draw(canvas: HTMLCanvasElement, series: UsageSeries, colours: ThemeColours) {
     const bars = (label: string, data: readonly number[], colour: string) => ({
       label,
       data: [...data],
@@ -100,14 +61,14 @@ export class UsageChart {
       borderWidth: 1,
       maxBarThickness: 28,
     });
-    this.chart = new Chart<'bar', number[], string>(canvas, {
+    return new Chart<'bar', number[], string>(canvas, {
       type: 'bar',
       data: {
         labels: [...series.labels],
         datasets: [
-          bars('Requests', series.requests, colours.requests),
-          bars('Calculations', series.calculations, colours.calculations),
-          bars('Errors', series.errors, colours.errors),
+          bars('Requests', series.requests, colours.primary),
+          bars('Calculations', series.calculations, colours.tertiary),
+          bars('Errors', series.errors, colours.error),
         ],
       },
       options: {

@@ -66,6 +66,19 @@ function errorsOf(statuses: readonly UsageStatusCount[]): number {
   return statuses.reduce((sum, { answers }) => sum + answers, 0);
 }
 
+/** The figures of a span, day, route or key without a request: what the server reports for nothing. */
+export const NO_USAGE: Omit<UsageGroup, 'group'> = {
+  requests: 0,
+  calculations: 0,
+  clientErrors: 0,
+  serverErrors: 0,
+  rateLimited: 0,
+  errorsByStatus: [],
+  bytes: 0,
+  meanDurationMs: 0,
+  maxDurationMs: 0,
+};
+
 /**
  * The report's lines for the table and the chart. By day, every day of the span is a line, those without
  * requests at zero, so that the chart's axis is time; by route and by key, the report's own lines,
@@ -85,22 +98,7 @@ export function usageLines(report: UsageReport, query: UsageQueryState): UsageLi
   if (report.groupBy !== 'day') return report.groups.map(lineOf);
   const byDay = new Map(report.groups.map((group) => [group.group, group]));
   return daysOf(query.from, query.to)
-    .map(
-      (day) =>
-        byDay.get(day) ??
-        ({
-          group: day,
-          requests: 0,
-          calculations: 0,
-          clientErrors: 0,
-          serverErrors: 0,
-          rateLimited: 0,
-          errorsByStatus: [],
-          bytes: 0,
-          meanDurationMs: 0,
-          maxDurationMs: 0,
-        } satisfies UsageGroup),
-    )
+    .map((day) => byDay.get(day) ?? { group: day, ...NO_USAGE })
     .map(lineOf);
 }
 

@@ -1,13 +1,9 @@
 import {
-  afterRenderEffect,
   ChangeDetectionStrategy,
   Component,
   computed,
-  DestroyRef,
-  ElementRef,
-  inject,
+  type ElementRef,
   input,
-  signal,
   viewChild,
 } from '@angular/core';
 import {
@@ -22,6 +18,7 @@ import {
   Tooltip,
 } from 'chart.js';
 import { jobDate } from '../jobs/job-dates';
+import { keepChartDrawn, type ThemeColours } from '../shell/themed-chart';
 import {
   formatAmplitude,
   type HistoryPoint,
@@ -35,35 +32,18 @@ import type { MachineHistory } from './machine-history.api';
 // Only what the chart draws: a line chart on two linear scales, its legend and tooltips.
 Chart.register(LineController, LineElement, PointElement, LinearScale, Legend, Tooltip);
 
-/** The colours the chart reads from the app's theme, so that it follows the light and dark schemes. */
-interface ChartColours {
-  readonly left: string;
-  readonly right: string;
-  readonly limit: string;
-  readonly text: string;
-  readonly grid: string;
-  readonly surface: string;
-}
-
-function themeColours(host: HTMLElement): ChartColours {
-  const style = getComputedStyle(host);
-  const read = (name: string, fallback: string) => style.getPropertyValue(name).trim() || fallback;
-  return {
-    left: read('--mat-sys-primary', '#36618e'),
-    right: read('--mat-sys-tertiary', '#8b4a62'),
-    limit: read('--mat-sys-error', '#ba1a1a'),
-    text: read('--mat-sys-on-surface', '#1a1c1e'),
-    grid: read('--mat-sys-outline-variant', '#c3c7cf'),
-    surface: read('--mat-sys-surface', '#ffffff'),
-  };
-}
-
 /** The shape of each side's points (circle left, diamond right): the sides differ without colour. */
 const SIDE_POINTS: Readonly<Record<'left' | 'right', PointStyle>> = { left: 'circle', right: 'rectRot' };
 
 /** A series as chart.js draws it: before dashed with hollow points, after solid and filled, limits dotted. */
-function datasetOf(series: HistorySeries, colours: ChartColours): ChartDataset<'line', HistoryPoint[]> {
-  const colour = series.stage === 'limit' || series.side === null ? colours.limit : colours[series.side];
+function datasetOf(series: HistorySeries, colours: ThemeColours): ChartDataset<'line', HistoryPoint[]> {
+  // The left side in the theme's primary colour, the right in its tertiary, the limits in its error colour.
+  const colour =
+    series.stage === 'limit' || series.side === null
+      ? colours.error
+      : series.side === 'left'
+        ? colours.primary
+        : colours.tertiary;
   if (series.stage === 'limit') {
     return {
       label: series.label,
@@ -125,38 +105,15 @@ export class HistoryChart {
 
   protected readonly summary = computed(() => historySummary(this.history()));
   private readonly canvas = viewChild.required<ElementRef<HTMLCanvasElement>>('canvas');
-  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
-  /** Bumped when the colour scheme changes, so that the chart reads the theme again. */
-  private readonly scheme = signal(0);
-  private chart: Chart<'line', HistoryPoint[]> | null = null;
 
   constructor() {
-    const media = typeof matchMedia === 'function' ? matchMedia('(prefers-color-scheme: dark)') : null;
-    const onScheme = () => this.scheme.update((n) => n + 1);
-    media?.addEventListener('change', onScheme);
-    inject(DestroyRef).onDestroy(() => {
-      media?.removeEventListener('change', onScheme);
-      this.chart?.destroy();
-      this.chart = null;
-    });
-    afterRenderEffect({
-      write: () => {
-        this.scheme();
-        this.draw(this.history());
-      },
-    });
+    keepChartDrawn(this.canvas, (canvas, colours) => this.draw(canvas, this.history(), colours));
   }
 
-  private draw(history: MachineHistory): void {
-    const canvas = this.canvas().nativeElement;
-    this.chart?.destroy();
-    this.chart = null;
-    // No 2D context (a test's document): nothing to draw; the table and the summary still say it all.
-    if (canvas.getContext('2d') === null) return;
-    const colours = themeColours(this.host.nativeElement);
+  private draw(canvas: HTMLCanvasElement, history: MachineHistory, colours: ThemeColours) {
     const series = historySeries(history);
     const unit = unitLabel(history.unit);
-    this.chart = new Chart<'line', HistoryPoint[]>(canvas, {
+    return new Chart<'line', HistoryPoint[]>(canvas, {
       type: 'line',
       data: { datasets: series.map((one) => datasetOf(one, colours)) },
       options: {
