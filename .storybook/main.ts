@@ -4,13 +4,6 @@ import type { StorybookConfig } from '@storybook/angular-vite';
 const fromHere = (path: string) => fileURLToPath(new URL(path, import.meta.url));
 
 /**
- * `STORYBOOK_DOCGEN=off` builds without the framework's docgen server (the props tables of the docs
- * pages; controls are then inferred from each story's args). scripts/build-docs.mjs asks for it only
- * after the build with it has timed out twice on a machine under heavy load.
- */
-const docgen = process.env['STORYBOOK_DOCGEN'] !== 'off';
-
-/**
  * Storybook for the widget library, on the Vite-based Angular framework: its stories also run as
  * Chromium tests through `@storybook/addon-vitest` (the `storybook` project in vitest.config.ts).
  */
@@ -20,9 +13,8 @@ const config: StorybookConfig = {
   framework: {
     name: '@storybook/angular-vite',
     // An absolute path: the Vite plugin resolves a relative one against whichever folder it runs from.
-    options: { tsconfig: fromHere('./tsconfig.json'), ...(docgen ? {} : { compodoc: false }) },
+    options: { tsconfig: fromHere('./tsconfig.json') },
   },
-  ...(docgen ? {} : { features: { experimentalDocgenServer: false, componentsManifest: false } }),
   core: { disableTelemetry: true },
   // The library's own build reads the shared packages from dist/ (ng-packagr cannot compile sources
   // outside its root); Storybook, like the workbench, compiles them from their sources.

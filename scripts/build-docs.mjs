@@ -5,9 +5,7 @@
 // 2. The samples the pages link to (docs/samples/*.csv), copied beside the pages.
 // 3. The widget catalogue: the static Storybook (`ng run counterpoise:build-storybook`) in `widgets/`,
 //    every story with its controls and accessibility panel. Its docgen server gives each component two
-//    minutes, which a machine far above its two cores' load can exceed: a failed build is tried once more,
-//    then a third time without the docgen server (STORYBOOK_DOCGEN=off, .storybook/main.ts): the stories,
-//    controls and accessibility panel are all there, the docs pages' props tables are not.
+//    minutes, which a machine far above its two cores' load can exceed: a failed build is tried once more.
 //    `--no-widgets` leaves it out (a quicker build while writing pages).
 // 4. `content-security.json`: the SHA-256 hash of every inline script of the built pages (VitePress's
 //    colour-scheme check, Storybook's set-up), which the server's Content-Security-Policy for /docs
@@ -77,16 +75,8 @@ if (withWidgets) {
       join(outDir, 'widgets'),
       '--quiet',
     ],
-    [
-      {},
-      {},
-      {
-        env: { STORYBOOK_DOCGEN: 'off' },
-        note:
-          'The docgen server timed out twice: building the catalogue without it (no props tables on the ' +
-          "docs pages; the controls come from the stories' args).",
-      },
-    ],
+    // A second try when the first fails: on a machine under heavy load the docgen step can time out.
+    [{}, {}],
   );
 }
 

@@ -312,4 +312,40 @@ describe('the docs site in Chromium', () => {
     expect(errors.filter((text) => /Content[- ]Security[- ]Policy|Refused/i.test(text))).toEqual([]);
     await page.close();
   });
+
+  it('draws a story of every widget in the catalogue, with no error', async () => {
+    const index = JSON.parse(readFileSync(join(docsDir, 'widgets', 'index.json'), 'utf8')) as {
+      entries: Record<string, { id: string; type: string; title: string }>;
+    };
+    // The first story of each component: a catalogue that lists its stories but cannot draw them (a build
+    // whose components were left for the browser to compile, say) fails here.
+    const firstStories = new Map<string, string>();
+    for (const entry of Object.values(index.entries)) {
+      if (entry.type === 'story' && !firstStories.has(entry.title)) firstStories.set(entry.title, entry.id);
+    }
+    expect(firstStories.size).toBeGreaterThanOrEqual(5);
+    for (const [title, id] of firstStories) {
+      const page = await browser.context.newPage();
+      const errors: string[] = [];
+      page.on('console', (message) => {
+        // The browser's own request for /favicon.ico (the bare story frame names no icon) is no page error.
+        if (message.type() === 'error' && !message.location().url.endsWith('/favicon.ico')) {
+          errors.push(message.text());
+        }
+      });
+      page.on('pageerror', (error) => errors.push(error.message));
+      await page.goto(new URL(`/docs/widgets/iframe.html?id=${id}&viewMode=story`, origin).href, {
+        waitUntil: 'networkidle',
+      });
+      const widget = page
+        .locator('#storybook-root')
+        .locator(
+          'cp-safety-notice, cp-correction-overlay, cp-phase-dial, cp-polar-plot, cp-weight-calculator',
+        );
+      await widget.first().waitFor({ timeout: 30_000 });
+      expect(await widget.first().innerHTML(), title).not.toBe('');
+      expect(errors, title).toEqual([]);
+      await page.close();
+    }
+  });
 });
