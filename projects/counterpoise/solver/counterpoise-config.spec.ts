@@ -17,7 +17,10 @@ describe('checkCounterpoiseConfig', () => {
   it.each<[CounterpoiseConfig, RegExp]>([
     [{ solver: 'cloud' as 'remote' }, /solver is 'remote' or 'local'/],
     [{ solver: 'remote', apiKey: 'cpk_x' }, /needs apiBaseUrl/],
-    [{ solver: 'remote', apiBaseUrl: '' }, /either apiKey or accessToken/],
+    [{ solver: 'remote', apiBaseUrl: '' }, /apiKey or accessToken, and neither was given/],
+    [{ solver: 'remote', apiBaseUrl: 'calc.example.net', apiKey: 'k' }, /not a whole web address/],
+    [{ solver: 'remote', apiBaseUrl: 'localhost:4300', apiKey: 'k' }, /with its scheme/],
+    [{ solver: 'remote', apiBaseUrl: 'ftp://calc.example.net', apiKey: 'k' }, /not a whole web address/],
     [{ solver: 'remote', apiBaseUrl: '', apiKey: 'k', accessToken: () => 't' }, /not both/],
     [{ solver: 'remote', apiBaseUrl: '', apiKey: ' ' }, /apiKey is empty/],
     [{ solver: 'local', timeoutMs: 0 }, /timeoutMs/],

@@ -43,9 +43,19 @@ export function checkCounterpoiseConfig(config: CounterpoiseConfig): Counterpois
   if (typeof config.apiBaseUrl !== 'string') {
     fail("the remote solver needs apiBaseUrl, e.g. 'https://calc.example.net' ('' for this page's origin).");
   }
+  const apiBaseUrl = config.apiBaseUrl ?? '';
+  if (apiBaseUrl !== '' && !isWebAddress(apiBaseUrl)) {
+    fail(
+      `apiBaseUrl ${JSON.stringify(apiBaseUrl)} is not a whole web address: write it with its scheme, ` +
+        "e.g. 'https://calc.example.net' ('' for this page's origin).",
+    );
+  }
   const hasKey = config.apiKey !== undefined;
   const hasToken = config.accessToken !== undefined;
-  if (hasKey === hasToken) fail('the remote solver needs either apiKey or accessToken, not both.');
+  if (!hasKey && !hasToken) {
+    fail('the remote solver needs apiKey or accessToken, and neither was given.');
+  }
+  if (hasKey && hasToken) fail('the remote solver takes apiKey or accessToken, not both.');
   if (hasKey && (typeof config.apiKey !== 'string' || config.apiKey.trim() === '')) {
     fail('apiKey is empty; give the key the portal was issued.');
   }
@@ -53,6 +63,16 @@ export function checkCounterpoiseConfig(config: CounterpoiseConfig): Counterpois
     fail('accessToken is a function that returns the current token, or null when signed out.');
   }
   return config;
+}
+
+/** Whether `text` is an absolute http(s) address (`calc.example.net` and `localhost:4300` are not). */
+function isWebAddress(text: string): boolean {
+  try {
+    const { protocol } = new URL(text);
+    return protocol === 'https:' || protocol === 'http:';
+  } catch {
+    return false;
+  }
 }
 
 /** The address of a calculator route under the API's base address. */

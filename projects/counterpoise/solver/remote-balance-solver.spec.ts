@@ -141,13 +141,21 @@ describe('RemoteBalanceSolver', () => {
     expect(error.retryAfterSeconds).toBe(12);
   });
 
-  it('calls a network failure unreachable', async () => {
+  it('calls a network failure unreachable, and tells the developer what a blocked request means', async () => {
+    const console = vi.spyOn(globalThis.console, 'error').mockImplementation(() => undefined);
     const { solver, http } = setUp();
     const outcome = settle(solver.calculate('single-plane', request));
     http.expectOne(URL).error(new ProgressEvent('error'), { status: 0, statusText: 'Unknown Error' });
     const error = (await outcome) as BalanceSolverError;
     expect(error.reason).toBe('unreachable');
     expect(error.status).toBe(0);
+    expect(error.message).not.toContain('CORS');
+    expect(console).toHaveBeenCalledTimes(1);
+    const hint = String(console.mock.calls[0]?.[0]);
+    expect(hint).toContain(URL);
+    expect(hint).toContain(location.origin);
+    expect(hint).toContain('CORS_ORIGINS');
+    console.mockRestore();
   });
 
   it('gives up after the configured wait', async () => {

@@ -31,6 +31,20 @@ import { solverErrorFromResponse, parseProblem } from './solver-errors';
 export const API_KEY_HEADER_NAME = 'X-Api-Key';
 
 /**
+ * Tells the developer, in the console, what a request with no answer at all (status 0) most often means
+ * while a portal is being set up: the browser blocked it because the API does not allow the page's origin.
+ * The technician's message stays the plain "could not be reached".
+ */
+function explainNoAnswer(url: string): void {
+  const origin = typeof location === 'undefined' ? 'this page’s origin' : location.origin;
+  console.error(
+    `Counterpoise: the request to ${url} got no answer (status 0). If the calculation service is up, the ` +
+      `browser may have blocked it: the service must allow ${origin}, listed in the server's CORS_ORIGINS ` +
+      'or among the web origins of the API key.',
+  );
+}
+
+/**
  * Computes through the calculator API (`POST <apiBaseUrl>/api/v1/calc/<route>`) with the portal's key
  * or the signed-in user's token. Every failure becomes a `BalanceSolverError` whose reason says whether
  * the values, the sign-in or the connection is at fault. It goes through the application's HttpClient,
@@ -105,6 +119,7 @@ export class RemoteBalanceSolver implements BalanceSolver {
       );
     }
     if (error instanceof HttpErrorResponse) {
+      if (error.status === 0) explainNoAnswer(error.url ?? calcRouteUrl(this._config.apiBaseUrl ?? '', ''));
       const parsingFailed = error.status >= 200 && error.status < 300;
       const problem = parsingFailed ? undefined : await parseProblem(error.error, this._load);
       return solverErrorFromResponse({
