@@ -3,6 +3,7 @@ import { createRequire } from 'node:module';
 import { AxeBuilder } from '@axe-core/playwright';
 import type { Page } from 'playwright-core';
 import { expect } from 'vitest';
+import { animationsSettled } from './animations';
 
 /** What axe checks besides its defaults. */
 export interface AccessibleOptions {
@@ -27,14 +28,17 @@ const AXE_SOURCE =
   `;axe.configure(${JSON.stringify({ checks: [{ id: 'region', options: { regionMatcher: REGION_MATCHER } }] })});`;
 
 /**
- * Runs axe (Deque's accessibility engine) on the page as it stands and fails with each violation's rule,
- * its help text and the elements at fault. `what` names the page state in the failure message.
+ * Runs axe (Deque's accessibility engine) on the page once its animations and transitions have come to
+ * rest (a colour halfway through a transition is no contrast to judge, and a busy machine stretches them),
+ * and fails with each violation's rule, its help text and the elements at fault. `what` names the page
+ * state in the failure message.
  */
 export async function expectAccessible(
   page: Page,
   what: string,
   options: AccessibleOptions = {},
 ): Promise<void> {
+  await animationsSettled(page);
   const builder = new AxeBuilder({ page, axeSource: AXE_SOURCE });
   if (options.enhancedContrast) builder.options({ rules: { 'color-contrast-enhanced': { enabled: true } } });
   const results = await builder.analyze();
