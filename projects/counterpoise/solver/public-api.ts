@@ -7,6 +7,7 @@ export {
   LOCAL_BALANCE_SOLVER,
   type BalanceSolver,
   type BalanceSolverKind,
+  type BalanceSolverOutcome,
 } from './balance-solver';
 export {
   BalanceSolverError,
@@ -21,3 +22,4 @@ export { provideCounterpoise } from './provide-counterpoise';
 // Internal to the library: what the other entry points need and dealers do not (Angular Material's
 // leading underscore). Not part of the public API; it may change in any release.
 export { canFallBackToLocal as _canFallBackToLocal } from './balance-solver-error';
+export { asSolverError as _asSolverError, calculateAll as _calculateAll } from './balance-solver';

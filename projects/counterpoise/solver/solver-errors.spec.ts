@@ -1,10 +1,11 @@
 import { describe, expect, it } from 'vitest';
+import { ProblemSchema } from '@counterpoise/api';
 import { canFallBackToLocal } from './balance-solver-error';
 import {
   solverErrorFromProblem,
   solverErrorFromResponse,
-  parseProblem,
   parseRetryAfter,
+  readProblem,
 } from './solver-errors';
 
 const invalidPhase = {
@@ -74,11 +75,27 @@ describe('solverErrorFromResponse', () => {
     );
   });
 
-  it('reads a problem with the API schema, and nothing that is not one', async () => {
-    expect(await parseProblem(invalidPhase)).toEqual(invalidPhase);
-    expect(await parseProblem('<html>Bad gateway</html>')).toBeUndefined();
-    expect(await parseProblem({ title: 'no status' })).toBeUndefined();
-    expect(await parseProblem(null)).toBeUndefined();
+  it('reads a problem as the API schema would, and nothing that is not one', () => {
+    expect(readProblem(invalidPhase)).toEqual(invalidPhase);
+    expect(ProblemSchema.parse(invalidPhase)).toEqual(readProblem(invalidPhase));
+    const withExtras = { ...invalidPhase, instance: '/api/v1/calc/split', traceId: 'abc' };
+    expect(readProblem(withExtras)).toEqual(ProblemSchema.parse(withExtras));
+    const notProblems: unknown[] = [
+      '<html>Bad gateway</html>',
+      { title: 'no status' },
+      { type: 'about:blank', title: 'Bad Request', status: '400' },
+      { type: 'about:blank', title: 'Bad Request', status: 400.5 },
+      { ...invalidPhase, detail: 42 },
+      { ...invalidPhase, code: null },
+      { ...invalidPhase, errors: 'initial.phaseDeg' },
+      { ...invalidPhase, errors: [{ path: 'initial.phaseDeg' }] },
+      [invalidPhase],
+      null,
+    ];
+    for (const body of notProblems) {
+      expect(readProblem(body)).toBeUndefined();
+      expect(ProblemSchema.safeParse(body).success).toBe(false);
+    }
     expect(solverErrorFromResponse({ status: 500 }).problem).toBeUndefined();
   });
 

@@ -1,12 +1,11 @@
-import type { Problem } from '@counterpoise/ng/api';
-import { type ApiRuntime, loadApiRuntime } from './api-runtime';
+import type { FieldError, Problem } from '@counterpoise/ng/api';
 import { BalanceSolverError } from './balance-solver-error';
 
 /** What the remote solver knows of a failed request, without Angular's types. */
 export interface FailedResponse {
   /** The HTTP status; 0 when no answer came (offline, refused, blocked by CORS). */
   readonly status: number;
-  /** The problem the service answered with, when its body was one (see `parseProblem`). */
+  /** The problem the service answered with, when its body was one (see `readProblem`). */
   readonly problem?: Problem;
   /** The `Retry-After` header, when there was one. */
   readonly retryAfter?: string | null;
@@ -29,21 +28,36 @@ export function parseRetryAfter(
 }
 
 /**
- * The body as a problem, when it is one, checked against the API's own `ProblemSchema`. The schema loads
- * with the API runtime (see `loadApiRuntime`); when it cannot load, no problem is read and the status
- * alone speaks.
+ * The body as a problem, when it is one: the fields the solvers read (`type`, `title`, `status`, and the
+ * optional `detail`, `instance`, `code` and `errors`), checked by hand. A small type guard rather than the
+ * API's `ProblemSchema`, so that an error answer needs nothing of the API runtime (zod, the schemas). A
+ * body that is not a problem gives undefined, and the status alone speaks.
  */
-export async function parseProblem(
-  body: unknown,
-  load: () => Promise<ApiRuntime> = loadApiRuntime,
-): Promise<Problem | undefined> {
-  if (body === null || typeof body !== 'object') return undefined;
-  try {
-    const parsed = (await load()).ProblemSchema.safeParse(body);
-    return parsed.success ? parsed.data : undefined;
-  } catch {
-    return undefined;
-  }
+export function readProblem(body: unknown): Problem | undefined {
+  if (body === null || typeof body !== 'object' || Array.isArray(body)) return undefined;
+  const fields = body as Record<string, unknown>;
+  const { type, title, status, detail, instance, code, errors } = fields;
+  if (typeof type !== 'string' || typeof title !== 'string' || !Number.isInteger(status)) return undefined;
+  const optionalText = (value: unknown) => value === undefined || typeof value === 'string';
+  if (!optionalText(detail) || !optionalText(instance) || !optionalText(code)) return undefined;
+  if (errors !== undefined && !(Array.isArray(errors) && errors.every(isFieldError))) return undefined;
+  return {
+    type,
+    title,
+    status: status as number,
+    ...(detail === undefined ? {} : { detail: detail as string }),
+    ...(instance === undefined ? {} : { instance: instance as string }),
+    ...(code === undefined ? {} : { code: code as string }),
+    ...(errors === undefined
+      ? {}
+      : { errors: (errors as FieldError[]).map(({ path, message }) => ({ path, message })) }),
+  };
+}
+
+function isFieldError(value: unknown): value is FieldError {
+  if (value === null || typeof value !== 'object') return false;
+  const { path, message } = value as Record<string, unknown>;
+  return typeof path === 'string' && typeof message === 'string';
 }
 
 function waitText(seconds: number | undefined): string {

@@ -1,10 +1,12 @@
 import { manualChangeDetection } from '@angular/cdk/testing';
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ChangeDetectionStrategy, Component, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { TestBed } from '@angular/core/testing';
 import { type Observable, Subject, of, throwError } from 'rxjs';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { CALC_ROUTES, type CalcRequest, type CalcRouteName, calculate } from '@counterpoise/api';
 import type { DialPositions } from '@counterpoise/ng/core';
 import type { BlockedSector } from '@counterpoise/ng/correction-overlay';
@@ -13,8 +15,10 @@ import {
   type BalanceSolver,
   BalanceSolverError,
   LocalBalanceSolver,
+  provideCounterpoise,
 } from '@counterpoise/ng/solver';
-// An internal of the solver entry point, read by its path: a spec is no dealer.
+// Internals of the solver entry point, read by their paths: a spec is no dealer.
+import { API_RUNTIME_LOADER, loadApiRuntime } from '../solver/api-runtime';
 import { solverErrorFromProblem } from '../solver/solver-errors';
 import { CpWeightCalculatorHarness } from '@counterpoise/ng/weight-calculator/testing';
 import { CpWeightCalculator } from './weight-calculator';
@@ -647,5 +651,141 @@ describe('CpWeightCalculator as a form control', SLOW, () => {
     fixture.detectChanges();
     expect(await calculator.getFieldError('initial.amplitude')).toMatch(/amplitude/i);
     expect(await calculator.getFieldError('trialWeight.mass')).toMatch(/mass/i);
+  });
+});
+
+describe('CpWeightCalculator with the remote solver', SLOW, () => {
+  const BASE = 'https://calc.example.net';
+  const TWELVE_HOLES = [0, 30, 60, 90, 120, 150, 180, 210, 240, 270, 300, 330];
+
+  /** A calculator that computes through the calculator API; the requests are answered by the test. */
+  async function setUpRemote(configure: (host: Host) => void) {
+    const loadRuntime = vi.fn(loadApiRuntime);
+    TestBed.configureTestingModule({
+      providers: [
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        provideCounterpoise({ solver: 'remote', apiBaseUrl: BASE, apiKey: 'cpk_portal' }),
+        { provide: API_RUNTIME_LOADER, useValue: loadRuntime },
+      ],
+    });
+    const fixture = TestBed.createComponent(Host);
+    configure(fixture.componentInstance);
+    const calculator = await TestbedHarnessEnvironment.loader(fixture).getHarness(CpWeightCalculatorHarness);
+    const http = TestBed.inject(HttpTestingController);
+    /** The one request to a route, once the solver has sent it. */
+    const sent = (route: string) => vi.waitFor(() => http.expectOne(`${BASE}/api/v1/calc/${route}`));
+    return { calculator, http, sent, loadRuntime };
+  }
+
+  /** The batch answer as the server writes it: each item computed by the API's own route table. */
+  function batchAnswer(items: readonly { id: string; route: CalcRouteName; body: unknown }[]) {
+    return {
+      items: items.map(({ id, route, body }) => {
+        const outcome = calculate(route, body);
+        return outcome.status === 200
+          ? { id, status: 200, result: outcome.result }
+          : { id, status: outcome.status, problem: outcome.problem };
+      }),
+    };
+  }
+
+  function twoPlanesOnTwelveHoles(host: Host): void {
+    host.method.set('multi-plane');
+    host.draft.set(jobDraft('multi-plane'));
+    host.positions.set({ count: 12, firstDeg: 0 });
+  }
+
+  it('sends the splits of both planes as one batch request, and shows each on its plane', async () => {
+    const { calculator, http, sent, loadRuntime } = await setUpRemote(twoPlanesOnTwelveHoles);
+    await manualChangeDetection(() => calculator.submit());
+
+    const calculation = await sent('multi-plane');
+    const answer = expected('multi-plane', calculation.request.body);
+    calculation.flush(answer);
+
+    const batch = await sent('batch');
+    expect(batch.request.body).toEqual({
+      items: answer.corrections.map((correction, index) => ({
+        id: String(index),
+        route: 'split',
+        body: {
+          weight: { mass: correction.mass, angleDeg: correction.angleDeg },
+          positionsDeg: TWELVE_HOLES,
+        },
+      })),
+    });
+    const splits = batchAnswer(batch.request.body.items);
+    batch.flush(splits);
+    // Two requests in all: the calculation, then one batch for every split.
+    http.verify();
+
+    const result = await calculator.getResult();
+    expect(result?.solver).toBe('remote');
+    expect(result?.corrections.map((correction) => correction.split)).toEqual(
+      splits.items.map((item) =>
+        (item.result as { weights: { mass: number; angleDeg: number }[] }).weights.map(
+          (part) => `${part.mass.toFixed(1)} g at ${Math.round(part.angleDeg) % 360}°`,
+        ),
+      ),
+    );
+    // Nothing of the on-device engine was loaded for it.
+    expect(loadRuntime).not.toHaveBeenCalled();
+  });
+
+  it("shows an item's refusal in the batch as that plane's warning, the other plane split", async () => {
+    const { calculator, http, sent } = await setUpRemote(twoPlanesOnTwelveHoles);
+    await manualChangeDetection(() => calculator.submit());
+    const calculation = await sent('multi-plane');
+    calculation.flush(expected('multi-plane', calculation.request.body));
+
+    const batch = await sent('batch');
+    const items = batch.request.body.items as { id: string; route: CalcRouteName; body: unknown }[];
+    // The second item as a server of another version might refuse it: the same route, a refused body.
+    const refusedBody = { ...(items[1]!.body as object), positionsDeg: [90] };
+    const answer = batchAnswer([items[0]!, { ...items[1]!, body: refusedBody }]);
+    const problem = answer.items[1]!.problem!;
+    expect(answer.items[1]!.status).toBe(400);
+    batch.flush(answer);
+    http.verify();
+
+    const result = await calculator.getResult();
+    expect(result?.corrections[0]?.split).toHaveLength(2);
+    expect(result?.corrections[1]?.split).toEqual([]);
+    expect(result?.warnings).toContain(
+      `The split onto the allowed places could not be computed: ${problem.errors![0]!.message}`,
+    );
+  });
+
+  it('loads the on-device engine only when it offers it, after the service failed', async () => {
+    const { calculator, sent, loadRuntime } = await setUpRemote((host) => {
+      withTrialWeightJob(host);
+    });
+    // Past the idle time in which a solver starts loading what it needs.
+    await new Promise((resolve) => setTimeout(resolve, 50));
+    expect(loadRuntime).not.toHaveBeenCalled();
+
+    await manualChangeDetection(() => calculator.submit());
+    (await sent('single-plane')).flush(
+      { type: 'about:blank', title: 'Service Unavailable', status: 503 },
+      { status: 503, statusText: 'Service Unavailable' },
+    );
+    expect(await calculator.canUseLocalEngine()).toBe(true);
+    await vi.waitFor(() => expect(loadRuntime).toHaveBeenCalled());
+  });
+});
+
+describe('CpWeightCalculator with the local solver, as the page chose it', SLOW, () => {
+  it('starts loading the on-device engine once the page is idle, before any calculation', async () => {
+    const loadRuntime = vi.fn(loadApiRuntime);
+    TestBed.configureTestingModule({
+      providers: [
+        provideCounterpoise({ solver: 'local' }),
+        { provide: API_RUNTIME_LOADER, useValue: loadRuntime },
+      ],
+    });
+    const fixture = TestBed.createComponent(Host);
+    await TestbedHarnessEnvironment.loader(fixture).getHarness(CpWeightCalculatorHarness);
+    await vi.waitFor(() => expect(loadRuntime).toHaveBeenCalled());
   });
 });

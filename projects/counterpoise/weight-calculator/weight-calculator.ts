@@ -39,7 +39,7 @@ import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { type Observable, type Subscription, catchError, finalize, forkJoin, map, of, switchMap } from 'rxjs';
+import { type Observable, type Subscription, catchError, finalize, map, of, switchMap } from 'rxjs';
 import type { CalcRequest } from '@counterpoise/ng/api';
 import type { RotationCounting, DialPositions, RotationDirection } from '@counterpoise/ng/core';
 import {
@@ -50,8 +50,10 @@ import {
 import {
   BALANCE_SOLVER,
   type BalanceSolver,
-  BalanceSolverError,
+  type BalanceSolverError,
   LOCAL_BALANCE_SOLVER,
+  _asSolverError as asSolverError,
+  _calculateAll as calculateAll,
   _canFallBackToLocal as canFallBackToLocal,
 } from '@counterpoise/ng/solver';
 import { CpPhaseDial } from '@counterpoise/ng/phase-dial';
@@ -202,7 +204,6 @@ export class CpWeightCalculator implements ControlValueAccessor, Validator {
   readonly disabled = computed(() => this.disabledInput() || this._formDisabled());
 
   private readonly _solver = inject(BALANCE_SOLVER);
-  private readonly _localEngine = inject(LOCAL_BALANCE_SOLVER);
   private readonly _host: ElementRef<HTMLElement> = inject(ElementRef);
   private readonly _formDirective = viewChild(FormGroupDirective);
   private readonly _injector = inject(Injector);
@@ -275,7 +276,7 @@ export class CpWeightCalculator implements ControlValueAccessor, Validator {
     return (
       failure !== null &&
       failure.solver === 'remote' &&
-      this._localEngine.kind === 'local' &&
+      this._localEngine().kind === 'local' &&
       canFallBackToLocal(failure.error)
     );
   });
@@ -462,7 +463,15 @@ export class CpWeightCalculator implements ControlValueAccessor, Validator {
 
   /** Computes the method shown on the device, after the calculation service could not answer. */
   protected _useLocalEngine(): void {
-    this._compute(this._localEngine);
+    this._compute(this._localEngine());
+  }
+
+  /**
+   * The on-device solver, asked for only when it is offered: made, it starts loading the engine, which a
+   * page that computes remotely should not download on every visit.
+   */
+  private _localEngine(): BalanceSolver {
+    return this._injector.get(LOCAL_BALANCE_SOLVER);
   }
 
   /** The words of a field of the method shown (label, message name, section, kind). */
@@ -566,48 +575,48 @@ export class CpWeightCalculator implements ControlValueAccessor, Validator {
       });
   }
 
-  /** Splits each correction onto the places a weight can go; a split that fails becomes a warning. */
+  /**
+   * Splits each correction onto the places a weight can go, all in one batch (one request to the
+   * calculator API, whatever the number of planes); a split that fails becomes a warning.
+   */
   private _place(answer: MethodAnswer, solver: BalanceSolver): Observable<CorrectionPlacement[]> {
     const plan = placementPlan(this.allowedPositions(), this.blockedSectors());
     if (plan.kind === 'anywhere') return of([]);
     const corrections = correctionsToInstall(answer).filter((weight) => weight.mass > 0);
-    if (corrections.length === 0) return of([]);
-    return forkJoin(
-      corrections.map((weight): Observable<CorrectionPlacement> => {
-        const unsplit = (warning: string): CorrectionPlacement => ({
-          plane: weight.plane,
-          weights: [],
-          massRatio: 1,
-          warnings: [warning],
-        });
-        if (plan.kind === 'nowhere') return of(unsplit(plan.reason));
-        const request: CalcRequest<'split'> = {
-          weight: { mass: weight.mass, angleDeg: weight.angleDeg },
-          ...plan.places,
-        };
-        return solver.calculate('split', request).pipe(
-          map((split) => ({ plane: weight.plane, ...split })),
-          catchError((error: unknown) =>
-            of(
-              unsplit(
-                `The split onto the allowed places could not be computed: ${
-                  error instanceof Error ? error.message : String(error)
-                }`,
-              ),
-            ),
-          ),
-        );
-      }),
+    const unsplit = (plane: number, warning: string): CorrectionPlacement => ({
+      plane,
+      weights: [],
+      massRatio: 1,
+      warnings: [warning],
+    });
+    if (plan.kind === 'nowhere') return of(corrections.map((weight) => unsplit(weight.plane, plan.reason)));
+    const failed = (plane: number, error: unknown) =>
+      unsplit(
+        plane,
+        `The split onto the allowed places could not be computed: ${
+          error instanceof Error ? error.message : String(error)
+        }`,
+      );
+    const requests = corrections.map((weight): CalcRequest<'split'> => ({
+      weight: { mass: weight.mass, angleDeg: weight.angleDeg },
+      ...plan.places,
+    }));
+    return calculateAll(solver, 'split', requests).pipe(
+      map((outcomes) =>
+        corrections.map((weight, index): CorrectionPlacement => {
+          const outcome = outcomes[index];
+          if (outcome === undefined) return failed(weight.plane, 'no answer came for it.');
+          return outcome.ok
+            ? { plane: weight.plane, ...outcome.result }
+            : failed(weight.plane, outcome.error);
+        }),
+      ),
+      catchError((error: unknown) => of(corrections.map((weight) => failed(weight.plane, error)))),
     );
   }
 
   private _fail(method: CalcMethod, solver: BalanceSolver, request: unknown, error: unknown): void {
-    const failure =
-      error instanceof BalanceSolverError
-        ? error
-        : new BalanceSolverError('server', 'The calculation failed. Try again, or compute on this device.', {
-            cause: error,
-          });
+    const failure = asSolverError(error);
     const unplaced: string[] = [];
     if (failure.reason === 'invalid') {
       const group = methodGroup(this._form, method);
