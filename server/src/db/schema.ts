@@ -90,10 +90,17 @@ export const apiUsage = sqliteTable(
     bytes: integer('bytes').notNull(),
     at: integer('at', { mode: 'timestamp_ms' }).notNull(),
     /**
-     * True for an item of a batch: a calculation answered inside a request that has a row of its own
-     * (`POST /api/v1/calc/batch`). The report counts requests over the other rows.
+     * True for a row of a batch's item, as the log wrote them before migration 0009 (one row per item
+     * beside the batch's own): a calculation, not a request. Rows written since are all requests.
      */
     batchItem: integer('batch_item', { mode: 'boolean' }).notNull().default(false),
+    /**
+     * The calculations the row stands for, as the key's limit counts them: 1 for a call of a calculator
+     * route, n for a batch of n items, 0 for any other request (and for a batch refused whole).
+     */
+    calculations: integer('calculations').notNull().default(0),
+    /** A batch's items answered with an error, counted by status (`{"400":2}`); null when there were none. */
+    itemErrors: text('item_errors', { mode: 'json' }).$type<Record<string, number>>(),
   },
   (table) => [index('api_usage_key_id_at_idx').on(table.keyId, table.at)],
 );
