@@ -1,10 +1,11 @@
-// `npm start`: builds the widget library and the workbench, then serves the app, the API and Swagger UI
-// from one Express process. The server migrates the SQLite file (created when absent) and seeds the demo
+// `npm start`: builds the widget library, the workbench and the server (compiled to JavaScript once,
+// dist/server/main.js, scripts/build-server.mjs), then serves the app, the API and Swagger UI from one
+// Express process running the compiled server, with no TypeScript compiled at run time. The server migrates the SQLite file (created when absent) and seeds the demo
 // data once. PORT, HOST and DATABASE_URL override the defaults (4300, localhost, data/counterpoise.sqlite).
 //
 // The server runs with NODE_ENV=production, where it seeds no demo data by default; `npm start` is how
 // people try Counterpoise, so it asks for the demo data (SEED_DEMO=true) unless SEED_DEMO is set.
-// SKIP_BUILD=true serves the build already in dist/ instead of building again.
+// SKIP_BUILD=true serves the library, app and docs already in dist/ instead of building them again.
 //
 // npm runs this script as `exec node scripts/start.mjs` (see package.json), so that this process is the
 // one npm waits for and signals; a SIGINT or SIGTERM is handed on to the build or the server under way,
@@ -52,6 +53,12 @@ const builds = [
   // The docs site and its widget catalogue (dist/docs), served at /docs (scripts/build-docs.mjs).
   { name: 'the docs site', args: [fileURLToPath(new URL('./build-docs.mjs', import.meta.url))] },
 ];
+/** The server compiled to JavaScript (scripts/build-server.mjs), what production runs. */
+const serverBuild = {
+  name: 'the server',
+  args: [fileURLToPath(new URL('./build-server.mjs', import.meta.url))],
+};
+const serverMain = join(root, 'dist/server/main.js');
 const skipBuild = ['true', '1', 'yes'].includes(process.env.SKIP_BUILD ?? '');
 
 if (skipBuild) {
@@ -59,18 +66,20 @@ if (skipBuild) {
   if (!existsSync(join(staticDir, 'index.html'))) {
     console.warn(`\nSKIP_BUILD: no built workbench in ${staticDir}; the API is served without it.`);
   }
-} else {
-  for (const build of builds) {
-    console.log(`\nBuilding ${build.name}…`);
-    const result = await run(build.args, { env });
-    if (stopSignal) {
-      console.error(`\n${stopSignal} received during the build; the server was not started.`);
-      exitLike({ code: null, signal: stopSignal });
-    }
-    if (result.code !== 0) {
-      console.error(`\nThe build of ${build.name} failed; the server was not started.`);
-      exitLike(result);
-    }
+}
+// The server is compiled at every start, SKIP_BUILD or not: it takes about a second, and a stale
+// dist/server would serve code older than the sources.
+const steps = skipBuild ? [serverBuild] : [...builds, serverBuild];
+for (const build of steps) {
+  console.log(`\nBuilding ${build.name}…`);
+  const result = await run(build.args, { env });
+  if (stopSignal) {
+    console.error(`\n${stopSignal} received during the build; the server was not started.`);
+    exitLike({ code: null, signal: stopSignal });
+  }
+  if (result.code !== 0) {
+    console.error(`\nThe build of ${build.name} failed; the server was not started.`);
+    exitLike(result);
   }
 }
 
@@ -79,8 +88,8 @@ if (process.env.SEED_DEMO === undefined) {
     '\nnpm start seeds the demo data for a local try (SEED_DEMO=true); SEED_DEMO=false starts without it.',
   );
 }
-// tsx runs in the server's own process (not a child of its CLI), so signals reach the graceful shutdown.
-const server = await run(['--import', 'tsx', 'server/src/main.ts'], {
+// The compiled server runs in this process's child, which signals reach for the graceful shutdown.
+const server = await run([serverMain], {
   env: { NODE_ENV: 'production', SEED_DEMO: 'true', ...env },
 });
 exitLike(server);

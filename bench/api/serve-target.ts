@@ -5,8 +5,12 @@
  *   counterpoise  the real app (helmet, key check, rate limit, usage log, validation, engine) over a
  *                 temporary SQLite file, with a key whose limit the benchmark cannot reach
  * Prints `LISTENING <port> [<api key>]` once ready; stops on SIGTERM, flushing the usage log.
+ * With BENCH_PROFILE=<file>, SIGUSR2 starts the CPU profiler (after the warm-up) and SIGTERM writes the
+ * profile to <file> before stopping (`bench/api/profile.ts`).
  */
+import { writeFileSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
+import { Session } from 'node:inspector';
 import type { AddressInfo } from 'node:net';
 import express from 'express';
 import { createApp } from '../../server/src/app';
@@ -17,15 +21,38 @@ import { UsageLog } from '../../server/src/usage/usage-log';
 
 const SMALL_JSON = JSON.stringify({ ok: true, message: 'hello' });
 
+const profileFile = process.env['BENCH_PROFILE'];
+const profiler = profileFile ? new Session() : undefined;
+if (profiler) {
+  profiler.connect();
+  process.on('SIGUSR2', () => {
+    profiler.post('Profiler.enable', () => profiler.post('Profiler.start'));
+  });
+}
+
+/** Writes the profile taken since SIGUSR2, if one was asked for, then calls `then`. */
+function writeProfile(then: () => void): void {
+  if (!profiler || !profileFile) {
+    then();
+    return;
+  }
+  profiler.post('Profiler.stop', (error, result) => {
+    if (!error) writeFileSync(profileFile, JSON.stringify(result.profile));
+    then();
+  });
+}
+
 function listen(server: Server, extra = '', onStop: () => void = () => undefined): void {
   server.listen(0, '127.0.0.1', () => {
     console.log(`LISTENING ${(server.address() as AddressInfo).port} ${extra}`.trim());
   });
   process.on('SIGTERM', () => {
-    server.close(() => {
-      onStop();
-      process.exit(0);
-    });
+    writeProfile(() =>
+      server.close(() => {
+        onStop();
+        process.exit(0);
+      }),
+    );
     server.closeAllConnections();
   });
 }

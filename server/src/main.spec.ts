@@ -235,7 +235,9 @@ describe('a stop signal sent to npm', { timeout: 120_000 }, () => {
 
     const tree = descendants(npmPid);
     // The node process itself, not a shell whose command line names it.
-    const serverProcess = tree.filter((row) => /^(\S*\/)?node .*server\/src\/main\.ts/.test(row.args));
+    const serverProcess = tree.filter((row) =>
+      /^(\S*\/)?node .*(server\/src\/main\.ts|dist\/server\/main\.js)/.test(row.args),
+    );
     expect(serverProcess, JSON.stringify(tree)).toHaveLength(1);
 
     process.kill(npmPid, 'SIGTERM');

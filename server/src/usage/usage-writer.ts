@@ -50,6 +50,15 @@ export interface UsageWriteAnswer {
   readonly error?: string;
 }
 
+/**
+ * The thread's entry: from the sources (tsx, vitest), a small `.mjs` that registers tsx in the thread
+ * before it loads `usage-writer.thread.ts`; in the compiled server (`scripts/build-server.mjs`), the
+ * compiled thread beside the bundle, which needs no loader.
+ */
+const THREAD_ENTRY = import.meta.url.endsWith('.ts')
+  ? new URL('./usage-writer.worker.mjs', import.meta.url)
+  : new URL('./usage-writer.thread.js', import.meta.url);
+
 /** The longest `drain()` blocks the event loop for a thread that does not answer. */
 const DRAIN_LIMIT_MS = 10_000;
 
@@ -83,8 +92,7 @@ export class WorkerUsageWriter implements UsageBatchWriter {
     this.signal = new Int32Array(shared);
     this.port = port1;
     const workerData: UsageWriterWorkerData = { path: database.sqlite.name, port: port2, signal: shared };
-    // The entry registers tsx in the thread, then runs usage-writer.thread.ts.
-    this.worker = new Worker(new URL('./usage-writer.worker.mjs', import.meta.url), {
+    this.worker = new Worker(THREAD_ENTRY, {
       workerData,
       transferList: [port2],
       execArgv: [],
