@@ -361,7 +361,7 @@ export function createApp(deps: AppDeps): Express {
 
   // The calculator first: its requests are the busy ones, and pass through no other router. It answers
   // every path under it (404 for a route it does not have), so nothing falls through to be logged twice.
-  app.use(CALC_BASE_PATH, keyed, requirePermission('calc:use'), calcRouter({ usage: usageLog, clock }));
+  app.use(CALC_BASE_PATH, keyed, requirePermission('calc:use'), calcRouter());
 
   // The signed-in routes, mounted ahead of the other keyed routes; a path they do not answer falls
   // through to them.

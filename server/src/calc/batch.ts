@@ -1,4 +1,3 @@
-import { performance } from 'node:perf_hooks';
 import {
   type BatchRequestSchema,
   calculate,
@@ -9,13 +8,7 @@ import {
 } from '@counterpoise/api';
 import type { Response } from 'express';
 import type * as z from 'zod';
-import type { Clock } from '../clock';
 import { sendJsonText } from '../http/json';
-import type { UsageSink } from '../http/keyed-request';
-import { unknownRouteLabel } from '../http/route-path';
-
-const CALC_ROUTE_PREFIX = 'POST /api/v1/calc/';
-const UNKNOWN_ROUTE = unknownRouteLabel('POST');
 
 function unknownRouteProblem(route: string): Problem {
   const message = `"${route}" is not a calculator route; use one of ${CALC_ROUTE_NAMES.join(', ')}.`;
@@ -30,45 +23,29 @@ function unknownRouteProblem(route: string): Problem {
 }
 
 /**
- * Answers every item of a batch on its own, in order, and logs one usage row per item (`batchItem`), as
- * each item is one calculation of the key's limit; the request itself gets its row from the usage
- * middleware, as every keyed request does, so that the report counts requests and calculations apart. An
- * item naming no calculator route is logged under the same fixed label as any unknown route. Each item's
- * JSON is written once and its length is the row's byte count, so the log costs no second serialisation.
- * The rows share the time of the request: its items are answered together. The caller has counted the
- * items against the limit (`takeBatchCalculations`) beforehand.
+ * Answers every item of a batch on its own, in order. The request's usage row (written by the usage
+ * middleware, as for every keyed request) carries the batch's calculations, one per item as the key's
+ * limit counts them, and its items' errors by status: `res.locals.batchUsage`. One row per request
+ * rather than one per item, so that a batch of a thousand costs the log one row. The caller has counted
+ * the items against the limit (`takeBatchCalculations`) beforehand.
  */
-export function answerBatch(
-  res: Response,
-  deps: { usage: UsageSink; clock: Clock },
-  items: z.output<typeof BatchRequestSchema>['items'],
-): void {
-  const key = res.locals.apiKey;
-  const at = deps.clock.now();
-  const parts: string[] = [];
+export function answerBatch(res: Response, items: z.output<typeof BatchRequestSchema>['items']): void {
+  const parts: string[] = new Array(items.length);
+  let itemErrors: Record<string, number> | undefined;
   for (let index = 0; index < items.length; index++) {
     const item = items[index]!;
-    const started = performance.now();
     const outcome: CalcOutcome | { status: 404; problem: Problem } = isCalcRouteName(item.route)
       ? calculate(item.route, item.body)
       : { status: 404, problem: unknownRouteProblem(item.route) };
     const id = item.id ?? String(index);
-    const json =
-      outcome.status === 200
-        ? JSON.stringify({ id, status: 200, result: outcome.result })
-        : JSON.stringify({ id, status: outcome.status, problem: outcome.problem });
-    parts.push(json);
-    if (key) {
-      deps.usage.record({
-        keyId: key.id,
-        route: isCalcRouteName(item.route) ? CALC_ROUTE_PREFIX + item.route : UNKNOWN_ROUTE,
-        status: outcome.status,
-        durationMs: performance.now() - started,
-        bytes: Buffer.byteLength(json),
-        at,
-        batchItem: true,
-      });
+    if (outcome.status === 200) {
+      parts[index] = JSON.stringify({ id, status: 200, result: outcome.result });
+    } else {
+      parts[index] = JSON.stringify({ id, status: outcome.status, problem: outcome.problem });
+      itemErrors ??= {};
+      itemErrors[outcome.status] = (itemErrors[outcome.status] ?? 0) + 1;
     }
   }
+  res.locals.batchUsage = { calculations: items.length, ...(itemErrors ? { itemErrors } : {}) };
   sendJsonText(res, `{"items":[${parts.join(',')}]}`);
 }

@@ -76,7 +76,7 @@ describe('the calculator behind API keys', () => {
     expect(revoked.status).toBe(403);
   });
 
-  it('logs one row per batch item, marked as an item, and one for the batch’s request', async () => {
+  it('logs one row for a batch’s request, with its calculations and its items’ errors by status', async () => {
     const { key, record } = createTestKey(temporary.database);
     const items = [
       { route: 'radius', body: CALC_ROUTES.radius.example },
@@ -92,17 +92,23 @@ describe('the calculator behind API keys', () => {
     usageLog.flush();
     const rows = temporary.database.sqlite
       .prepare(
-        'SELECT key_id AS keyId, route, status, batch_item AS batchItem, bytes FROM api_usage ORDER BY id',
+        'SELECT key_id AS keyId, route, status, batch_item AS batchItem, calculations, item_errors AS itemErrors, ' +
+          'bytes FROM api_usage ORDER BY id',
       )
       .all() as { keyId: number; route: string; status: number; batchItem: number; bytes: number }[];
+    // One row for the request, with its three calculations and the refused item by status.
     expect(rows.map(({ bytes: _bytes, ...row }) => row)).toEqual([
-      { keyId: record.id, route: 'POST /api/v1/calc/radius', status: 200, batchItem: 1 },
-      { keyId: record.id, route: 'POST /api/v1/calc/tolerance', status: 400, batchItem: 1 },
-      { keyId: record.id, route: 'POST /api/v1/calc/severity', status: 200, batchItem: 1 },
-      { keyId: record.id, route: 'POST /api/v1/calc/batch', status: 200, batchItem: 0 },
+      {
+        keyId: record.id,
+        route: 'POST /api/v1/calc/batch',
+        status: 200,
+        batchItem: 0,
+        calculations: 3,
+        itemErrors: '{"400":1}',
+      },
     ]);
     // The batch's row carries the whole answer's size.
-    expect(rows[3]?.bytes).toBe(Number(response.headers['content-length']));
+    expect(rows[0]?.bytes).toBe(Number(response.headers['content-length']));
   });
 
   it('answers 429 with Retry-After past the limit stored with the key', async () => {

@@ -126,7 +126,7 @@ describe('bodies the routes do not take', () => {
 });
 
 describe('POST /api/v1/calc/batch', () => {
-  it('answers every item on its own, in order, and logs one usage row per item, marked as an item', async () => {
+  it('answers every item on its own, in order, and logs one usage row with its calculations and its items’ errors', async () => {
     const { app, rows } = calcTestApp();
     const response = await post(
       'batch',
@@ -156,13 +156,11 @@ describe('POST /api/v1/calc/batch', () => {
     expect(ProblemSchema.parse(items[1]?.problem).errors?.[0]?.path).toBe('toRadius');
     expect(CALC_ROUTES['trial-weight'].response.safeParse(items[3]?.result).success).toBe(true);
 
-    expect(rows.map((row) => [row.keyId, row.route, row.status, row.batchItem])).toEqual([
-      [7, 'POST /api/v1/calc/single-plane', 200, true],
-      [7, 'POST /api/v1/calc/radius', 400, true],
-      [7, 'POST (unknown route)', 404, true],
-      [7, 'POST /api/v1/calc/trial-weight', 200, true],
+    // One row for the request: four calculations, the refused item and the unknown route by status.
+    expect(rows.map((row) => [row.keyId, row.route, row.status, row.calculations, row.itemErrors])).toEqual([
+      [7, 'POST /api/v1/calc/batch', 200, 4, { 400: 1, 404: 1 }],
     ]);
-    for (const row of rows) expect(row.bytes).toBeGreaterThan(10);
+    expect(rows[0]?.bytes).toBe(Number(response.headers['content-length']));
   });
 
   it('refuses more than 1,000 items, naming the list', async () => {
@@ -172,8 +170,22 @@ describe('POST /api/v1/calc/batch', () => {
   });
 
   it('takes 1,000 items in one request', async () => {
+    const { app, rows } = calcTestApp();
     const item = { route: 'single-plane', body: CALC_ROUTES['single-plane'].example };
-    const response = await post('batch', { items: Array.from({ length: 1000 }, () => item) }).expect(200);
+    const response = await post('batch', { items: Array.from({ length: 1000 }, () => item) }, app).expect(
+      200,
+    );
     expect(response.body.items).toHaveLength(1000);
+    expect(rows.map((row) => [row.route, row.calculations, row.itemErrors])).toEqual([
+      ['POST /api/v1/calc/batch', 1000, undefined],
+    ]);
+  });
+
+  it('logs a batch refused whole as a request that asked for no calculation', async () => {
+    const { app, rows } = calcTestApp();
+    await post('batch', { items: [] }, app).expect(400);
+    expect(rows.map((row) => [row.route, row.status, row.calculations])).toEqual([
+      ['POST /api/v1/calc/batch', 400, 0],
+    ]);
   });
 });

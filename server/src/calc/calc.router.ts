@@ -10,9 +10,7 @@ import {
 } from '@counterpoise/api';
 import express, { type RequestHandler } from 'express';
 import type * as z from 'zod';
-import type { Clock } from '../clock';
 import type { DispatchTable } from '../openapi/served-routes';
-import type { UsageSink } from '../http/keyed-request';
 import { inSequence } from '../http/in-sequence';
 import { normaliseRoutePath } from '../http/route-path';
 import { sendJsonText } from '../http/json';
@@ -96,7 +94,7 @@ calcRegistry.registerPath({
     'Up to 1,000 items, each `{ id?, route, body }` with `route` one of the calculator routes. Each item is ' +
     'validated and answered on its own, with the status that route alone would give; one bad item never ' +
     'fails the others. Each item is one calculation: a batch of n counts n against the key’s limit per ' +
-    'minute and in its usage, one row per item. A batch larger than what remains of the limit is refused ' +
+    'minute and in its usage. A batch larger than what remains of the limit is refused ' +
     'whole (429) before any item is computed.',
   security: API_KEY_SECURITY,
   request: {
@@ -130,15 +128,15 @@ calcRegistry.registerPath({
  * behind the API-key, rate-limit and usage middleware. One lookup in a table finds the route, where a
  * router would try each route's pattern in turn: these are the API's busiest requests. Every path under
  * the mount is answered here: another method gets 405, an unknown route 404. A batch counts its items
- * against the key's limit once they are validated, before computing any, and logs its own usage rows, one
- * per item.
+ * against the key's limit once they are validated, before computing any, and leaves its calculations and
+ * its items' errors for the request's usage row.
  *
  * It is not a `RouteTable` on purpose: a table mounts one Express route per declaration, and `npm run
  * bench:api` showed the single lookup answering these requests measurably faster than Express matching
  * their patterns. It stays held to the documentation all the same: `servedRoutes` declares what it
  * answers, and the documentation test compares that with the OpenAPI document.
  */
-export function calcRouter(deps: { usage: UsageSink; clock: Clock }): RequestHandler & DispatchTable {
+export function calcRouter(): RequestHandler & DispatchTable {
   const parseCalc = express.json({ limit: CALC_BODY_LIMIT, type: () => true });
   const answers = new Map<string, RequestHandler>();
   answers.set(
@@ -151,7 +149,7 @@ export function calcRouter(deps: { usage: UsageSink; clock: Clock }): RequestHan
         const { items } = res.locals.body as z.output<typeof BatchRequestSchema>;
         const refusal = takeBatchCalculations(res, items.length);
         if (refusal) next(refusal);
-        else answerBatch(res, deps, items);
+        else answerBatch(res, items);
       },
     ),
   );

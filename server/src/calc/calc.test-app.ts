@@ -2,11 +2,14 @@ import express, { type Express } from 'express';
 import type { Clock } from '../clock';
 import type { UsageRow, UsageSink } from '../http/keyed-request';
 import { apiNotFound, problemHandler } from '../http/problem';
-import { calcRouter } from './calc.router';
+import { normaliseRoutePath } from '../http/route-path';
+import { recordUsage } from '../usage/usage.recorder';
+import { CALC_BASE_PATH, calcRouter } from './calc.router';
 
 /**
  * The calculator routes alone, behind a stand-in for the key middleware that marks every request as made
- * with key 7, and a usage sink that keeps its rows in memory: for the router's own specs. The routes behind
+ * with key 7, and the usage recorder writing to a sink that keeps its rows in memory: for the router's own
+ * specs. The routes behind
  * the real key, limit and usage middleware are exercised through `createApp` in the API specs.
  */
 export function calcTestApp(clock: Clock = { now: () => new Date('2026-06-01T08:00:00Z') }): {
@@ -20,7 +23,10 @@ export function calcTestApp(clock: Clock = { now: () => new Date('2026-06-01T08:
     res.locals.apiKey = { id: 7, name: 'spec', prefix: 'cpk_spec', limitPerMinute: 1000 };
     next();
   });
-  app.use('/api/v1/calc', calcRouter({ usage, clock }));
+  const router = calcRouter();
+  const documented = new Set(router.servedRoutes.map((route) => normaliseRoutePath(route.path)));
+  app.use(recordUsage(usage, clock, documented));
+  app.use(CALC_BASE_PATH, router);
   app.use('/api', apiNotFound);
   app.use(problemHandler(() => undefined));
   return { app, rows };

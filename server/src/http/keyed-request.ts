@@ -13,18 +13,23 @@ export interface ApiKeyIdentity {
   readonly limitPerMinute: number;
 }
 
-/** One row of the usage log: one keyed request, or one item of a batch. */
+/** One row of the usage log: one keyed request, with the calculations it carried. */
 export interface UsageRow {
   readonly keyId: number;
-  /** The route as documented, e.g. `POST /api/v1/calc/single-plane`; a batch item names its own route. */
+  /** The route as documented, e.g. `POST /api/v1/calc/single-plane`. */
   readonly route: string;
   readonly status: number;
   readonly durationMs: number;
-  /** Bytes of the response body (for a batch item, of its own result or problem). */
+  /** Bytes of the response body. */
   readonly bytes: number;
   readonly at: Date;
-  /** True for an item of a batch, whose request (`POST /api/v1/calc/batch`) has a row of its own. */
-  readonly batchItem?: boolean;
+  /**
+   * Calculations the request carried, as the key's limit counts them: 1 for a call of a calculator
+   * route (refused or not), n for a batch of n items it answered, 0 for anything else.
+   */
+  readonly calculations: number;
+  /** A batch's items answered with an error, counted by status (`{ "400": 2 }`); absent when none. */
+  readonly itemErrors?: Readonly<Record<string, number>>;
 }
 
 /** Where usage rows go; recording never blocks the response. */
@@ -41,6 +46,11 @@ declare global {
       apiKey?: ApiKeyIdentity;
       /** Set by a handler that logged its own usage rows instead of the request's one. */
       usageRecorded?: boolean;
+      /**
+       * Set by the batch route once it has answered its items: the calculations its request carried and
+       * the items' errors, for the request's usage row.
+       */
+      batchUsage?: { readonly calculations: number; readonly itemErrors?: Record<string, number> };
     }
   }
 }

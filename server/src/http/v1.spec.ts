@@ -106,6 +106,7 @@ describe('routes mounted on the keyed chain', () => {
           route: `POST /api/v1/calc/batch#${index}`,
           status: 200,
           durationMs: 0.1,
+          calculations: 1,
           bytes: 10,
           at: clock.now(),
         });

@@ -24,6 +24,7 @@ const row = (atMs: number, status = 200): UsageRow => ({
   keyId,
   route: 'POST /api/v1/calc/single-plane',
   status,
+  calculations: 1,
   durationMs: 0.75,
   bytes: 180,
   at: new Date(atMs),

@@ -28,6 +28,7 @@ const row = (atMs: number): UsageRow => ({
   keyId,
   route: 'POST /api/v1/calc/batch',
   status: 200,
+  calculations: 1,
   durationMs: 0.02,
   bytes: 410,
   at: new Date(atMs),

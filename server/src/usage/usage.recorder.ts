@@ -1,3 +1,4 @@
+import { CALC_ROUTE_NAMES } from '@counterpoise/api';
 import type { Request, RequestHandler, Response } from 'express';
 import type { Clock } from '../clock';
 import type { UsageSink } from '../http/keyed-request';
@@ -27,6 +28,11 @@ function routeOf(req: Request, documented: ReadonlySet<string>): string {
   return documented.has(path) ? `${req.method} ${path}` : unknownRouteLabel(req.method);
 }
 
+/** The routes a call of which is one calculation, as usage rows name them. */
+const CALCULATOR_ROUTES: ReadonlySet<string> = new Set(
+  CALC_ROUTE_NAMES.map((name) => `POST /api/v1/calc/${name}`),
+);
+
 function bytesOf(res: Response): number {
   const length = res.getHeader('content-length');
   const bytes = typeof length === 'number' ? length : Number(length);
@@ -36,8 +42,9 @@ function bytesOf(res: Response): number {
 /**
  * Records one usage row for every request that the key check let through, when its answer has been
  * handed to the network ('finish'), so the row has the final status and size and the response waits
- * for nothing. A batch's request gets its row here too; its items get theirs from the batch route
- * (`batchItem`). A handler that logged the request's row itself sets `res.locals.usageRecorded` and this
+ * for nothing. The row carries the request's calculations: one for a call of a calculator route, and
+ * for a batch the count and the items' errors its route left in `res.locals.batchUsage` (none for a
+ * batch refused whole). A handler that logged the request's row itself sets `res.locals.usageRecorded` and this
  * one stays silent. A request whose client went away before the
  * answer was sent got no answer and leaves no row. Rows name only `documented` paths (see `routeOf`),
  * so that made-up paths cannot fill the usage table with strings of the caller's choosing.
@@ -49,13 +56,17 @@ export function recordUsage(sink: UsageSink, clock: Clock, documented: ReadonlyS
       const startedAt = performance.now();
       res.once('finish', () => {
         if (res.locals.usageRecorded === true) return;
+        const route = routeOf(req, documented);
+        const batch = res.locals.batchUsage;
         sink.record({
           keyId: apiKey.id,
-          route: routeOf(req, documented),
+          route,
           status: res.statusCode,
           durationMs: performance.now() - startedAt,
           bytes: bytesOf(res),
           at: clock.now(),
+          calculations: batch?.calculations ?? (CALCULATOR_ROUTES.has(route) ? 1 : 0),
+          ...(batch?.itemErrors ? { itemErrors: batch.itemErrors } : {}),
         });
       });
     }

@@ -1,5 +1,5 @@
-import { and, asc, desc, eq, gte, inArray, lt, type SQL, sql } from 'drizzle-orm';
-import { CALC_ROUTE_NAMES, type UsageGrouping } from '@counterpoise/api';
+import { and, asc, desc, eq, gte, inArray, isNotNull, lt, type SQL, sql } from 'drizzle-orm';
+import type { UsageGrouping } from '@counterpoise/api';
 import type { Orm } from '../db/database';
 import { apiKeys, apiUsage } from '../db/schema';
 import type { UsageRow } from '../http/keyed-request';
@@ -25,25 +25,32 @@ export interface UsageStatusRow {
   readonly answers: number;
 }
 
-/** The routes whose calls are calculations, as usage rows name them. */
-const CALCULATOR_ROUTES = CALC_ROUTE_NAMES.map((name) => `POST /api/v1/calc/${name}`);
-
-/** A row that stands for a request of its own, not an item inside a batch. */
+/**
+ * A row that stands for a request of its own: every row written since migration 0009, and of the rows
+ * written before it those that were not a batch's item.
+ */
 const IS_REQUEST = sql`(${apiUsage.batchItem} = 0)`;
+
+/** How many of a row's batch items were answered with a status in `[low, high]`. */
+const itemErrorsBetween = (low: number, high: number) =>
+  sql`(select total(value) from json_each(${apiUsage.itemErrors}) where cast(key as integer) between ${low} and ${high})`;
 
 /**
  * Requests and their bytes and durations are summed over the rows of requests: a batch is one request,
- * answered and timed whole. Calculations are every item of a batch and every call of a calculator route,
- * as a key's limit counts them. Errors are counted over answers: a request's, and each batch item's own.
+ * answered and timed whole. Calculations are what each row carried, as a key's limit counts them (a call
+ * of a calculator route one, a batch of n items n). Errors are counted over answers: a request's, and
+ * each batch item's own (its row's `item_errors`).
  */
 const FIGURES = {
   requests: sql<number>`total(${IS_REQUEST})`.mapWith(Number),
-  calculations:
-    sql<number>`total(${apiUsage.batchItem} = 1 or ${inArray(apiUsage.route, CALCULATOR_ROUTES)})`.mapWith(
+  calculations: sql<number>`total(${apiUsage.calculations})`.mapWith(Number),
+  clientErrors:
+    sql<number>`total(${apiUsage.status} between 400 and 499) + total(${itemErrorsBetween(400, 499)})`.mapWith(
       Number,
     ),
-  clientErrors: sql<number>`total(${apiUsage.status} between 400 and 499)`.mapWith(Number),
-  serverErrors: sql<number>`total(${apiUsage.status} >= 500)`.mapWith(Number),
+  serverErrors: sql<number>`total(${apiUsage.status} >= 500) + total(${itemErrorsBetween(500, 599)})`.mapWith(
+    Number,
+  ),
   rateLimited: sql<number>`total(${apiUsage.status} = 429)`.mapWith(Number),
   bytes: sql<number>`total(case when ${IS_REQUEST} then ${apiUsage.bytes} end)`.mapWith(Number),
   totalDurationMs: sql<number>`total(case when ${IS_REQUEST} then ${apiUsage.durationMs} end)`.mapWith(
@@ -55,7 +62,8 @@ const FIGURES = {
 
 /**
  * A batch of usage rows in the form the insert takes: one JSON array of [keyId, route, status, durationMs,
- * bytes, atMs, batchItem (0 or 1)], and each key's latest use. Plain data, so that it can travel to the writer's thread.
+ * bytes, atMs, calculations, itemErrors (an object, or null)], and each key's latest use. Plain data, so
+ * that it can travel to the writer's thread.
  */
 export interface PackedUsageRows {
   readonly count: number;
@@ -66,7 +74,7 @@ export interface PackedUsageRows {
 /** Packs rows for `insertPacked`. */
 export function packUsageRows(rows: readonly UsageRow[]): PackedUsageRows {
   const lastUsedMs = new Map<number, number>();
-  const packed: (number | string)[][] = new Array(rows.length);
+  const packed: unknown[][] = new Array(rows.length);
   for (let index = 0; index < rows.length; index++) {
     const row = rows[index]!;
     const atMs = row.at.getTime();
@@ -78,7 +86,8 @@ export function packUsageRows(rows: readonly UsageRow[]): PackedUsageRows {
       row.durationMs,
       row.bytes,
       atMs,
-      row.batchItem ? 1 : 0,
+      row.calculations,
+      row.itemErrors ?? null,
     ];
   }
   return { count: rows.length, json: JSON.stringify(packed), lastUsedMs: [...lastUsedMs] };
@@ -99,14 +108,14 @@ export class UsageRepo {
 
   constructor(private readonly orm: Orm) {
     // Prepared once. A flush writes all its rows with one statement: they travel as one JSON array of
-    // [keyId, route, status, durationMs, bytes, atMs, batchItem] and SQLite's json_each unpacks them, which costs
-    // far less per row than running an INSERT for each (the usage log writes one row per batch item).
-    // The id column is left for SQLite to assign.
+    // [keyId, route, status, durationMs, bytes, atMs, calculations, itemErrors] and SQLite's json_each
+    // unpacks them, which costs far less per row than running an INSERT for each. The id column is left
+    // for SQLite to assign; batch_item is 0, as every row is a request's (see the schema).
     this.insertRows = orm
       .insert(apiUsage)
       .select(
-        sql`select null, value ->> 0, value ->> 1, value ->> 2, value ->> 3, value ->> 4, value ->> 5,
-              value ->> 6
+        sql`select null, value ->> 0, value ->> 1, value ->> 2, value ->> 3, value ->> 4, value ->> 5, 0,
+              value ->> 6, value ->> 7
             from json_each(${sql.placeholder('rows')})`,
       )
       .prepare();
@@ -164,7 +173,7 @@ export class UsageRepo {
 
   /**
    * The answers with an error status (400 or more) in `[from, to)`, counted per group (named as in
-   * `groups`) and status, statuses in order.
+   * `groups`) and status, statuses in order: requests' answers, and each batch item's by its own status.
    */
   errorStatuses(
     scope: number | { readonly organisationId: number },
@@ -172,26 +181,56 @@ export class UsageRepo {
     to: Date,
     groupBy: UsageGrouping,
   ): UsageStatusRow[] {
-    const where = and(this.span(scope, from, to), gte(apiUsage.status, 400));
+    const span = this.span(scope, from, to);
+    const where = and(span, gte(apiUsage.status, 400));
     const answers = sql<number>`count(*)`.mapWith(Number);
+    // The items of batches, by the status each was answered with: one row of json_each per status.
+    const itemStatus = sql<number>`cast(item.key as integer)`.mapWith(Number);
+    const itemAnswers = sql<number>`total(item.value)`.mapWith(Number);
+    const items = sql`json_each(${apiUsage.itemErrors}) as item`;
+    let requests: UsageStatusRow[];
+    let itemRows: UsageStatusRow[];
     if (groupBy === 'key') {
-      return this.orm
+      requests = this.orm
         .select({ group: apiKeys.prefix, status: apiUsage.status, answers })
         .from(apiUsage)
         .innerJoin(apiKeys, eq(apiKeys.id, apiUsage.keyId))
         .where(where)
         .groupBy(apiUsage.keyId, apiUsage.status)
-        .orderBy(asc(apiUsage.status))
         .all();
+      itemRows = this.orm.all<UsageStatusRow>(
+        sql`select ${apiKeys.prefix} as "group", ${itemStatus} as status, ${itemAnswers} as answers
+            from ${apiUsage} inner join ${apiKeys} on ${eq(apiKeys.id, apiUsage.keyId)}, ${items}
+            where ${and(span, isNotNull(apiUsage.itemErrors))}
+            group by ${apiUsage.keyId}, status`,
+      );
+    } else {
+      const group = groupOf(groupBy);
+      requests = this.orm
+        .select({ group, status: apiUsage.status, answers })
+        .from(apiUsage)
+        .where(where)
+        .groupBy(group, apiUsage.status)
+        .all();
+      itemRows = this.orm.all<UsageStatusRow>(
+        sql`select ${group} as "group", ${itemStatus} as status, ${itemAnswers} as answers
+            from ${apiUsage}, ${items}
+            where ${and(span, isNotNull(apiUsage.itemErrors))}
+            group by 1, 2`,
+      );
     }
-    const group = groupOf(groupBy);
-    return this.orm
-      .select({ group, status: apiUsage.status, answers })
-      .from(apiUsage)
-      .where(where)
-      .groupBy(group, apiUsage.status)
-      .orderBy(asc(apiUsage.status))
-      .all();
+    const merged = new Map<string, UsageStatusRow>();
+    for (const row of [...requests, ...itemRows]) {
+      const at = `${row.status} ${row.group}`;
+      const found = merged.get(at);
+      const answered = Number(row.answers);
+      merged.set(at, {
+        group: row.group,
+        status: Number(row.status),
+        answers: (found?.answers ?? 0) + answered,
+      });
+    }
+    return [...merged.values()].sort((a, b) => a.status - b.status);
   }
 
   /** The rows of one key, or of every key of an organisation, in `[from, to)`. */

@@ -33,23 +33,30 @@ beforeEach(() => {
   keyId = created.record.id;
   otherKeyId = createTestKey(temporary.database, { name: 'Someone else' }).record.id;
 
-  // key, time, route, status, duration in ms, bytes, and whether the row is a batch's item
-  const rows: [number, string, string, number, number, number, boolean?][] = [
-    [keyId, '2026-05-01T08:00:00Z', CALC, 200, 1, 100],
-    [keyId, '2026-05-01T23:59:59.999Z', CALC, 422, 3, 50],
-    [keyId, '2026-05-02T00:00:00Z', TWO, 200, 2, 300],
-    // A batch of two, one item refused: two calculations in one request of its own.
-    [keyId, '2026-05-02T12:00:00Z', CALC, 200, 0.5, 80, true],
-    [keyId, '2026-05-02T12:00:00Z', TWO, 422, 0.25, 60, true],
-    [keyId, '2026-05-02T12:00:00Z', BATCH, 200, 2, 160],
-    [keyId, '2026-05-02T13:00:00Z', USAGE, 200, 1, 500],
-    [keyId, '2026-05-03T10:00:00Z', CALC, 429, 0.5, 40],
-    [keyId, '2026-05-03T11:00:00Z', TWO, 500, 4, 30],
-    [keyId, '2026-03-01T10:00:00Z', CALC, 200, 1, 100],
-    [otherKeyId, '2026-05-02T10:00:00Z', CALC, 200, 1, 999],
+  // key, time, route, status, duration in ms, bytes, calculations, and a batch's items' errors
+  const rows: [number, string, string, number, number, number, number, Record<string, number>?][] = [
+    [keyId, '2026-05-01T08:00:00Z', CALC, 200, 1, 100, 1],
+    [keyId, '2026-05-01T23:59:59.999Z', CALC, 422, 3, 50, 1],
+    [keyId, '2026-05-02T00:00:00Z', TWO, 200, 2, 300, 1],
+    // A batch of two, one item refused: two calculations in one request.
+    [keyId, '2026-05-02T12:00:00Z', BATCH, 200, 2, 160, 2, { 422: 1 }],
+    [keyId, '2026-05-02T13:00:00Z', USAGE, 200, 1, 500, 0],
+    [keyId, '2026-05-03T10:00:00Z', CALC, 429, 0.5, 40, 1],
+    [keyId, '2026-05-03T11:00:00Z', TWO, 500, 4, 30, 1],
+    [keyId, '2026-03-01T10:00:00Z', CALC, 200, 1, 100, 1],
+    [otherKeyId, '2026-05-02T10:00:00Z', CALC, 200, 1, 999, 1],
   ];
-  for (const [id, at, route, status, durationMs, bytes, batchItem] of rows) {
-    usageLog.record({ keyId: id, at: new Date(at), route, status, durationMs, bytes, batchItem });
+  for (const [id, at, route, status, durationMs, bytes, calculations, itemErrors] of rows) {
+    usageLog.record({
+      keyId: id,
+      at: new Date(at),
+      route,
+      status,
+      durationMs,
+      bytes,
+      calculations,
+      ...(itemErrors ? { itemErrors } : {}),
+    });
   }
   usageLog.flush();
 });
@@ -134,7 +141,7 @@ describe('GET /api/v1/usage', () => {
     });
   });
 
-  it('groups by route, busiest first, a batch’s items under their own routes as calculations', async () => {
+  it('groups by route, busiest first, a batch’s calculations and items’ errors under the batch', async () => {
     const report = UsageReportSchema.parse((await usage('?groupBy=route').expect(200)).body);
     expect(
       report.groups.map((group) => [group.group, group.requests, group.calculations, group.errorsByStatus]),
@@ -142,23 +149,15 @@ describe('GET /api/v1/usage', () => {
       [
         CALC,
         3,
-        4,
+        3,
         [
           { status: 422, answers: 1 },
           { status: 429, answers: 1 },
         ],
       ],
-      [
-        TWO,
-        2,
-        3,
-        [
-          { status: 422, answers: 1 },
-          { status: 500, answers: 1 },
-        ],
-      ],
+      [TWO, 2, 2, [{ status: 500, answers: 1 }]],
       [USAGE, 1, 0, []],
-      [BATCH, 1, 0, []],
+      [BATCH, 1, 2, [{ status: 422, answers: 1 }]],
     ]);
     expect(report.total).toMatchObject({ requests: 7, calculations: 7 });
   });
@@ -297,10 +296,11 @@ describe('the report of requests made at once', () => {
       ],
     });
     expect(report.groups.map((group) => [group.group, group.requests, group.calculations])).toEqual([
-      [CALC, 12 + 6 + 12, 12 + 6 + 8 + 12],
-      [BATCH, 4, 0],
-      ['POST /api/v1/calc/radius', 0, 4],
+      [CALC, 12 + 6 + 12, 12 + 6 + 12],
+      [BATCH, 4, 12],
     ]);
+    // One row per request: the batches' items have none of their own.
+    expect(new UsageRepo(temporary.database.orm).count()).toBe(9 + 22 + 12);
   });
 });
 
