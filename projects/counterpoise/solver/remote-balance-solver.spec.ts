@@ -12,8 +12,7 @@ import { BALANCE_SOLVER, type BalanceSolverOutcome } from './balance-solver';
 import { BalanceSolverError } from './balance-solver-error';
 import type { CounterpoiseConfig } from './counterpoise-config';
 import { provideCounterpoise } from './provide-counterpoise';
-import { RemoteBalanceSolver } from './remote-balance-solver';
-import { API_KEY_HEADER_NAME } from './remote-calls';
+import { API_KEY_HEADER_NAME, RemoteBalanceSolver } from './remote-balance-solver';
 
 const KEY = 'cpk_AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA';
 const URL = 'https://calc.example.net/api/v1/calc/single-plane';
@@ -38,10 +37,7 @@ function setUp(config: Partial<CounterpoiseConfig> = {}) {
   return { solver: TestBed.inject(BALANCE_SOLVER), http: TestBed.inject(HttpTestingController) };
 }
 
-/**
- * The one request to `url`, once the solver has sent it: the code that sends requests loads on first use
- * (a chunk of its own), so a request goes out a few ticks after the subscription.
- */
+/** The one request to `url`, once the solver has sent it. */
 function sent(http: HttpTestingController, url: string): Promise<TestRequest> {
   return vi.waitFor(() => http.expectOne(url));
 }
