@@ -1,6 +1,5 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { twoPlane } from '../../bench/engine/engine-inputs';
 import type { WeightAngles } from './conventions';
 import { conditionNumber, complexMatrix } from './linalg';
 import {
@@ -12,6 +11,31 @@ import {
 import { multiPlaneByLeastSquares } from './multi-plane-least-squares';
 import { solveSquareTwoPlane } from './multi-plane-square';
 import { add, magnitude, multiply, phasor, phasorToReading, type Phasor } from './phasor';
+
+/** The benchmark's system (bench/engine/engine-inputs.ts): two planes, two sensors, one trial run per plane. */
+const twoPlane: MultiPlaneInput = {
+  planes: 2,
+  initial: [
+    { amplitude: 7.1, phaseDeg: 60 },
+    { amplitude: 5.4, phaseDeg: 215 },
+  ],
+  runs: [
+    {
+      weights: [{ plane: 1, mass: 8, angleDeg: 270 }],
+      readings: [
+        { amplitude: 9.1, phaseDeg: 110 },
+        { amplitude: 4.2, phaseDeg: 225 },
+      ],
+    },
+    {
+      weights: [{ plane: 2, mass: 10, angleDeg: 180 }],
+      readings: [
+        { amplitude: 6.0, phaseDeg: 35 },
+        { amplitude: 2.2, phaseDeg: 160 },
+      ],
+    },
+  ],
+};
 
 const amp = fc.double({ min: 0.1, max: 20, noNaN: true });
 const ang = fc.double({ min: -720, max: 720, noNaN: true });
