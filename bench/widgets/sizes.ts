@@ -1,8 +1,10 @@
 // `npm run bench:sizes`: what each entry point of @counterpoise/ng costs a dealer's app beyond Angular and
 // Material. Each entry of the built package (dist/counterpoise, `npm run build:lib`) is linked by Angular's
 // linker as an app build would, bundled alone with esbuild (production mode, every export kept, minified);
-// the sizes go to the console and to the "Widget sizes" section of docs/benchmarks.md. A figure, not a
-// test: the target (under 30 kB gzipped per widget) is read, not asserted.
+// the sizes go to the console and to the "Widget sizes" section of docs/benchmarks.md. Then a dealer's app
+// with the weight calculator is built by the Angular CLI and visited in Chromium, computing remotely and on
+// the device (remote-dealer-app.ts): what a page downloads, Angular included. Figures, not a test: the
+// target (under 30 kB gzipped per widget) is read, not asserted.
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -10,6 +12,7 @@ import { constants, gzipSync } from 'node:zlib';
 import { transformAsync } from '@babel/core';
 import { createEs2015LinkerPlugin } from '@angular/compiler-cli/linker/babel';
 import { build, type Plugin } from 'esbuild';
+import { type DealerAppSizes, type DealerAppVariant, measureDealerApp } from './remote-dealer-app';
 
 const ROOT = fileURLToPath(new URL('../..', import.meta.url));
 const LIBRARY = join(ROOT, 'dist', 'counterpoise');
@@ -181,7 +184,42 @@ function sizesTable(sizes: readonly EntrySize[]): string {
   ].join('\n');
 }
 
-function section(sizes: readonly EntrySize[]): string {
+const DEALER_APPS: Record<DealerAppVariant, string> = {
+  remote: "remote only: `provideCounterpoise({ solver: 'remote', … })`",
+  default: 'on the device: no `provideCounterpoise()`, the default engine',
+};
+
+/** The Markdown table of the dealer apps' downloads. */
+function appsTable(apps: ReadonlyMap<DealerAppVariant, DealerAppSizes>): string {
+  const rows = [...apps].map(([variant, app]) => {
+    const inFirstLoad = (what: string) =>
+      app.scripts.some((script) => script.initial && script.holds.includes(what)) ? 'yes' : 'no';
+    const engineFetched = app.scripts.some((script) => script.fetched && script.holds.includes('cp/api'));
+    return `| ${DEALER_APPS[variant]} | ${kB(app.firstLoad)} | ${kB(app.visit)} | ${kB(app.built)} | ${inFirstLoad('HttpClient')} | ${engineFetched ? 'yes' : 'no'} |`;
+  });
+  return [
+    '| dealer app with the weight calculator | first load, gzipped kB | a visit left idle, gzipped kB | every script built, gzipped kB | HttpClient in the first load | engine and schemas fetched |',
+    '| --- | ---: | ---: | ---: | :---: | :---: |',
+    ...rows,
+  ].join('\n');
+}
+
+/** Each script of each dealer app: when it loads and what it holds. */
+function scriptsList(apps: ReadonlyMap<DealerAppVariant, DealerAppSizes>): string {
+  return [...apps]
+    .map(([variant, app]) =>
+      [
+        `${variant}:`,
+        ...app.scripts.map(
+          (script) =>
+            `  ${script.initial ? 'first load' : script.fetched ? 'when idle ' : 'not loaded'}  ${kB(script.gzipped).padStart(6)} kB  ${script.holds || '(shared helpers)'}`,
+        ),
+      ].join('\n'),
+    )
+    .join('\n');
+}
+
+function section(sizes: readonly EntrySize[], apps: ReadonlyMap<DealerAppVariant, DealerAppSizes>): string {
   return [
     START,
     '## Widget sizes',
@@ -191,14 +229,28 @@ function section(sizes: readonly EntrySize[]): string {
     'minified, split at dynamic imports, every export kept, so an app that imports less pays less); each file',
     'is gzipped at level 9. "First load" is what a page loads with the widget: the entry and everything it',
     'imports statically, other entries of the package included (the calculator embeds the dial and the',
-    'overlay). "Loaded when idle" is `@counterpoise/ng/api` (zod, the schemas, the engine): the engines import it',
-    'dynamically and start loading it once the browser is idle, so it is there for the first calculation and',
-    'for work without a connection later, but not in the way of the first render. "Own code" leaves the other',
-    'entries and zod out. Target: under 30 kB gzipped per widget at first load.',
+    'overlay). "Loaded when idle" is what the entry imports dynamically: `@counterpoise/ng/api` (zod, the',
+    'schemas, the engine), which the local engine starts loading once the browser is idle, so that it is there',
+    'for the first calculation and for work without a connection later (the remote engine never loads it);',
+    'and the calculator\'s overlay. "Own code" leaves the other entries and zod out. Target: under 30 kB',
+    'gzipped per widget at first load.',
     '',
     'Command: `npm run build:lib && npm run bench:sizes` (updates this section).',
     '',
     sizesTable(sizes),
+    '',
+    "A dealer's app, Angular included: one page with the weight calculator, built by the Angular CLI",
+    '(production) against the built package, served and opened in headless Chromium with a fresh profile and',
+    'left alone for 5 s. "First load" is the scripts of its `index.html`; "a visit left idle" adds what the',
+    'page fetched on its own after that; "every script built" adds what only a need loads (the engine, for the',
+    'remote app: only when the service cannot be reached and the calculator offers the device). Scripts',
+    'gzipped at level 9, each apart.',
+    '',
+    appsTable(apps),
+    '',
+    '```text',
+    scriptsList(apps),
+    '```',
     '',
     `Measured ${new Date().toISOString().slice(0, 10)} on Node ${process.versions.node}.`,
     END,
@@ -221,6 +273,11 @@ if (!existsSync(join(LIBRARY, 'package.json'))) {
 }
 const sizes = await measureEntries();
 console.log(sizesTable(sizes));
+const apps = new Map<DealerAppVariant, DealerAppSizes>();
+for (const variant of ['remote', 'default'] as const) {
+  apps.set(variant, await measureDealerApp(ROOT, LIBRARY, variant));
+}
+console.log(`\n${appsTable(apps)}\n\n${scriptsList(apps)}`);
 const current = existsSync(DOC) ? readFileSync(DOC, 'utf8') : '# Benchmarks\n';
-writeFileSync(DOC, withSection(current, section(sizes)));
+writeFileSync(DOC, withSection(current, section(sizes, apps)));
 console.log(`\nWritten to ${DOC}.`);
