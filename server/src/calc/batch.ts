@@ -3,12 +3,14 @@ import {
   calculate,
   CALC_ROUTE_NAMES,
   type CalcOutcome,
+  type CalcRouteName,
   isCalcRouteName,
   type Problem,
 } from '@counterpoise/api';
 import type { Response } from 'express';
 import type * as z from 'zod';
 import { sendJsonText } from '../http/json';
+import { answerSerializer } from './serializers';
 
 function unknownRouteProblem(route: string): Problem {
   const message = `"${route}" is not a calculator route; use one of ${CALC_ROUTE_NAMES.join(', ')}.`;
@@ -34,12 +36,15 @@ export function answerBatch(res: Response, items: z.output<typeof BatchRequestSc
   let itemErrors: Record<string, number> | undefined;
   for (let index = 0; index < items.length; index++) {
     const item = items[index]!;
-    const outcome: CalcOutcome | { status: 404; problem: Problem } = isCalcRouteName(item.route)
-      ? calculate(item.route, item.body)
+    const known = isCalcRouteName(item.route);
+    const outcome: CalcOutcome | { status: 404; problem: Problem } = known
+      ? calculate(item.route as CalcRouteName, item.body)
       : { status: 404, problem: unknownRouteProblem(item.route) };
     const id = item.id ?? String(index);
     if (outcome.status === 200) {
-      parts[index] = JSON.stringify({ id, status: 200, result: outcome.result });
+      // The result written by its route's compiled serializer, as the route alone would answer it.
+      const result = answerSerializer(item.route as CalcRouteName)(outcome.result);
+      parts[index] = `{"id":${JSON.stringify(id)},"status":200,"result":${result}}`;
     } else {
       parts[index] = JSON.stringify({ id, status: outcome.status, problem: outcome.problem });
       itemErrors ??= {};

@@ -19,6 +19,7 @@ import { validateBody } from '../http/validate';
 import { takeBatchCalculations } from '../keys/api-key.rate-limit';
 import { API_KEY_SECURITY, KEYED_ROUTE_RESPONSES, RATE_LIMIT_HEADERS } from '../keys/keys.openapi';
 import { answerBatch } from './batch';
+import { answerSerializer } from './serializers';
 
 /** Where the calculator routes are mounted. */
 export const CALC_BASE_PATH = '/api/v1/calc';
@@ -154,12 +155,14 @@ export function calcRouter(): RequestHandler & DispatchTable {
     ),
   );
   for (const name of CALC_ROUTE_NAMES) {
+    // Compiled from the route's response schema (serializers.ts).
+    const serialize = answerSerializer(name);
     answers.set(
       `/${name}`,
       inSequence(requireJsonBody, parseCalc, (req, res, next) => {
         // calculate() validates with the route's schema and computes, as the batch does for each item.
         const outcome = calculate(name, req.body);
-        if (outcome.status === 200) sendJsonText(res, JSON.stringify(outcome.result));
+        if (outcome.status === 200) sendJsonText(res, serialize(outcome.result));
         else next(HttpProblem.from(outcome.problem));
       }),
     );
