@@ -1,9 +1,7 @@
-import { Clipboard } from '@angular/cdk/clipboard';
 import {
   afterNextRender,
   ChangeDetectionStrategy,
   Component,
-  ElementRef,
   Injector,
   inject,
   signal,
@@ -32,6 +30,7 @@ import { type CreateApiKeyRequest, KeysApi } from './keys.api';
 import { ErrorBanner } from '../forms/error-banner';
 import { MAX_ORIGINS, originsFromText, validOrigins } from './web-origins';
 import { BusyButton } from '../forms/busy-button';
+import { CopyButton } from '../forms/copy-button';
 import { FormRequest } from '../forms/form-request';
 
 /**
@@ -43,6 +42,7 @@ import { FormRequest } from '../forms/form-request';
   selector: 'app-create-key-dialog',
   imports: [
     BusyButton,
+    CopyButton,
     ErrorBanner,
     MatButtonModule,
     MatDialogModule,
@@ -58,9 +58,8 @@ import { FormRequest } from '../forms/form-request';
 export class CreateKeyDialog {
   private readonly dialogRef = inject<MatDialogRef<CreateKeyDialog, ApiKeySummary>>(MatDialogRef);
   private readonly api = inject(KeysApi);
-  private readonly clipboard = inject(Clipboard);
   private readonly injector = inject(Injector);
-  private readonly copyButton = viewChild('copyButton', { read: ElementRef<HTMLButtonElement> });
+  private readonly copyButton = viewChild(CopyButton);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     name: [
@@ -74,7 +73,6 @@ export class CreateKeyDialog {
   protected readonly request = new FormRequest();
   /** The new key, present from the server's answer until the dialog closes. */
   protected readonly created = signal<CreatedApiKey | null>(null);
-  protected readonly copied = signal<'yes' | 'failed' | null>(null);
   protected readonly maxLimit = MAX_LIMIT_PER_MINUTE;
   protected readonly maxOrigins = MAX_ORIGINS;
   protected readonly errorMessage = errorMessage;
@@ -93,13 +91,9 @@ export class CreateKeyDialog {
         this.dialogRef.disableClose = true;
         this.created.set(created);
         // The focused submit button has just gone with the form; the copy button is the next step.
-        afterNextRender(() => this.copyButton()?.nativeElement.focus(), { injector: this.injector });
+        afterNextRender(() => this.copyButton()?.focus(), { injector: this.injector });
       },
     });
-  }
-
-  protected copy(key: string): void {
-    this.copied.set(this.clipboard.copy(key) ? 'yes' : 'failed');
   }
 
   protected close(): void {

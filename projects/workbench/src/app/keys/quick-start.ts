@@ -1,4 +1,3 @@
-import { Clipboard } from '@angular/cdk/clipboard';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -7,14 +6,13 @@ import {
   inject,
   input,
   linkedSignal,
-  signal,
 } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSelectModule } from '@angular/material/select';
 import type { ApiKeySummary } from '@counterpoise/api';
 import { API_REFERENCE_URL } from '../status/health.api';
+import { CopyButton } from '../forms/copy-button';
 
 /**
  * The body of the quick start's call: the single-plane calculator's documented example
@@ -57,7 +55,7 @@ export function curlLine(origin: string, key: Pick<ApiKeySummary, 'prefix' | 'al
  */
 @Component({
   selector: 'app-quick-start',
-  imports: [MatButtonModule, MatFormFieldModule, MatIconModule, MatSelectModule],
+  imports: [CopyButton, MatFormFieldModule, MatIconModule, MatSelectModule],
   templateUrl: './quick-start.html',
   styleUrl: './quick-start.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -66,7 +64,6 @@ export class QuickStart {
   /** The organisation's keys; revoked ones are left out. */
   readonly keys = input.required<readonly ApiKeySummary[]>();
 
-  private readonly clipboard = inject(Clipboard);
   private readonly origin = inject(DOCUMENT).location.origin;
   protected readonly activeKeys = computed(() => this.keys().filter((key) => key.revokedAt === null));
   /** The chosen key's id: the newest key in use until the person chooses another. */
@@ -82,17 +79,11 @@ export class QuickStart {
     const key = this.chosen();
     return key === undefined ? '' : curlLine(this.origin, key);
   });
-  protected readonly copied = signal<'yes' | 'failed' | null>(null);
   protected readonly apiReferenceUrl = API_REFERENCE_URL;
   protected readonly guideUrl = INTEGRATORS_GUIDE_URL;
   protected readonly clientUrl = TYPED_CLIENT_URL;
 
   protected choose(id: number): void {
     this.chosenId.set(id);
-    this.copied.set(null);
-  }
-
-  protected copy(): void {
-    this.copied.set(this.clipboard.copy(this.curl()) ? 'yes' : 'failed');
   }
 }
