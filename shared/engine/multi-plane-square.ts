@@ -129,7 +129,7 @@ export function solveSquareTwoPlane(input: MultiPlaneInput): MultiPlaneResult | 
     let p2i = 0;
     for (const w of weights) {
       if (w === null || typeof w !== 'object') return undefined;
-      const { plane, mass, angleDeg } = w as Record<string, unknown>;
+      const { plane, mass, angleDeg } = w as unknown as Record<string, unknown>;
       if (typeof mass !== 'number' || !(mass >= 0) || mass === Infinity) return undefined;
       if (typeof angleDeg !== 'number' || angleDeg - angleDeg !== 0) return undefined;
       const a = degToRad(s * angleDeg);
