@@ -1,39 +1,24 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  type ElementRef,
-  input,
-  viewChild,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { BarController, BarElement, CategoryScale, Chart, Legend, LinearScale, Tooltip } from 'chart.js';
-import { keepChartDrawn, type ThemeColours } from '../shell/themed-chart';
+import { type ChartDrawing, ThemedChart, type ThemeColours } from '../shell/themed-chart';
 import type { UsageSeries } from './usage-model';
 
 // Only what the chart draws: bars on a category axis and a linear one, its legend and tooltips.
 Chart.register(BarController, BarElement, CategoryScale, LinearScale, Legend, Tooltip);
 
 /**
- * Requests, calculations and errors per day, route or key as grouped bars, drawn by chart.js on a canvas.
- * The canvas is an image to assistive technology, named by `summary`; the page's table holds every
- * figure. The series drawn are also on the host (`data-series`), so that a test can compare them with
+ * Requests, calculations and errors per day, route or key as grouped bars, drawn by chart.js on a canvas
+ * (`ThemedChart`) named by `summary`; the page's table holds every figure. The series drawn are also on the host (`data-series`), so that a test can compare them with
  * the table.
  */
 @Component({
   selector: 'app-usage-chart',
-  template: `
-    <div class="frame">
-      <canvas #canvas role="img" [attr.aria-label]="summary()"></canvas>
-    </div>
-  `,
+  imports: [ThemedChart],
+  template: `<app-themed-chart [label]="summary()" [drawing]="drawing()" />`,
   styles: `
     :host {
       display: block;
-    }
-    .frame {
-      position: relative;
-      block-size: clamp(15rem, 50vw, 20rem);
-      inline-size: 100%;
+      --themed-chart-block-size: clamp(15rem, 50vw, 20rem);
     }
   `,
   host: { '[attr.data-series]': 'seriesJson()' },
@@ -46,11 +31,10 @@ export class UsageChart {
   readonly summary = input.required<string>();
 
   protected readonly seriesJson = computed(() => JSON.stringify(this.series()));
-  private readonly canvas = viewChild.required<ElementRef<HTMLCanvasElement>>('canvas');
-
-  constructor() {
-    keepChartDrawn(this.canvas, (canvas, colours) => this.draw(canvas, this.series(), colours));
-  }
+  protected readonly drawing = computed<ChartDrawing>(() => {
+    const series = this.series();
+    return (canvas, colours) => this.draw(canvas, series, colours);
+  });
 
   private draw(canvas: HTMLCanvasElement, series: UsageSeries, colours: ThemeColours) {
     const bars = (label: string, data: readonly number[], colour: string) => ({

@@ -1,11 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  type ElementRef,
-  input,
-  viewChild,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import {
   Chart,
   type ChartDataset,
@@ -18,7 +11,7 @@ import {
   Tooltip,
 } from 'chart.js';
 import { jobDate } from '../jobs/job-dates';
-import { keepChartDrawn, type ThemeColours } from '../shell/themed-chart';
+import { type ChartDrawing, ThemedChart, type ThemeColours } from '../shell/themed-chart';
 import {
   formatAmplitude,
   type HistoryPoint,
@@ -77,24 +70,17 @@ function datasetOf(series: HistorySeries, colours: ThemeColours): ChartDataset<'
 
 /**
  * The amplitude of each side before and after every job on a machine, over the jobs' dates, with the
- * acceptance limit, drawn by chart.js on a canvas. The canvas is an image to assistive technology with a
- * summary as its name; the page's table holds every figure.
+ * acceptance limit, drawn by chart.js on a canvas (`ThemedChart`) named by a summary; the page's table
+ * holds every figure.
  */
 @Component({
   selector: 'app-history-chart',
-  template: `
-    <div class="frame">
-      <canvas #canvas role="img" [attr.aria-label]="summary()"></canvas>
-    </div>
-  `,
+  imports: [ThemedChart],
+  template: `<app-themed-chart [label]="summary()" [drawing]="drawing()" />`,
   styles: `
     :host {
       display: block;
-    }
-    .frame {
-      position: relative;
-      block-size: clamp(16rem, 55vw, 22rem);
-      inline-size: 100%;
+      --themed-chart-block-size: clamp(16rem, 55vw, 22rem);
     }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -104,11 +90,10 @@ export class HistoryChart {
   readonly history = input.required<MachineHistory>();
 
   protected readonly summary = computed(() => historySummary(this.history()));
-  private readonly canvas = viewChild.required<ElementRef<HTMLCanvasElement>>('canvas');
-
-  constructor() {
-    keepChartDrawn(this.canvas, (canvas, colours) => this.draw(canvas, this.history(), colours));
-  }
+  protected readonly drawing = computed<ChartDrawing>(() => {
+    const history = this.history();
+    return (canvas, colours) => this.draw(canvas, history, colours);
+  });
 
   private draw(canvas: HTMLCanvasElement, history: MachineHistory, colours: ThemeColours) {
     const series = historySeries(history);

@@ -1,4 +1,15 @@
-import { afterRenderEffect, DestroyRef, ElementRef, inject, type Signal, signal } from '@angular/core';
+import {
+  afterRenderEffect,
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  ElementRef,
+  inject,
+  input,
+  type Signal,
+  signal,
+  viewChild,
+} from '@angular/core';
 
 /** The theme's colours a chart draws with, read from the component's element (light or dark scheme). */
 export interface ThemeColours {
@@ -62,4 +73,41 @@ export function keepChartDrawn(
       chart = draw(element, themeColours(host));
     },
   });
+}
+
+/** How a chart is drawn on a canvas with the theme's colours: it returns the chart.js chart it made. */
+export type ChartDrawing = (canvas: HTMLCanvasElement, colours: ThemeColours) => DrawnChart;
+
+/**
+ * A chart.js chart kept drawn (`keepChartDrawn`) on a canvas that fills the element, which is as wide as
+ * its container and as high as `--themed-chart-block-size` (20rem by default). The canvas is an image to
+ * assistive technology, named by `label`; the page's table holds every figure. `drawing` is drawn again
+ * whenever it changes: a component gives it as a `computed` of its data:
+ *
+ * `<app-themed-chart [label]="summary()" [drawing]="drawing()" />`
+ */
+@Component({
+  selector: 'app-themed-chart',
+  template: `<canvas #canvas role="img" [attr.aria-label]="label()"></canvas>`,
+  styles: `
+    :host {
+      display: block;
+      position: relative;
+      inline-size: 100%;
+      block-size: var(--themed-chart-block-size, 20rem);
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ThemedChart {
+  /** The chart in words, its accessible name. */
+  readonly label = input.required<string>();
+  /** Draws the chart. */
+  readonly drawing = input.required<ChartDrawing>();
+
+  private readonly canvas = viewChild.required<ElementRef<HTMLCanvasElement>>('canvas');
+
+  constructor() {
+    keepChartDrawn(this.canvas, (canvas, colours) => this.drawing()(canvas, colours));
+  }
 }
