@@ -361,7 +361,8 @@ export function createApp(deps: AppDeps): Express {
 
   // The calculator first: its requests are the busy ones, and pass through no other router. It answers
   // every path under it (404 for a route it does not have), so nothing falls through to be logged twice.
-  app.use(CALC_BASE_PATH, keyed, requirePermission('calc:use'), calcRouter());
+  // The keyed chain runs inside its one handler: one Express layer to match, not six.
+  app.use(CALC_BASE_PATH, calcRouter({ before: [...keyed, requirePermission('calc:use')] }));
 
   // The signed-in routes, mounted ahead of the other keyed routes; a path they do not answer falls
   // through to them.

@@ -21,7 +21,6 @@ afterEach(() => {
 
 const USAGE = '/api/v1/usage';
 const BATCH = '/api/v1/calc/batch';
-const BATCH_ROUTE = `POST ${BATCH}`;
 const RADIUS_PATH = '/api/v1/calc/radius';
 
 describe('the per-key rate limit', () => {
@@ -130,7 +129,10 @@ describe('the limit counts calculations: a batch of n counts n', () => {
   const rows = () => {
     usageLog.flush();
     return temporary.database.sqlite
-      .prepare('SELECT route, status, count(*) AS count FROM api_usage GROUP BY route, status ORDER BY route')
+      .prepare(
+        'SELECT route, status, count(*) AS count, sum(calculations) AS calculations FROM api_usage ' +
+          'GROUP BY route, status ORDER BY route',
+      )
       .all();
   };
 
@@ -147,7 +149,8 @@ describe('the limit counts calculations: a batch of n counts n', () => {
     });
     expect(Number(response.headers['retry-after'])).toBeGreaterThan(0);
     expect(response.headers['ratelimit-remaining']).toBe('4');
-    expect(rows()).toEqual([{ route: 'POST /api/v1/calc/batch', status: 429, count: 1 }]);
+    // One row, of a request that asked for no calculation.
+    expect(rows()).toEqual([{ route: 'POST /api/v1/calc/batch', status: 429, count: 1, calculations: 0 }]);
   });
 
   it('lets a batch of 5 use up a limit of 5, so that the next single request is refused', async () => {
@@ -159,10 +162,10 @@ describe('the limit counts calculations: a batch of n counts n', () => {
     expect(batch.headers['ratelimit-remaining']).toBe('0');
     const single = await request(server).post(RADIUS_PATH).set('X-Api-Key', key).send(RADIUS).expect(429);
     expect(single.body.detail).toMatch(/5 calculations a minute/);
+    // The batch is one row carrying its five calculations; the refused call is one more.
     expect(rows()).toEqual([
-      { route: 'POST /api/v1/calc/batch', status: 200, count: 1 },
-      { route: 'POST /api/v1/calc/radius', status: 200, count: 5 },
-      { route: 'POST /api/v1/calc/radius', status: 429, count: 1 },
+      { route: 'POST /api/v1/calc/batch', status: 200, count: 1, calculations: 5 },
+      { route: 'POST /api/v1/calc/radius', status: 429, count: 1, calculations: 1 },
     ]);
   });
 
@@ -199,8 +202,9 @@ describe('the limit counts calculations: a batch of n counts n', () => {
     expect(computed).toBeGreaterThan(0);
     expect(computed).toBeLessThanOrEqual(10);
     usageLog.flush();
+    // The calculations the log holds for the answered requests are exactly those computed.
     const stored = temporary.database.sqlite
-      .prepare(`SELECT count(*) FROM api_usage WHERE status = 200 AND route <> '${BATCH_ROUTE}'`)
+      .prepare('SELECT sum(calculations) FROM api_usage WHERE status = 200')
       .pluck()
       .get();
     expect(stored).toBe(computed);
