@@ -1,6 +1,7 @@
 /*
- * The usage log loses no row: not under a burst of 20,000 keyed requests, and not when the server
- * process is stopped with SIGTERM in the middle of one. Traffic stays on 127.0.0.1 and is bounded by
+ * The usage log loses no row: not under a burst of 20,000 keyed requests, nor of 2,000 batches (one row
+ * each, carrying its calculations), and not when the server process is stopped with SIGTERM in the
+ * middle of a burst. Traffic stays on 127.0.0.1 and is bounded by
  * a request count; nothing here is timed (speed belongs to the benchmarks).
  */
 import { type ChildProcess, spawn } from 'node:child_process';
@@ -98,6 +99,54 @@ describe('the usage log under load', { timeout: 300_000 }, () => {
     expect(run.total()).toBe(BURST);
     expect(run.received).toEqual(new Map([[200, BURST]]));
     expect(rowCounts(temporary.path)).toEqual(run.received);
+  });
+
+  it('writes one row for each of 2,000 batches answered at once, carrying every item as a calculation', async () => {
+    temporary = openTemporaryDatabase();
+    const { key } = createTestKey(temporary.database, { limitPerMinute: 1_000_000 });
+    const usageLog = new UsageLog(temporary.database, { log: () => undefined, inWorker: true });
+    const app = createApp({ database: temporary.database, usageLog, log: () => undefined });
+    const server = await new Promise<Server>((resolve) => {
+      const listening = app.listen(0, '127.0.0.1', () => resolve(listening));
+    });
+    const { port } = server.address() as AddressInfo;
+    const ITEMS = 10;
+    const BATCHES = 2_000;
+    const body = JSON.stringify({
+      items: Array.from({ length: ITEMS }, (_, index) =>
+        // The last item is refused, so that every row carries an item's error too.
+        index === ITEMS - 1
+          ? { route: 'radius', body: { mass: 1, fromRadius: 1, toRadius: -1 } }
+          : { route: 'radius', body: { mass: 120, fromRadius: 180, toRadius: 240 } },
+      ),
+    });
+    const received = new Map<number, number>();
+    const result = await new Promise<autocannon.Result>((resolve, reject) => {
+      const instance = autocannon(
+        {
+          url: `http://127.0.0.1:${port}/api/v1/calc/batch`,
+          method: 'POST',
+          amount: BATCHES,
+          connections: CONNECTIONS,
+          headers: { 'x-api-key': key, 'content-type': 'application/json' },
+          body,
+        },
+        (error, done) => (error ? reject(error) : resolve(done)),
+      );
+      instance.on('response', (_client, status) => received.set(status, (received.get(status) ?? 0) + 1));
+    });
+    await new Promise<void>((resolve) => server.close(() => resolve()));
+    usageLog.close();
+
+    expect(result.errors).toBe(0);
+    expect(received).toEqual(new Map([[200, BATCHES]]));
+    const stored = temporary.database.sqlite
+      .prepare(
+        "SELECT count(*) AS requests, sum(calculations) AS calculations, sum(item_errors ->> '$.400') AS refused " +
+          "FROM api_usage WHERE route = 'POST /api/v1/calc/batch' AND status = 200",
+      )
+      .get();
+    expect(stored).toEqual({ requests: BATCHES, calculations: BATCHES * ITEMS, refused: BATCHES });
   });
 
   it('keeps a row for every answer sent when the server is stopped with SIGTERM during a burst', async () => {
