@@ -119,14 +119,10 @@ export const UsageFiguresSchema = z
         'items count each with its own status. Empty when every answer succeeded.',
     }),
     bytes: z.number().int().nonnegative().meta({ description: 'Bytes of the response bodies.' }),
-    meanDurationMs: z
-      .number()
-      .nonnegative()
-      .meta({
-        description:
-          'Mean time to answer a request (a batch timed whole), in milliseconds; 0 for a route reached only ' +
-          'inside batches.',
-      }),
+    meanDurationMs: z.number().nonnegative().meta({
+      description:
+        'Mean time to answer a request (a batch timed whole), in milliseconds; 0 when there were no requests.',
+    }),
     maxDurationMs: z.number().nonnegative().meta({ description: 'The longest time to answer a request.' }),
   })
   .meta({ id: 'UsageFigures' });
