@@ -2,6 +2,8 @@ import {
   type BatchRequestSchema,
   calculate,
   CALC_ROUTE_NAMES,
+  computeCalc,
+  CALC_ROUTES,
   type CalcOutcome,
   type CalcRouteName,
   isCalcRouteName,
@@ -9,8 +11,25 @@ import {
 } from '@counterpoise/api';
 import type { Response } from 'express';
 import type * as z from 'zod';
+import { compileJsonAcceptor, type JsonAcceptor } from '../http/json-acceptor';
 import { sendJsonText } from '../http/json';
 import { answerSerializer } from './serializers';
+
+/** Each route's acceptor (json-acceptor.ts), where its request schema has one. */
+const acceptors = new Map<CalcRouteName, JsonAcceptor | undefined>(
+  CALC_ROUTE_NAMES.map((name) => [name, compileJsonAcceptor(CALC_ROUTES[name].request)]),
+);
+
+/**
+ * `calculate` for a body parsed from JSON: a body that the route's acceptor takes is computed as it is,
+ * since zod would give it back unchanged; any other is validated by zod, whose problem names the fields
+ * at fault. The same answer as `calculate`, for a fraction of the validation's cost.
+ */
+export function calculateParsed<Name extends CalcRouteName>(name: Name, body: unknown): CalcOutcome<Name> {
+  return acceptors.get(name)?.(body) === true
+    ? computeCalc(name, body as Parameters<typeof computeCalc<Name>>[1])
+    : calculate(name, body);
+}
 
 function unknownRouteProblem(route: string): Problem {
   const message = `"${route}" is not a calculator route; use one of ${CALC_ROUTE_NAMES.join(', ')}.`;
@@ -38,7 +57,7 @@ export function answerBatch(res: Response, items: z.output<typeof BatchRequestSc
     const item = items[index]!;
     const known = isCalcRouteName(item.route);
     const outcome: CalcOutcome | { status: 404; problem: Problem } = known
-      ? calculate(item.route as CalcRouteName, item.body)
+      ? calculateParsed(item.route as CalcRouteName, item.body)
       : { status: 404, problem: unknownRouteProblem(item.route) };
     const id = item.id ?? String(index);
     if (outcome.status === 200) {

@@ -4,7 +4,6 @@ import {
   BatchResponseSchema,
   CALC_ROUTE_NAMES,
   CALC_ROUTES,
-  calculate,
   computeCalc,
   ProblemSchema,
 } from '@counterpoise/api';
@@ -15,10 +14,11 @@ import { inSequence } from '../http/in-sequence';
 import { normaliseRoutePath } from '../http/route-path';
 import { sendJsonText } from '../http/json';
 import { apiNotFound, HttpProblem, methodNotAllowed, requireJsonBody } from '../http/problem';
+import { compileJsonAcceptor } from '../http/json-acceptor';
 import { validateBody } from '../http/validate';
 import { takeBatchCalculations } from '../keys/api-key.rate-limit';
 import { API_KEY_SECURITY, KEYED_ROUTE_RESPONSES, RATE_LIMIT_HEADERS } from '../keys/keys.openapi';
-import { answerBatch } from './batch';
+import { answerBatch, calculateParsed } from './batch';
 import { answerSerializer } from './serializers';
 
 /** Where the calculator routes are mounted. */
@@ -151,12 +151,23 @@ export function calcRouter(
 ): RequestHandler & DispatchTable {
   const parseCalc = express.json({ limit: CALC_BODY_LIMIT, type: () => true });
   const answers = new Map<string, RequestHandler>();
+  // A batch that Ajv's check accepts is one zod would give back unchanged (json-acceptor.ts); any other
+  // goes to zod, which answers with the fields at fault.
+  const acceptBatch = compileJsonAcceptor(BatchRequestSchema)!;
+  const validateBatch = validateBody(BatchRequestSchema);
   answers.set(
     '/batch',
     inSequence(
       requireJsonBody,
       express.json({ limit: BATCH_BODY_LIMIT, type: () => true }),
-      validateBody(BatchRequestSchema),
+      (req, res, next) => {
+        if (!acceptBatch(req.body)) {
+          validateBatch(req, res, next);
+          return;
+        }
+        res.locals.body = req.body;
+        next();
+      },
       (_req, res, next) => {
         const { items } = res.locals.body as z.output<typeof BatchRequestSchema>;
         const refusal = takeBatchCalculations(res, items.length);
@@ -171,8 +182,8 @@ export function calcRouter(
     answers.set(
       `/${name}`,
       inSequence(requireJsonBody, parseCalc, (req, res, next) => {
-        // calculate() validates with the route's schema and computes, as the batch does for each item.
-        const outcome = calculate(name, req.body);
+        // Validated with the route's schema and computed, as the batch does for each item.
+        const outcome = calculateParsed(name, req.body);
         if (outcome.status === 200) sendJsonText(res, serialize(outcome.result));
         else next(HttpProblem.from(outcome.problem));
       }),
