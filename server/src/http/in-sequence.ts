@@ -9,21 +9,26 @@ import type { RequestHandler } from 'express';
  */
 export function inSequence(...handlers: readonly RequestHandler[]): RequestHandler {
   return (req, res, next) => {
-    const run = (index: number): void => {
-      const handler = handlers[index];
+    // One `next` for the whole sequence, as Express's router keeps one per request: the busiest requests
+    // pass here, and a closure per handler would be garbage on every one of them.
+    let index = 0;
+    const step = (error?: unknown): void => {
+      if (error) {
+        next(error);
+        return;
+      }
+      const handler = handlers[index++];
       if (handler === undefined) {
         next();
         return;
       }
       try {
-        const result: unknown = handler(req, res, (error?: unknown) =>
-          error ? next(error) : run(index + 1),
-        );
+        const result: unknown = handler(req, res, step);
         if (result instanceof Promise) result.catch(next);
-      } catch (error) {
-        next(error);
+      } catch (thrown) {
+        next(thrown);
       }
     };
-    run(0);
+    step();
   };
 }

@@ -68,6 +68,31 @@ describe('the API’s headers on paths spelt another way', () => {
   });
 });
 
+describe('the API’s headers', () => {
+  it('are the OWASP list for JSON answers, and none of the pages’ set', async () => {
+    const response = await request(app())
+      .post('/api/v1/calc/radius')
+      .set('X-Api-Key', key)
+      .send(CALC_ROUTES.radius.example);
+    expect(response.status).toBe(200);
+    const security = Object.fromEntries(
+      Object.entries(response.headers).filter(([name]) =>
+        /^(cache-control|content-security-policy|cross-origin|referrer-policy|x-|origin-agent|strict-transport)/.test(
+          name,
+        ),
+      ),
+    );
+    expect(security).toEqual({
+      'cache-control': 'no-store',
+      'content-security-policy': API_POLICY,
+      'cross-origin-resource-policy': 'same-origin',
+      'referrer-policy': 'no-referrer',
+      'x-content-type-options': 'nosniff',
+      'x-frame-options': 'DENY',
+    });
+  });
+});
+
 describe('Strict-Transport-Security', () => {
   it('is not sent over plain HTTP, on the API or on the pages', async () => {
     for (const path of ['/api/health', '/api/v1/usage', '/', '/api/docs/']) {

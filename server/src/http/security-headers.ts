@@ -40,9 +40,31 @@ const apiHelmet = helmet({
   xXssProtection: false,
 });
 
-const apiHeaders: RequestHandler = (req, res, next) => {
-  res.setHeader('Cache-Control', 'no-store');
-  apiHelmet(req, res, next);
+/**
+ * The headers `apiHelmet` sets, read from it once: they depend on nothing of the request (no nonce, no
+ * per-request directive), so every JSON answer gets the same list, set in one loop, where running helmet
+ * would build and walk its middleware on each of the busiest answers. helmet stays the source of truth.
+ */
+function headersSetBy(middleware: RequestHandler): readonly (readonly [string, string])[] {
+  const headers: [string, string][] = [];
+  const recorder = {
+    setHeader: (name: string, value: string) => headers.push([name, value]),
+    // helmet removes X-Powered-By, which the app never sends (`app.disable('x-powered-by')`).
+    removeHeader: () => undefined,
+  };
+  let done = false;
+  middleware({} as Parameters<RequestHandler>[0], recorder as never, () => {
+    done = true;
+  });
+  if (!done) throw new Error('helmet did not set its headers at once.');
+  return headers;
+}
+
+const API_HEADERS = [['Cache-Control', 'no-store'] as const, ...headersSetBy(apiHelmet)];
+
+const apiHeaders: RequestHandler = (_req, res, next) => {
+  for (const [name, value] of API_HEADERS) res.setHeader(name, value);
+  next();
 };
 
 /** helmet's own `Strict-Transport-Security` (a year, subdomains included), for answers over HTTPS. */
