@@ -1,4 +1,4 @@
-// `node scripts/build-server.mjs [--out <dir>]`: compiles the server to JavaScript once, so that
+// `node scripts/build-server.mjs [--out <dir>] [--entry <name>=<file>]…`: compiles the server to JavaScript once, so that
 // production runs `node dist/server/main.js` instead of compiling TypeScript at every start (tsx).
 // esbuild bundles our own code (server/ and shared/, the path aliases of tsconfig.json resolved) into
 // two ES modules: main.js, and usage-writer.thread.js, the usage log's writer thread, which the
@@ -6,7 +6,9 @@
 // time), as does everything the server reads from the repository at run time: a
 // `new URL('<file>', import.meta.url)` that names a file of the source tree (the migrations, the list
 // of common passwords, package.json) is rewritten to the same file read from the repository's root, so
-// the compiled server finds them where the source server does.
+// the compiled server finds them where the source server does. `--entry` adds an entry of its own beside
+// those two, for a program that runs the server as production does (`bench/api/run.ts` builds its
+// targets so); its output must stay inside the repository, where the packages are found.
 import { existsSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { dirname, join, relative, resolve } from 'node:path';
@@ -16,6 +18,11 @@ import { build } from 'esbuild';
 const root = fileURLToPath(new URL('..', import.meta.url));
 const outAt = process.argv.indexOf('--out');
 const outdir = resolve(root, outAt === -1 ? 'dist/server' : process.argv[outAt + 1]);
+const extraEntries = Object.fromEntries(
+  process.argv.flatMap((argument, at) =>
+    process.argv[at - 1] === '--entry' ? [argument.split('=', 2)] : [],
+  ),
+);
 const started = Date.now();
 
 /** `new URL('<relative path>', import.meta.url)` in a source file. */
@@ -45,6 +52,7 @@ await build({
   entryPoints: {
     main: 'server/src/main.ts',
     'usage-writer.thread': 'server/src/usage/usage-writer.thread.ts',
+    ...extraEntries,
   },
   outdir,
   bundle: true,

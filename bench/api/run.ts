@@ -11,8 +11,11 @@
  * Options (environment): BENCH_SECONDS (default 10), BENCH_CONNECTIONS (default 32), BENCH_TARGETS (the
  * letters to run, default abcd; ratios need their targets in the same run), BENCH_ROUNDS (default 1:
  * with more, the targets run in interleaved rounds and the median round of each is reported).
+ *
+ * The targets run as production runs the server: compiled to JavaScript once, by the same build as
+ * `npm start` (scripts/build-server.mjs, into dist/bench-api), not compiled at run time by tsx.
  */
-import { type ChildProcess, spawn } from 'node:child_process';
+import { type ChildProcess, spawn, spawnSync } from 'node:child_process';
 import { createInterface } from 'node:readline';
 import { fileURLToPath } from 'node:url';
 import autocannon from 'autocannon';
@@ -31,8 +34,21 @@ interface Target {
   output: string[];
 }
 
+const built = spawnSync(
+  process.execPath,
+  [
+    'scripts/build-server.mjs',
+    '--out',
+    'dist/bench-api',
+    '--entry',
+    'serve-target=bench/api/serve-target.ts',
+  ],
+  { cwd: root, stdio: 'inherit' },
+);
+if (built.status !== 0) throw new Error('The benchmark targets did not compile.');
+
 function startTarget(name: string): Promise<Target> {
-  const child = spawn(process.execPath, ['--import', 'tsx', 'bench/api/serve-target.ts', name], {
+  const child = spawn(process.execPath, ['dist/bench-api/serve-target.js', name], {
     cwd: root,
     env: { ...process.env, NODE_ENV: 'production' },
     stdio: ['ignore', 'pipe', 'inherit'],
