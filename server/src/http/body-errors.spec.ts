@@ -7,7 +7,7 @@ import { createApp } from '../app';
 import { createTestKey } from '../keys/testing/test-keys';
 import { openTemporaryDatabase, type TemporaryDatabase } from '../testing/temporary-database';
 import { UsageLog } from '../usage/usage-log';
-import { problemHandler } from './problem';
+import { problemHandler, requireJsonBody } from './problem';
 
 /*
  * Bodies an attacker's probe sends to see what breaks: charsets JSON is never sent in, and bodies that
@@ -103,6 +103,33 @@ describe('bodies the server reads', () => {
       .send(gzipSync(RADIUS))
       .expect(200);
     expect(response.body.mass).toBe(90);
+  });
+});
+
+describe('requireJsonBody', () => {
+  /** What requireJsonBody decides for a request with these headers, beside what `req.is` says. */
+  function decide(headers: Record<string, string>): { passed: boolean; isJson: boolean } {
+    const req = Object.assign(Object.create(express.request) as express.Request, { headers });
+    let passed = false;
+    requireJsonBody(req, {} as express.Response, (error?: unknown) => {
+      passed = error === undefined;
+    });
+    return { passed, isJson: Boolean(req.is('application/json')) };
+  }
+
+  it.each<[string, Record<string, string>]>([
+    ['JSON with a length', { 'content-type': 'application/json', 'content-length': '12' }],
+    ['JSON sent in chunks', { 'content-type': 'application/json', 'transfer-encoding': 'chunked' }],
+    ['JSON of length 0', { 'content-type': 'application/json', 'content-length': '0' }],
+    ['JSON with no body', { 'content-type': 'application/json' }],
+    ['JSON with a length that is no number', { 'content-type': 'application/json', 'content-length': 'x' }],
+    ['JSON in capitals', { 'content-type': 'APPLICATION/JSON', 'content-length': '2' }],
+    ['a JSON suffix type', { 'content-type': 'application/problem+json', 'content-length': '2' }],
+    ['text', { 'content-type': 'text/plain', 'content-length': '2' }],
+    ['no type', { 'content-length': '2' }],
+  ])('lets %s through exactly when req.is takes it for JSON', (_case, headers) => {
+    const { passed, isJson } = decide(headers);
+    expect(passed).toBe(isJson);
   });
 });
 

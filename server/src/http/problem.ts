@@ -75,6 +75,17 @@ const UNSUPPORTED_CHARSET = new HttpProblem(415, 'Unsupported Media Type', UNSUP
  * follows.
  */
 export const requireJsonBody: RequestHandler = (req, _res, next) => {
+  const headers = req.headers;
+  // The usual spelling, with a body, is decided without parsing the type: what `req.is` would answer,
+  // on every one of the API's busiest requests, for a fraction of its work. (type-is counts a body when
+  // Transfer-Encoding is present or Content-Length is a number.)
+  if (
+    headers['content-type'] === 'application/json' &&
+    (headers['transfer-encoding'] !== undefined || !Number.isNaN(Number(headers['content-length'])))
+  ) {
+    next();
+    return;
+  }
   if (!req.is('application/json')) {
     const sent = req.headers['content-type'] ?? 'no Content-Type';
     next(
