@@ -107,6 +107,10 @@ describe('the developer portal', () => {
     await expectAccessible(page, 'the key creation dialog, filled in');
     await dialog.getByRole('button', { name: 'Create the key' }).click();
     const shown = page.getByRole('dialog', { name: 'Your new key' });
+    // The focus moves on to the next step, and stays there once the dialog has placed its own.
+    await shown.getByRole('button', { name: 'Copy the key' }).waitFor();
+    await page.waitForTimeout(300);
+    expect(await page.evaluate(() => document.activeElement?.textContent?.trim())).toBe('Copy the key');
     key = await shown.getByRole('textbox').inputValue();
     expect(key).toMatch(/^cpk_[A-Za-z0-9_-]{43}$/);
     prefix = key.slice(0, 12);

@@ -1,8 +1,7 @@
 import {
-  afterNextRender,
+  afterRenderEffect,
   ChangeDetectionStrategy,
   Component,
-  Injector,
   inject,
   signal,
   viewChild,
@@ -58,7 +57,6 @@ import { FormRequest } from '../forms/form-request';
 export class CreateKeyDialog {
   private readonly dialogRef = inject<MatDialogRef<CreateKeyDialog, ApiKeySummary>>(MatDialogRef);
   private readonly api = inject(KeysApi);
-  private readonly injector = inject(Injector);
   private readonly copyButton = viewChild(CopyButton);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
@@ -76,6 +74,18 @@ export class CreateKeyDialog {
   protected readonly maxLimit = MAX_LIMIT_PER_MINUTE;
   protected readonly maxOrigins = MAX_ORIGINS;
   protected readonly errorMessage = errorMessage;
+  private copyButtonFocused = false;
+
+  constructor() {
+    // When the new key is shown, the focused submit button has gone with the form; the copy button is the
+    // next step. Focused after the render that put it on the page, however late that render comes.
+    afterRenderEffect(() => {
+      const copyButton = this.copyButton();
+      if (copyButton === undefined || this.copyButtonFocused) return;
+      this.copyButtonFocused = true;
+      copyButton.focus();
+    });
+  }
 
   protected submit(): void {
     const { name, limitPerMinute, allowedOrigins } = this.form.getRawValue();
@@ -90,8 +100,6 @@ export class CreateKeyDialog {
       sent: (created) => {
         this.dialogRef.disableClose = true;
         this.created.set(created);
-        // The focused submit button has just gone with the form; the copy button is the next step.
-        afterNextRender(() => this.copyButton()?.focus(), { injector: this.injector });
       },
     });
   }

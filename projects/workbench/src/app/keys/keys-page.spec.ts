@@ -179,6 +179,13 @@ describe('KeysPage', { timeout: 20_000 }, () => {
     await fixture.whenStable();
 
     expect(await dialog.getTitleText()).toBe('Your new key');
+    // The submit button went with the form: the focus is on the next step.
+    expect(document.activeElement?.textContent).toContain('Copy the key');
+    // The dialog places the focus itself once its opening ends, which can come after a quick answer: its
+    // initial element is the same step, not the key's text box. (The focus trap finds no visible element
+    // without a layout; tests/browser/portal.spec.ts sees the focus in Chromium.)
+    const container = document.querySelector<HTMLElement>('mat-dialog-container')!;
+    expect(container.querySelector('[cdkFocusInitial]')?.textContent).toContain('Copy the key');
     expect(await (await dialog.getHarness(MatInputHarness)).getValue()).toBe(WHOLE_KEY);
     await (await dialog.getHarness(MatButtonHarness.with({ text: /Copy the key/ }))).click();
     expect(copied).toEqual([WHOLE_KEY]);
