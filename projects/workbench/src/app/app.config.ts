@@ -36,10 +36,11 @@ export const appConfig: ApplicationConfig = {
     provideAppIcons(),
     // The service worker, the kept reads and the queue of changes made with no connection (docs/offline.md).
     provideOffline(),
-    // The session survives a reload only as the refresh cookie: trade it for a token once, at start. Not
-    // awaited, so that public pages draw at once; the guards wait for the answer.
+    // The session survives a reload only as the refresh cookie: trade it for a token once, at start (after
+    // the first paint on a device that keeps no profile). Not awaited, so that public pages draw at once; the
+    // guards that need the answer wait for it.
     provideAppInitializer(() => {
-      void inject(AuthSession).restore();
+      void inject(AuthSession).restoreInBackground();
     }),
   ],
 };

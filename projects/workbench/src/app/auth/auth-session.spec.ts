@@ -4,6 +4,7 @@ import { TestBed } from '@angular/core/testing';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AUTH_URLS, AuthSession } from './auth-session';
 import { aSession, aUser } from './testing';
+import { afterNextPaint } from '../shell/after-next-paint';
 
 describe('AuthSession', () => {
   let http: HttpTestingController;
@@ -44,6 +45,25 @@ describe('AuthSession', () => {
     expect(session.restored()).toBe(true);
     expect(session.signedIn()).toBe(false);
     expect(session.user()).toBeNull();
+  });
+
+  it('leaves the refresh until the first page is painted on a device that keeps no profile', async () => {
+    const restoring = session.restoreInBackground();
+    http.expectNone(AUTH_URLS.refresh);
+    await afterNextPaint();
+    http.expectOne(AUTH_URLS.refresh).flush(null, { status: 401, statusText: 'Unauthorized' });
+    await restoring;
+    expect(session.restored()).toBe(true);
+    expect(session.signedIn()).toBe(false);
+  });
+
+  it('refreshes at once in the background on a device that keeps a profile, as its pages need the session', async () => {
+    session.start(aSession('technician'));
+    const reloaded = TestBed.runInInjectionContext(() => new AuthSession());
+    const restoring = reloaded.restoreInBackground();
+    http.expectOne(AUTH_URLS.refresh).flush(aSession('technician'));
+    await restoring;
+    expect(reloaded.user()?.name).toBe('Suvi Achterberg');
   });
 
   it('answers can() from the permissions the server granted', () => {

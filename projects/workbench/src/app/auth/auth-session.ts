@@ -13,6 +13,7 @@ import {
   tap,
 } from 'rxjs';
 import type { AcceptInvitation } from './api-types';
+import { afterNextPaint } from '../shell/after-next-paint';
 
 /** The routes of the session itself. */
 export const AUTH_URLS = {
@@ -116,6 +117,17 @@ export class AuthSession {
       ),
     ).finally(() => this.restoredState.set(true));
     return this.restoring;
+  }
+
+  /**
+   * `restore()` for a page that does not wait for its answer. On a device that keeps a profile it starts at
+   * once, as the pages of that person need it. On any other device the session is almost surely absent, and
+   * the refresh waits until the first page is painted: on a slow link it would otherwise share the first
+   * page's round trips and bandwidth, for an answer that is "signed out" in nearly every case.
+   */
+  restoreInBackground(): Promise<void> {
+    if (this.restoring !== null || this.keepsProfile()) return this.restore();
+    return afterNextPaint().then(() => this.restore());
   }
 
   /**

@@ -35,15 +35,15 @@ export function requirePermission(permission: Permission): CanActivateFn {
  *
  * A device that keeps no profile has no session to resume in nearly every case (a new device, or after
  * signing out), so the page is let through at once and draws in the app's first frame, without waiting a
- * round trip for the refresh; should the refresh still find a session (the site's storage cleared while
- * the cookie lived), the person is taken on as soon as it answers.
+ * round trip for the refresh, which is made once the page is painted; should it still find a session (the
+ * site's storage cleared while the cookie lived), the person is taken on as soon as it answers.
  */
 export const requireSignedOut: CanActivateFn = async (route) => {
   const session = inject(AuthSession);
   const router = inject(Router);
   const returnUrl = safeReturnUrl(route.queryParamMap.get('returnUrl'));
   if (!session.restored() && !session.keepsProfile()) {
-    void session.restore().then(() => {
+    void session.restoreInBackground().then(() => {
       if (session.signedIn() && router.url.startsWith('/sign-in')) void router.navigateByUrl(returnUrl);
     });
     return true;
