@@ -50,6 +50,8 @@ import syncProblemSvg from '@material-symbols/svg-400/outlined/sync_problem.svg'
 import visibilitySvg from '@material-symbols/svg-400/outlined/visibility.svg';
 import visibilityOffSvg from '@material-symbols/svg-400/outlined/visibility_off.svg';
 import widgetsSvg from '@material-symbols/svg-400/outlined/widgets.svg';
+// Our own mark, the same file as the favicon: drawn inline in the toolbar, so it costs the first page no request.
+import counterpoiseMarkSvg from '../../../public/favicon.svg';
 
 /** The icons of the app's first page, by the name templates give them. */
 export const FIRST_LOAD_ICONS = {
@@ -62,6 +64,7 @@ export const FIRST_LOAD_ICONS = {
   cloud_done: cloudDoneSvg,
   cloud_off: cloudOffSvg,
   contrast: contrastSvg,
+  counterpoise_mark: counterpoiseMarkSvg,
   group: groupSvg,
   health_and_safety: healthAndSafetySvg,
   home: homeSvg,

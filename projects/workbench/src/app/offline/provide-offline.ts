@@ -1,12 +1,13 @@
 import {
   type EnvironmentProviders,
   inject,
+  Injector,
   isDevMode,
   makeEnvironmentProviders,
   provideAppInitializer,
 } from '@angular/core';
 import { provideServiceWorker } from '@angular/service-worker';
-import { AppUpdates } from './app-updates';
+import { afterNextPaint } from '../shell/after-next-paint';
 import { OfflineJobs } from './offline-jobs';
 
 /**
@@ -22,7 +23,12 @@ export function provideOffline(): EnvironmentProviders {
       registrationStrategy: 'registerWhenStable:30000',
     }),
     provideAppInitializer(() => {
-      inject(AppUpdates).watch();
+      // The offer of a new version (with Material's snack bar) is loaded once the first page is painted:
+      // the worker registers only when the app is stable, so no version can be ready before.
+      const injector = inject(Injector);
+      void afterNextPaint()
+        .then(() => import('./app-updates'))
+        .then(({ AppUpdates }) => injector.get(AppUpdates).watch());
       inject(OfflineJobs).keepTodayOnDevice();
     }),
   ]);

@@ -2,7 +2,7 @@ import { BreakpointObserver, type BreakpointState } from '@angular/cdk/layout';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { provideHttpClient } from '@angular/common/http';
 import { provideHttpClientTesting } from '@angular/common/http/testing';
-import { TestBed } from '@angular/core/testing';
+import { DeferBlockBehavior, DeferBlockState, TestBed } from '@angular/core/testing';
 import { MatSidenavHarness } from '@angular/material/sidenav/testing';
 import { provideRouter } from '@angular/router';
 import { BehaviorSubject, map } from 'rxjs';
@@ -19,8 +19,11 @@ const OPEN_TO_ALL = NAVIGATION.filter((item) => item.permission === undefined).m
 describe('AppShell', () => {
   const wide = new BehaviorSubject(true);
 
-  beforeEach(() => {
+  beforeEach(async () => {
     TestBed.configureTestingModule({
+      // The navigation's list and the toolbar's menus load once the app is idle: each test draws them.
+      deferBlockBehavior: DeferBlockBehavior.Manual,
+      imports: [AppShell],
       providers: [
         provideHttpClient(),
         provideHttpClientTesting(),
@@ -33,12 +36,15 @@ describe('AppShell', () => {
         },
       ],
     });
+    await TestBed.compileComponents();
   });
 
   async function render(isWide: boolean, role?: Role) {
     wide.next(isWide);
     if (role) TestBed.inject(AuthSession).start(aSession(role));
     const fixture = TestBed.createComponent(AppShell);
+    await fixture.whenStable();
+    for (const block of await fixture.getDeferBlocks()) await block.render(DeferBlockState.Complete);
     await fixture.whenStable();
     const sidenav = await TestbedHarnessEnvironment.loader(fixture).getHarness(MatSidenavHarness);
     return { fixture, sidenav, element: fixture.nativeElement as HTMLElement };
@@ -105,6 +111,24 @@ describe('AppShell', () => {
     element.querySelector<HTMLAnchorElement>('nav a')?.click();
     await fixture.whenStable();
     expect(await sidenav.isOpen()).toBe(false);
+  });
+
+  it('draws the toolbar and the page before the navigation and the menus are loaded', async () => {
+    wide.next(true);
+    const fixture = TestBed.createComponent(AppShell);
+    await fixture.whenStable();
+    const element = fixture.nativeElement as HTMLElement;
+    expect(element.querySelector('.brand')?.textContent).toContain('Counterpoise');
+    expect(element.querySelector('main#main')).not.toBeNull();
+    expect(element.querySelector('nav a')).toBeNull();
+    expect(element.querySelector('app-scheme-switch')).toBeNull();
+    // The place of the colour scheme's switch is kept, so that nothing in the toolbar moves once it comes.
+    expect(element.querySelector('.toolbar .toolbar__later')).not.toBeNull();
+
+    for (const block of await fixture.getDeferBlocks()) await block.render(DeferBlockState.Complete);
+    expect(navigationLabels(element)).toEqual(OPEN_TO_ALL);
+    expect(element.querySelector('.toolbar app-scheme-switch button')).not.toBeNull();
+    expect(element.querySelector('.toolbar .toolbar__later')).toBeNull();
   });
 
   it('offers a skip link that moves focus to the page', async () => {

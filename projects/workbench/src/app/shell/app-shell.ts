@@ -1,17 +1,15 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
-import { ChangeDetectionStrategy, Component, computed, inject, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, viewChild } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatListModule } from '@angular/material/list';
 import { MatSidenav, MatSidenavModule } from '@angular/material/sidenav';
 import { MatToolbarModule } from '@angular/material/toolbar';
-import { RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
+import { RouterLink, RouterOutlet } from '@angular/router';
 import { map } from 'rxjs';
 import { SchemeSwitch } from '../appearance/scheme-switch';
-import { AuthSession } from '../auth/auth-session';
 import { ConnectionStatus } from '../offline/connection-status';
-import { visibleNavigation } from './navigation';
+import { MainNavigation } from './main-navigation';
 import { UserMenu } from './user-menu';
 
 /** Below this width the navigation slides over the page instead of sitting beside it. */
@@ -26,13 +24,12 @@ const WIDE_LAYOUT = '(min-width: 840px)';
   selector: 'app-shell',
   imports: [
     ConnectionStatus,
+    MainNavigation,
     MatButtonModule,
     MatIconModule,
-    MatListModule,
     MatSidenavModule,
     MatToolbarModule,
     RouterLink,
-    RouterLinkActive,
     RouterOutlet,
     SchemeSwitch,
     UserMenu,
@@ -42,10 +39,6 @@ const WIDE_LAYOUT = '(min-width: 840px)';
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class AppShell {
-  private readonly session = inject(AuthSession);
-  protected readonly navigation = computed(() =>
-    visibleNavigation((permission) => this.session.can(permission)),
-  );
   protected readonly wide = toSignal(
     inject(BreakpointObserver)
       .observe(WIDE_LAYOUT)
