@@ -5,7 +5,8 @@
 //    @angular/build read from the environment): it merges the many small chunks that code splitting
 //    leaves into few, so that the first load makes a dozen requests instead of forty. Over HTTP/1.1 each
 //    request costs a round trip and about 1 kB of headers, which weighed more than the code in most of them.
-// 2. scripts/compress-static.mjs over the output: brotli and gzip copies beside the files.
+// 2. scripts/preload-fonts.mjs: `index.html` preloads the fonts of the first page (their names are hashed).
+// 3. scripts/compress-static.mjs over the output: brotli and gzip copies beside the files.
 //
 // Options are handed to `ng build` (`--output-path /tmp/me/dist`, `--configuration development`); the
 // compressed copies go beside the files in `<output path>/browser`.
@@ -13,6 +14,7 @@ import { spawnSync } from 'node:child_process';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { compressStatic, printTable } from './compress-static.mjs';
+import { preloadFirstPageFonts } from './preload-fonts.mjs';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 const ng = join(root, 'node_modules', '@angular', 'cli', 'bin', 'ng.js');
@@ -34,6 +36,8 @@ const build = spawnSync(process.execPath, [ng, 'build', 'workbench', ...args], {
 if (build.status !== 0) process.exit(build.status ?? 1);
 
 const browserDir = join(outputPath(), 'browser');
+const preloaded = await preloadFirstPageFonts(browserDir);
+console.log(`\nindex.html preloads ${preloaded.join(', ')}`);
 const rows = await compressStatic(browserDir);
 console.log(
   `\nCompressed ${rows.length} files in ${browserDir} (brotli 11, gzip 9; files under 1 kB left alone):`,
