@@ -1,5 +1,5 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
-import { ChangeDetectionStrategy, Component, inject, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, signal, viewChild } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -45,6 +45,8 @@ export class AppShell {
       .pipe(map((state) => state.matches)),
     { initialValue: false },
   );
+  /** Whether the drawer was opened on a phone: its list is drawn from then on. */
+  protected readonly drawerAsked = signal(false);
   private readonly sidenav = viewChild.required(MatSidenav);
 
   /** On a phone, the drawer closes once a page is chosen. */
