@@ -1,5 +1,6 @@
 import * as chromeLauncher from 'chrome-launcher';
 import lighthouse from 'lighthouse';
+import { computeMedianRun } from 'lighthouse/core/lib/median-run.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CHROMIUM_ARGS, CHROMIUM_PATH } from './support/chromium-flags';
 import { startServer, type TestServer } from './support/server';
@@ -16,6 +17,7 @@ const TARGET_PERFORMANCE_SCORE = 0.95;
 const TARGET_LCP_MS = 2_500;
 const MIN_PERFORMANCE_SCORE = 0.4;
 const MAX_LCP_MS = 6_000;
+const RUNS = 3;
 
 let server: TestServer;
 let chrome: chromeLauncher.LaunchedChrome | undefined;
@@ -50,14 +52,21 @@ describe('Lighthouse, mobile profile', () => {
           output: 'json',
         })
       )?.lhr;
-    let lhr = await audit();
-    // Lighthouse's own trace sometimes misses the navigation's start on a busy machine (NO_NAVSTART, "please
-    // run Lighthouse again"): once more, then any error fails the test.
-    if (lhr?.runtimeError?.code === 'NO_NAVSTART') lhr = await audit();
-    expect(lhr, 'Lighthouse produced no report').toBeDefined();
-    if (!lhr) return;
-    expect(lhr.runtimeError, lhr.runtimeError?.message).toBeUndefined();
-
+    // Three runs and Lighthouse's own choice of the median one (the run nearest the median first paint and
+    // time to interactive), as its documentation on variability advises: one run on this shared machine
+    // swings by a fifth in blocking time. Lighthouse's trace sometimes misses the navigation's start on a
+    // busy machine (NO_NAVSTART, "please run Lighthouse again"): such a run is made again, once.
+    const runs = [];
+    for (let run = 0; run < RUNS; run++) {
+      let result = await audit();
+      if (result?.runtimeError?.code === 'NO_NAVSTART') result = await audit();
+      expect(result, 'Lighthouse produced no report').toBeDefined();
+      if (!result) return;
+      expect(result.runtimeError, result.runtimeError?.message).toBeUndefined();
+      runs.push(result);
+    }
+    const lhr = computeMedianRun(runs);
+    const scores = runs.map((run) => run.categories['performance']?.score ?? 0);
     const figure = (audit: string) => lhr.audits[audit]?.numericValue ?? Number.NaN;
     const score = lhr.categories['performance']?.score ?? 0;
     const figures = {
@@ -68,7 +77,10 @@ describe('Lighthouse, mobile profile', () => {
       'speed index (ms)': Math.round(figure('speed-index')),
       'performance score': score,
     };
-    console.log(`Lighthouse ${lhr.lighthouseVersion}, ${lhr.configSettings.formFactor}, sign-in page:`);
+    console.log(
+      `Lighthouse ${lhr.lighthouseVersion}, ${lhr.configSettings.formFactor}, sign-in page, the median of ` +
+        `${RUNS} runs (scores ${scores.join(', ')}):`,
+    );
     console.table(figures);
     const met = score >= TARGET_PERFORMANCE_SCORE && figure('largest-contentful-paint') <= TARGET_LCP_MS;
     console.log(
@@ -81,5 +93,5 @@ describe('Lighthouse, mobile profile', () => {
     expect(lhr.configSettings.throttlingMethod).toBe('simulate');
     expect(score).toBeGreaterThanOrEqual(MIN_PERFORMANCE_SCORE);
     expect(figure('largest-contentful-paint')).toBeLessThanOrEqual(MAX_LCP_MS);
-  }, 180_000);
+  }, 300_000);
 });
