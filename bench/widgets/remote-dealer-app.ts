@@ -5,22 +5,13 @@
 // (production, as `ng build` builds a dealer's app) in a temporary workspace whose `@counterpoise/ng` is the
 // built package (dist/counterpoise, `npm run build:lib`), then served and opened in headless Chromium, left
 // alone until idle, and every script the page fetched is counted. Used by `npm run bench:sizes`.
-import { spawnSync } from 'node:child_process';
-import {
-  mkdirSync,
-  mkdtempSync,
-  readFileSync,
-  readdirSync,
-  rmSync,
-  symlinkSync,
-  writeFileSync,
-} from 'node:fs';
+import { readFileSync, readdirSync, rmSync } from 'node:fs';
 import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { tmpdir } from 'node:os';
 import { extname, join } from 'node:path';
 import { constants, gzipSync } from 'node:zlib';
 import { launchChromium } from '../../tests/browser/support/chromium';
+import { buildAngularWorkspace, writeAngularWorkspace } from '../support/angular-workspace';
 
 /** One script of the app's build, gzipped at level 9 as the other figures of bench:sizes. */
 export interface AppScript {
@@ -77,67 +68,14 @@ const INDEX_HTML = `<!doctype html>
 </html>
 `;
 
-/** A workspace of one application, whose node_modules are the repository's with the built package added. */
+/** A workspace of the app, whose node_modules are the repository's with the built package added. */
 function writeWorkspace(root: string, library: string, variant: DealerAppVariant): string {
-  const dir = mkdtempSync(join(tmpdir(), 'counterpoise-dealer-app-'));
-  mkdirSync(join(dir, 'src'));
-  writeFileSync(join(dir, 'src', 'main.ts'), appSource(variant));
-  writeFileSync(join(dir, 'src', 'index.html'), INDEX_HTML);
-  writeFileSync(
-    join(dir, 'tsconfig.json'),
-    JSON.stringify({
-      compilerOptions: {
-        strict: true,
-        skipLibCheck: true,
-        isolatedModules: true,
-        target: 'ES2022',
-        module: 'preserve',
-        moduleResolution: 'bundler',
-        lib: ['ES2023', 'DOM'],
-        types: [],
-      },
-      angularCompilerOptions: { strictTemplates: true },
-      files: ['src/main.ts'],
-    }),
-  );
-  writeFileSync(
-    join(dir, 'angular.json'),
-    JSON.stringify({
-      version: 1,
-      cli: { analytics: false },
-      newProjectRoot: '',
-      projects: {
-        dealer: {
-          projectType: 'application',
-          root: '',
-          sourceRoot: 'src',
-          architect: {
-            build: {
-              builder: '@angular/build:application',
-              options: {
-                browser: 'src/main.ts',
-                index: 'src/index.html',
-                tsConfig: 'tsconfig.json',
-                outputPath: 'dist',
-                optimization: true,
-                outputHashing: 'all',
-                sourceMap: false,
-                extractLicenses: false,
-              },
-            },
-          },
-        },
-      },
-    }),
-  );
-  // node_modules: the repository's packages, and @counterpoise/ng as a dealer installs it (the built package).
-  const modules = join(dir, 'node_modules');
-  mkdirSync(join(modules, '@counterpoise'), { recursive: true });
-  for (const name of readdirSync(join(root, 'node_modules'))) {
-    if (name !== '@counterpoise') symlinkSync(join(root, 'node_modules', name), join(modules, name));
-  }
-  symlinkSync(library, join(modules, '@counterpoise', 'ng'));
-  return dir;
+  return writeAngularWorkspace(root, {
+    project: 'dealer',
+    files: { 'src/main.ts': appSource(variant), 'src/index.html': INDEX_HTML },
+    // @counterpoise/ng as a dealer installs it: the built package.
+    packages: { '@counterpoise/ng': library },
+  });
 }
 
 /** The package entries and Angular packages a built script carries code of, from the build's metafile. */
@@ -211,17 +149,7 @@ export async function measureDealerApp(
 ): Promise<DealerAppSizes> {
   const dir = writeWorkspace(root, library, variant);
   try {
-    const built = spawnSync(
-      process.execPath,
-      [join(root, 'node_modules', '@angular', 'cli', 'bin', 'ng.js'), 'build', 'dealer', '--stats-json'],
-      {
-        cwd: dir,
-        encoding: 'utf8',
-        env: { ...process.env, NG_CLI_ANALYTICS: 'false', NG_FORCE_TTY: 'false' },
-      },
-    );
-    if (built.status !== 0)
-      throw new Error(`The dealer app did not build:\n${built.stdout}\n${built.stderr}`);
+    buildAngularWorkspace(root, dir, 'dealer', ['--stats-json']);
     const browserDir = join(dir, 'dist', 'browser');
     const index = readFileSync(join(browserDir, 'index.html'), 'utf8');
     const initial = new Set([...index.matchAll(/(?:src|href)="([^"]+\.js)"/g)].map((match) => match[1]!));
