@@ -2,7 +2,7 @@ import { TestBed } from '@angular/core/testing';
 import { MatSnackBar, type MatSnackBarRef, type TextOnlySnackBar } from '@angular/material/snack-bar';
 import { SwUpdate, type VersionEvent } from '@angular/service-worker';
 import { Subject } from 'rxjs';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { AppUpdates } from './app-updates';
 
 /** The service worker's side as SwUpdate shows it: versions and a broken state, told by the spec. */
@@ -27,7 +27,7 @@ describe('AppUpdates', () => {
     return { worker, offers };
   }
 
-  it('offers a reload once a new version is ready, and only then', () => {
+  it('offers a reload once a new version is ready, and only then', async () => {
     const { worker, offers } = watching();
     worker.versionUpdates.next({ type: 'VERSION_DETECTED', version: { hash: 'b' } });
     worker.versionUpdates.next({ type: 'NO_NEW_VERSION_DETECTED', version: { hash: 'a' } });
@@ -37,14 +37,19 @@ describe('AppUpdates', () => {
       currentVersion: { hash: 'a' },
       latestVersion: { hash: 'b' },
     });
-    expect(offers).toEqual([
-      'A new version of the workbench is ready. Reload when you are ready; what you typed is kept. [Reload]',
-    ]);
+    // The snack bar's code is imported when there is a message to show.
+    await vi.waitFor(() =>
+      expect(offers).toEqual([
+        'A new version of the workbench is ready. Reload when you are ready; what you typed is kept. [Reload]',
+      ]),
+    );
   });
 
-  it('asks for a reload when the version in use can no longer be served', () => {
+  it('asks for a reload when the version in use can no longer be served', async () => {
     const { worker, offers } = watching();
     worker.unrecoverable.next({ type: 'UNRECOVERABLE_STATE', reason: 'files gone' });
-    expect(offers[0]).toMatch(/can no longer be loaded from this device.*\[Reload\]$/);
+    await vi.waitFor(() =>
+      expect(offers[0]).toMatch(/can no longer be loaded from this device.*\[Reload\]$/),
+    );
   });
 });

@@ -1,17 +1,17 @@
-import { inject, Injectable } from '@angular/core';
-import { MatSnackBar } from '@angular/material/snack-bar';
+import { inject, Injectable, Injector } from '@angular/core';
 import { SwUpdate } from '@angular/service-worker';
 import { filter } from 'rxjs';
 
 /**
  * Offers a new version of the workbench once the service worker has it: a message with "Reload", never a
  * reload by itself (a technician may be in the middle of a job; what they typed is kept either way). A version
- * the worker can no longer serve asks for a reload in the same way.
+ * the worker can no longer serve asks for a reload in the same way. Material's snack bar, which shows the
+ * message, is loaded when there is one to show: most visits never need it.
  */
 @Injectable({ providedIn: 'root' })
 export class AppUpdates {
   private readonly updates = inject(SwUpdate);
-  private readonly snackBar = inject(MatSnackBar);
+  private readonly injector = inject(Injector);
   private watching = false;
 
   /** Starts listening for new versions (once). */
@@ -20,14 +20,16 @@ export class AppUpdates {
     this.watching = true;
     this.updates.versionUpdates
       .pipe(filter((event) => event.type === 'VERSION_READY'))
-      .subscribe(() => this.offerReload('A new version of the workbench is ready.'));
-    this.updates.unrecoverable.subscribe(() =>
-      this.offerReload('This version of the workbench can no longer be loaded from this device.'),
+      .subscribe(() => void this.offerReload('A new version of the workbench is ready.'));
+    this.updates.unrecoverable.subscribe(
+      () => void this.offerReload('This version of the workbench can no longer be loaded from this device.'),
     );
   }
 
-  private offerReload(message: string): void {
-    this.snackBar
+  private async offerReload(message: string): Promise<void> {
+    const { MatSnackBar } = await import('@angular/material/snack-bar');
+    this.injector
+      .get(MatSnackBar)
       .open(`${message} Reload when you are ready; what you typed is kept.`, 'Reload')
       .onAction()
       .subscribe(() => document.location.reload());

@@ -113,7 +113,7 @@ describe('AppShell', () => {
     expect(await sidenav.isOpen()).toBe(false);
   });
 
-  it('draws the toolbar and the page before the navigation, the status and the menus are loaded', async () => {
+  it('draws the toolbar, the connection’s status and the page before the navigation and the menus are loaded', async () => {
     wide.next(true);
     const fixture = TestBed.createComponent(AppShell);
     await fixture.whenStable();
@@ -121,14 +121,14 @@ describe('AppShell', () => {
     expect(element.querySelector('.brand')?.textContent).toContain('Counterpoise');
     expect(element.querySelector('main#main')).not.toBeNull();
     expect(element.querySelector('nav a')).toBeNull();
-    expect(element.querySelector('app-connection-status')).toBeNull();
+    expect(element.querySelector('.toolbar app-connection-status [role="status"]')?.textContent).toBeTruthy();
     expect(element.querySelector('app-scheme-switch')).toBeNull();
+    expect(element.querySelector('app-user-menu')).toBeNull();
     // Nothing follows them in the toolbar, so nothing moves when they come.
-    expect(element.querySelector('.toolbar')?.lastElementChild?.classList).toContain('toolbar__spacer');
+    expect(element.querySelector('.toolbar')?.lastElementChild?.tagName).toBe('APP-CONNECTION-STATUS');
 
     for (const block of await fixture.getDeferBlocks()) await block.render(DeferBlockState.Complete);
     expect(navigationLabels(element)).toEqual(OPEN_TO_ALL);
-    expect(element.querySelector('.toolbar app-connection-status [role="status"]')?.textContent).toBeTruthy();
     expect(element.querySelector('.toolbar app-scheme-switch button')).not.toBeNull();
   });
 

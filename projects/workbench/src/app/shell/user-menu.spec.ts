@@ -6,7 +6,7 @@ import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatMenuHarness } from '@angular/material/menu/testing';
 import { MatSnackBarHarness } from '@angular/material/snack-bar/testing';
 import { provideRouter, Router } from '@angular/router';
-import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { AUTH_URLS, AuthSession } from '../auth/auth-session';
 import { aSession, RouteStandIn } from '../auth/testing';
 import { UserMenu } from './user-menu';
@@ -85,7 +85,8 @@ describe('UserMenu', () => {
     http.expectOne(AUTH_URLS.signOut).error(new ProgressEvent('error'));
     await fixture.whenStable();
     expect(session.signedIn()).toBe(true);
-    const snackBar = await overlays.getHarness(MatSnackBarHarness);
+    // The snack bar's code is imported for the message.
+    const snackBar = await vi.waitFor(() => overlays.getHarness(MatSnackBarHarness));
     expect(await snackBar.getMessage()).toContain('Not signed out. The server cannot be reached');
   });
 });

@@ -1,8 +1,7 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, Injector, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule } from '@angular/material/menu';
-import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
 import { AuthSession } from '../auth/auth-session';
 import { ROLE_LABELS } from '../auth/roles';
@@ -95,7 +94,7 @@ import { httpErrorMessage } from './server-errors';
 export class UserMenu {
   protected readonly session = inject(AuthSession);
   private readonly router = inject(Router);
-  private readonly snackBar = inject(MatSnackBar);
+  private readonly injector = inject(Injector);
   protected readonly roleLabels = ROLE_LABELS;
   protected readonly signingOut = signal(false);
 
@@ -112,7 +111,12 @@ export class UserMenu {
         if (!this.session.signedIn()) return done();
         this.signingOut.set(false);
         // Staying signed in is the honest answer: the refresh cookie would restore the session on reload.
-        this.snackBar.open(`Not signed out. ${httpErrorMessage(error)}`, 'Close', { duration: 10_000 });
+        // Material's snack bar is loaded for this message only, which most visits never show.
+        void import('@angular/material/snack-bar').then(({ MatSnackBar }) =>
+          this.injector
+            .get(MatSnackBar)
+            .open(`Not signed out. ${httpErrorMessage(error)}`, 'Close', { duration: 10_000 }),
+        );
       },
     });
   }
