@@ -139,8 +139,9 @@ try {
       ]),
     ),
   );
+  // A ratio to a baseline figure of 0 (bare Angular blocks for no time) says nothing: "n/a".
   const ratio = (key: keyof Figures, baseline: BaselineName) =>
-    (median(results.workbench.map((run) => run[key])) / medians[baseline][key]).toFixed(2);
+    medians[baseline][key] > 0 ? (medians.workbench[key] / medians[baseline][key]).toFixed(2) : 'n/a';
   for (const baseline of ['bare', 'floor'] as const) {
     console.log(
       `workbench / ${baseline}: score ${ratio('score', baseline)}, FCP ${ratio('fcpMs', baseline)}, ` +

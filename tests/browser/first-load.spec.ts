@@ -1,4 +1,5 @@
-import { statSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import type { BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -185,6 +186,43 @@ describe('the first load, on a cold cache', () => {
       );
       expect(failures(home)).toEqual([]);
       expect(home.bytes).toBeLessThanOrEqual(HOME_BUDGET_BYTES);
+    } finally {
+      await browser.close();
+    }
+  });
+
+  it('preloads the first page’s fonts from index.html, each one the page then draws with', async () => {
+    const html = await (await fetch(`${server.url}/sign-in`)).text();
+    const preloaded = [...html.matchAll(/<link rel="preload" href="([^"]+)" as="font"[^>]*crossorigin/g)].map(
+      (match) => `/${match[1]}`,
+    );
+    expect(preloaded).toHaveLength(2);
+    // The build wrote index.html after Angular did: the service worker's manifest holds its new hash.
+    const manifest = (await (await fetch(`${server.url}/ngsw.json`)).json()) as {
+      hashTable: Record<string, string>;
+    };
+    expect(manifest.hashTable['/index.html']).toBe(
+      createHash('sha1')
+        .update(readFileSync(join(WORKBENCH_DIR, 'index.html')))
+        .digest('hex'),
+    );
+    const { browser, page } = await coldPage();
+    try {
+      const fonts = new Set<string>();
+      page.on('request', (request) => {
+        if (request.resourceType() === 'font') fonts.add(new URL(request.url()).pathname);
+      });
+      await page.goto(`${server.url}/sign-in`);
+      await page.getByLabel('E-mail address', { exact: true }).waitFor();
+      const faces = await page.evaluate(async () => {
+        await document.fonts.ready;
+        return [...document.fonts]
+          .filter((face) => face.status === 'loaded')
+          .map((face) => `${face.family.replaceAll('"', '')} ${face.weight}`);
+      });
+      // Fetched once each (the preload's request is the one the style sheet uses), and nothing else.
+      expect([...fonts].sort()).toEqual([...preloaded].sort());
+      expect(faces.sort()).toEqual(['Roboto 400', 'Roboto 500']);
     } finally {
       await browser.close();
     }

@@ -7,16 +7,18 @@ import { startServer, type TestServer } from './support/server';
 
 /**
  * Issue 15's targets for the sign-in page on Lighthouse's mobile profile are a score of 0.95 and an LCP of
- * 2.5 s. They are NOT met yet: CI runs of 2026-12-05 scored 0.76-0.78 with an LCP of 3.17-3.20 s and a total
- * blocking time of 452-568 ms (a bare Angular app of one paragraph scores 0.94-0.99 on the same machine);
- * what is left is the first chunk's evaluation and bootstrap under the simulated four-times-slower CPU, one
- * long task of about 450 ms, and the LCP waiting for it (before the issue: 0.34 and 27 s). Until they are met, this test holds the ground gained, with room for
- * the machine's noise, and prints the figures; the open target and the way to it are in issue 15's note.
+ * 2.5 s. On this machine, idle, they are met by a hair: `npm run bench:lighthouse` gave the median of five
+ * rounds as 0.95, LCP 2,175 ms, TBT 184 ms (a Material sign-in page with nothing else: 0.99, 1,848 ms, 37 ms),
+ * and busier runs 0.92-0.94, the blocking time of the first chunk's evaluation and bootstrap under the
+ * simulated four-times-slower CPU being what moves (docs/benchmarks.md has the figures and what moved them;
+ * before the issue: 0.34 and 27 s, before its last round of work 0.88 and 2.8 s). The score swings with the
+ * machine, so this test does not hold the target itself: it prints the median run's figures and whether the
+ * target is met, and fails below a floor that keeps the ground gained with room for a busy machine.
  */
 const TARGET_PERFORMANCE_SCORE = 0.95;
 const TARGET_LCP_MS = 2_500;
-const MIN_PERFORMANCE_SCORE = 0.4;
-const MAX_LCP_MS = 6_000;
+const MIN_PERFORMANCE_SCORE = 0.75;
+const MAX_LCP_MS = 3_500;
 const RUNS = 3;
 
 let server: TestServer;
