@@ -8,12 +8,8 @@
 // WORKBENCH_DIR's. Takes about a minute to build the baselines and 25 s per audit.
 import * as chromeLauncher from 'chrome-launcher';
 import lighthouse from 'lighthouse';
-import type { Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { fileURLToPath } from 'node:url';
-import { createApp } from '../../server/src/app';
-import { openTemporaryDatabase } from '../../server/src/testing/temporary-database';
-import { UsageLog } from '../../server/src/usage/usage-log';
+import { median } from '../../shared/engine/family-sensitivity';
 import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../../tests/browser/support/chromium-flags';
 import { requireBuiltWorkbench, startServer, type TestServer } from '../../tests/browser/support/server';
 import { type BaselineName, type BuiltBaseline, buildBaseline } from './baseline-apps';
@@ -33,31 +29,6 @@ interface Figures {
   readonly siMs: number;
 }
 
-/** The Counterpoise server over a built app: the same static serving, headers and compressed copies. */
-async function serveBaseline(browserDir: string): Promise<TestServer> {
-  const temporary = openTemporaryDatabase();
-  const usageLog = new UsageLog(temporary.database);
-  const app = createApp({ database: temporary.database, staticDir: browserDir, usageLog });
-  const server = await new Promise<Server>((resolve) => {
-    const listening = app.listen(0, '127.0.0.1', () => resolve(listening));
-  });
-  return {
-    url: `http://127.0.0.1:${(server.address() as AddressInfo).port}`,
-    stop: async () => {
-      server.closeAllConnections();
-      await new Promise<void>((resolve) => server.close(() => resolve()));
-      usageLog.close();
-      temporary.dispose();
-    },
-  };
-}
-
-const median = (values: readonly number[]) => {
-  const sorted = [...values].sort((a, b) => a - b);
-  const middle = Math.floor(sorted.length / 2);
-  return sorted.length % 2 ? sorted[middle]! : (sorted[middle - 1]! + sorted[middle]!) / 2;
-};
-
 requireBuiltWorkbench();
 console.log('Building the baselines (bare Angular, and a Material sign-in page)…');
 const baselines: Partial<Record<BaselineName, BuiltBaseline>> = {};
@@ -66,7 +37,8 @@ let chrome: chromeLauncher.LaunchedChrome | undefined;
 try {
   for (const name of ['bare', 'floor'] as const) {
     baselines[name] = await buildBaseline(root, name);
-    servers[name] = await serveBaseline(baselines[name].browserDir);
+    // Our own server, so that the baselines get the same static serving, headers and compressed copies.
+    servers[name] = await startServer(baselines[name].browserDir);
   }
   servers.workbench = await startServer();
   const pages: Record<Target, string> = {

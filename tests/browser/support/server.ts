@@ -26,12 +26,15 @@ export interface TestServer {
   stop(): Promise<void>;
 }
 
-/** Starts the server as `npm start` does, but on a temporary database and a free port. */
-export async function startServer(): Promise<TestServer> {
+/**
+ * Starts the server as `npm start` does, but on a temporary database and a free port, serving the built
+ * workbench or, for a benchmark's baseline, another built app.
+ */
+export async function startServer(staticDir: string = WORKBENCH_DIR): Promise<TestServer> {
   const temporary = openTemporaryDatabase();
   await seedDemoData(temporary.database, new Date(), DEMO_SEEDERS, { dataDir: dirname(temporary.path) });
   const usageLog = new UsageLog(temporary.database);
-  const app = createApp({ database: temporary.database, staticDir: WORKBENCH_DIR, usageLog });
+  const app = createApp({ database: temporary.database, staticDir, usageLog });
   const server = await new Promise<Server>((resolve) => {
     const listening = app.listen(0, '127.0.0.1', () => resolve(listening));
   });
