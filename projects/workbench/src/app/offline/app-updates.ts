@@ -1,12 +1,13 @@
 import { inject, Injectable, Injector } from '@angular/core';
 import { SwUpdate } from '@angular/service-worker';
 import { filter } from 'rxjs';
+import { showSnackBarMessage } from '../shell/snack-bar-message';
 
 /**
  * Offers a new version of the workbench once the service worker has it: a message with "Reload", never a
  * reload by itself (a technician may be in the middle of a job; what they typed is kept either way). A version
- * the worker can no longer serve asks for a reload in the same way. Material's snack bar, which shows the
- * message, is loaded when there is one to show: most visits never need it.
+ * the worker can no longer serve asks for a reload in the same way. The snack bar that shows the message is
+ * loaded when there is one to show (`showSnackBarMessage`): most visits never need it.
  */
 @Injectable({ providedIn: 'root' })
 export class AppUpdates {
@@ -27,11 +28,11 @@ export class AppUpdates {
   }
 
   private async offerReload(message: string): Promise<void> {
-    const { MatSnackBar } = await import('@angular/material/snack-bar');
-    this.injector
-      .get(MatSnackBar)
-      .open(`${message} Reload when you are ready; what you typed is kept.`, 'Reload')
-      .onAction()
-      .subscribe(() => document.location.reload());
+    const offer = await showSnackBarMessage(
+      this.injector,
+      `${message} Reload when you are ready; what you typed is kept.`,
+      'Reload',
+    );
+    offer.onAction().subscribe(() => document.location.reload());
   }
 }

@@ -21,7 +21,7 @@ describe('AppShell', () => {
 
   beforeEach(async () => {
     TestBed.configureTestingModule({
-      // The navigation's list and the toolbar's menus load once the app is idle: each test draws them.
+      // The navigation's list and the toolbar's menus are deferred blocks: each test draws them.
       deferBlockBehavior: DeferBlockBehavior.Manual,
       imports: [AppShell],
       providers: [

@@ -6,6 +6,7 @@ import { Router, RouterLink } from '@angular/router';
 import { AuthSession } from '../auth/auth-session';
 import { ROLE_LABELS } from '../auth/roles';
 import { httpErrorMessage } from './server-errors';
+import { showSnackBarMessage } from './snack-bar-message';
 
 /**
  * The signed-in person in the toolbar: who they are, for which organisation and in which role, and the
@@ -111,12 +112,9 @@ export class UserMenu {
         if (!this.session.signedIn()) return done();
         this.signingOut.set(false);
         // Staying signed in is the honest answer: the refresh cookie would restore the session on reload.
-        // Material's snack bar is loaded for this message only, which most visits never show.
-        void import('@angular/material/snack-bar').then(({ MatSnackBar }) =>
-          this.injector
-            .get(MatSnackBar)
-            .open(`Not signed out. ${httpErrorMessage(error)}`, 'Close', { duration: 10_000 }),
-        );
+        void showSnackBarMessage(this.injector, `Not signed out. ${httpErrorMessage(error)}`, 'Close', {
+          duration: 10_000,
+        });
       },
     });
   }
